@@ -1,0 +1,108 @@
+package planetary_test
+
+import (
+	"math"
+	"testing"
+
+	"github.com/powersplit-dev/powersplit/planetary"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+func finiteAll(v ...float64) bool {
+	for _, x := range v {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			return false
+		}
+	}
+	return true
+}
+
+func FuzzNew(f *testing.F) {
+	f.Add(20, 100, 40, 3, 0, 0.0, 0.0, 0)
+	f.Add(21, 108, 43, 3, 0, 1.75e-3, 0.97, 0)
+	f.Add(20, 62, 18, 3, 1, 0.0, 0.0, 18)
+	f.Add(0, -1, 0, 0, 9, math.NaN(), math.Inf(1), -3)
+	f.Add(1, 2, 1, 1<<30, 0, 1e300, 1.0, 0)
+	f.Fuzz(func(t *testing.T, zs, zr, zp, n, arr int, module, eta float64, zo int) {
+		d := planetary.Design{Sun: zs, Ring: zr, Planet: zp, Planets: n, Arrangement: planetary.Arrangement(arr),
+			Module: units.Length(module), BasicEfficiency: eta, OuterPlanet: zo}
+		s, err := planetary.New(d)
+		if err != nil {
+			return
+		}
+		i0, e := s.FixedCarrierRatio(), s.BasicEfficiency()
+		if !finiteAll(i0, e) || i0 == 0 || e <= 0 || e > 1 {
+			t.Fatalf("New(%+v) gave i0 %v eta0 %v", d, i0, e)
+		}
+		sp, err := s.Solve(planetary.Speeds{Sun: 300, Ring: -20}, planetary.Carrier)
+		if err != nil {
+			t.Fatalf("Solve on a valid set: %v", err)
+		}
+		ps, err := s.PlanetSpeeds(sp)
+		if err != nil || !finiteAll(float64(ps.Inner), float64(ps.Outer)) {
+			t.Fatalf("PlanetSpeeds(%v) = %v, %v", sp, ps, err)
+		}
+	})
+}
+
+func FuzzFromRatio(f *testing.F) {
+	f.Add(-3.0, 0.98)
+	f.Add(2.0, 0.0)
+	f.Add(1.0, 1.0)
+	f.Add(math.NaN(), 0.5)
+	f.Add(1e-300, 1e-300)
+	f.Fuzz(func(t *testing.T, i0, eta float64) {
+		s, err := planetary.FromRatio(i0, eta)
+		if err != nil {
+			return
+		}
+		if s.FixedCarrierRatio() != i0 || !(s.BasicEfficiency() > 0 && s.BasicEfficiency() <= 1) {
+			t.Fatalf("FromRatio(%v, %v) = %v, %v", i0, eta, s.FixedCarrierRatio(), s.BasicEfficiency())
+		}
+	})
+}
+
+func FuzzSolve(f *testing.F) {
+	f.Add(-3.0, 0.98, 100.0, 0.0, 0.0, 2)
+	f.Add(2.5, 0.97, 1e308, -1e308, 0.0, 0)
+	f.Add(-1e-300, 1.0, 1.0, 1.0, 1.0, 1)
+	f.Add(-3.0, 0.98, math.NaN(), 0.0, 0.0, 5)
+	f.Fuzz(func(t *testing.T, i0, eta, ws, wr, wc float64, unknown int) {
+		s, err := planetary.FromRatio(i0, eta)
+		if err != nil {
+			return
+		}
+		sp := planetary.Speeds{Sun: units.AngularVelocity(ws), Ring: units.AngularVelocity(wr), Carrier: units.AngularVelocity(wc)}
+		out, err := s.Solve(sp, planetary.Member(unknown))
+		if err != nil {
+			return
+		}
+		if !finiteAll(float64(out.Sun), float64(out.Ring), float64(out.Carrier)) {
+			t.Fatalf("Solve(%v, %d) = %v", sp, unknown, out)
+		}
+	})
+}
+
+func FuzzTorque(f *testing.F) {
+	f.Add(-3.0, 0.98, 100.0, 10.0, 0, 50.0)
+	f.Add(-3.0, 0.98, 100.0, 100.0, 2, -50.0)
+	f.Add(4.0, 0.9, -1e300, 1e300, 1, 1e300)
+	f.Add(0.5, 0.95, 1.0, -1.0, 2, math.Inf(-1))
+	f.Fuzz(func(t *testing.T, i0, eta, ws, wr float64, known int, tq float64) {
+		s, err := planetary.FromRatio(i0, eta)
+		if err != nil {
+			return
+		}
+		sp, err := s.Solve(planetary.Speeds{Sun: units.AngularVelocity(ws), Ring: units.AngularVelocity(wr)}, planetary.Carrier)
+		if err != nil {
+			return
+		}
+		st, err := s.Torque(sp, planetary.Member(known), units.Torque(tq))
+		if err != nil {
+			return
+		}
+		if !finiteAll(float64(st.Torques.Sun), float64(st.Torques.Ring), float64(st.Torques.Carrier), float64(st.Loss), float64(st.RollingPower)) || st.Loss < 0 {
+			t.Fatalf("Torque(%v, %d, %v) = %+v", sp, known, tq, st)
+		}
+	})
+}
