@@ -1,0 +1,195 @@
+package traction
+
+import (
+	"math"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// MinSlip is the least slip the traction models accept. Negative slip
+// (travel faster than ω·r) describes an overrun wheel: one pushed along by
+// the vehicle, as an axle is when another axle drives it through a fixed
+// ratio. Driving-wheel entries such as Wheel.At accept only [0, 1).
+const MinSlip = -0.5
+
+// Pull is the state of one wheel at one slip: the forces along the travel
+// direction and the tractive efficiency.
+//
+// By construction Gross = Net + Resistance. The torque on the wheel is
+// Gross·r (r the rolling radius).
+type Pull struct {
+	Slip       float64     // s = 1 − v/(ω·r)
+	Load       units.Force // dynamic vertical load W on the wheel
+	Gross      units.Force // gross traction GT·W, the pull the wheel torque produces
+	Resistance units.Force // motion resistance MR·W
+	Net        units.Force // net pull NT·W = Gross − Resistance
+	// Efficiency is the tractive efficiency TE = (NT/GT)·(1 − s), the
+	// drawbar power over the wheel input power. It is 0 when the wheel
+	// gives no net pull or takes no torque (NT <= 0 or GT <= 0): then no
+	// useful power leaves it.
+	Efficiency float64
+}
+
+// GrossRatio returns GT = Gross/Load.
+func (p Pull) GrossRatio() float64 { return float64(p.Gross) / float64(p.Load) }
+
+// ResistanceRatio returns MR = Resistance/Load.
+func (p Pull) ResistanceRatio() float64 { return float64(p.Resistance) / float64(p.Load) }
+
+// NetRatio returns NT = Net/Load.
+func (p Pull) NetRatio() float64 { return float64(p.Net) / float64(p.Load) }
+
+// A Model gives the pull of a tyre on a surface at a dynamic wheel load and
+// a slip in [MinSlip, 1). Implementations are immutable and safe for
+// concurrent use; they return an error (never NaN) for bad input.
+type Model interface {
+	Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, error)
+}
+
+func makePull(load units.Force, slip, gt, mr float64) Pull {
+	nt := gt - mr
+	te := 0.0
+	if nt > 0 && gt > 0 {
+		te = nt / gt * (1 - slip)
+	}
+	w := float64(load)
+	return Pull{
+		Slip: slip, Load: load,
+		Gross: units.Force(gt * w), Resistance: units.Force(mr * w), Net: units.Force(nt * w),
+		Efficiency: te,
+	}
+}
+
+func checkLoadSlip(load units.Force, slip float64) error {
+	if !finite(float64(load)) || load <= 0 {
+		return rangeErr(ErrLoad, "wheel load", float64(load), "> 0 and finite")
+	}
+	if !(slip >= MinSlip && slip < 1) {
+		return rangeErr(ErrSlip, "slip", slip, "in [-0.5, 1)")
+	}
+	return nil
+}
+
+func checkSoil(t Tyre, s Surface) error {
+	if err := t.Validate(); err != nil {
+		return err
+	}
+	if err := s.Validate(); err != nil {
+		return err
+	}
+	if s.ConeIndex <= 0 {
+		return rangeErr(ErrSurface, "cone index", float64(s.ConeIndex), "> 0 for a soil model")
+	}
+	return nil
+}
+
+// Brixius is the traction model of Brixius (1987) for bias-ply tyres, as
+// given in ASABE D497.7 (2011):
+//
+//	Bn = (CI·b·d/W)·(1 + 5δ/h)/(1 + 3b/d)
+//	GT = 0.88·(1 − e^(−0.1·Bn))·(1 − e^(−7.5·s)) + 0.04
+//	MR = 1/Bn + 0.04 + 0.5·s/√Bn
+//	NT = GT − MR
+//	TE = (NT/GT)·(1 − s)
+//
+// The zero value is ready to use.
+type Brixius struct{}
+
+// MobilityNumber returns the Brixius mobility number Bn of a tyre on a soil
+// under a wheel load.
+func (Brixius) MobilityNumber(t Tyre, s Surface, load units.Force) (float64, error) {
+	if err := checkSoil(t, s); err != nil {
+		return 0, err
+	}
+	if err := checkLoadSlip(load, 0); err != nil {
+		return 0, err
+	}
+	return brixiusBn(t, s, load), nil
+}
+
+func brixiusBn(t Tyre, s Surface, load units.Force) float64 {
+	b, d := float64(t.Width), float64(t.Diameter)
+	cn := float64(s.ConeIndex) * b * d / float64(load)
+	return cn * (1 + 5*float64(t.Deflection)/float64(t.SectionHeight)) / (1 + 3*b/d)
+}
+
+// Pull implements Model.
+func (m Brixius) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, error) {
+	if err := checkSoil(t, s); err != nil {
+		return Pull{}, err
+	}
+	if err := checkLoadSlip(load, slip); err != nil {
+		return Pull{}, err
+	}
+	bn := brixiusBn(t, s, load)
+	gt := 0.88*(1-math.Exp(-0.1*bn))*(1-math.Exp(-7.5*slip)) + 0.04
+	mr := 1/bn + 0.04 + 0.5*slip/math.Sqrt(bn)
+	return makePull(load, slip, gt, mr), nil
+}
+
+// WismerLuth is the traction model of Wismer and Luth (1974) with its wheel
+// numeric Cn = CI·b·d/W:
+//
+//	NT = 0.75·(1 − e^(−0.3·Cn·s)) − (1.2/Cn + 0.04)
+//	MR = 1.2/Cn + 0.04
+//	GT = NT + MR = 0.75·(1 − e^(−0.3·Cn·s))
+//
+// The zero value is ready to use.
+type WismerLuth struct{}
+
+// Pull implements Model.
+func (WismerLuth) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, error) {
+	if err := checkSoil(t, s); err != nil {
+		return Pull{}, err
+	}
+	if err := checkLoadSlip(load, slip); err != nil {
+		return Pull{}, err
+	}
+	cn := float64(s.ConeIndex) * float64(t.Width) * float64(t.Diameter) / float64(load)
+	gt := 0.75 * (1 - math.Exp(-0.3*cn*slip))
+	mr := 1.2/cn + 0.04
+	return makePull(load, slip, gt, mr), nil
+}
+
+// Road is a model for tyres on a hard road, with the surface's rolling
+// coefficient f and peak adhesion μ:
+//
+//	GT = μ·(1 − e^(−k·s)) + f
+//	MR = f
+//	NT = μ·(1 − e^(−k·s))
+//
+// so a wheel at zero slip carries its rolling resistance and gives no net
+// pull, and the net pull rises towards μ·W. The slip constant k sets how
+// fast; its zero value means the default 15 (63 % of μ at 6.7 % slip).
+//
+// Common practice (no published source): the exponential traction curve
+// and k near 15 describe a pneumatic tyre on a dry hard surface.
+type Road struct {
+	SlipConstant float64 // k; 0 means 15; otherwise > 0 and finite
+}
+
+// Pull implements Model.
+func (m Road) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, error) {
+	if err := t.Validate(); err != nil {
+		return Pull{}, err
+	}
+	if err := s.Validate(); err != nil {
+		return Pull{}, err
+	}
+	if s.RollingCoefficient <= 0 {
+		return Pull{}, rangeErr(ErrSurface, "rolling coefficient", s.RollingCoefficient, "> 0 for the road model")
+	}
+	k := m.SlipConstant
+	if k == 0 {
+		k = 15
+	}
+	if !finite(k) || k < 0 {
+		return Pull{}, rangeErr(ErrInput, "road slip constant", k, "> 0 and finite")
+	}
+	if err := checkLoadSlip(load, slip); err != nil {
+		return Pull{}, err
+	}
+	f := s.RollingCoefficient
+	nt := s.adhesion() * (1 - math.Exp(-k*slip))
+	return makePull(load, slip, nt+f, f), nil
+}
