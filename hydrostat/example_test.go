@@ -1,0 +1,158 @@
+package hydrostat_test
+
+import (
+	"errors"
+	"fmt"
+
+	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// Invented demo coefficients, not data of any real unit.
+var demoLoss = hydrostat.Wilson{Slip: 4e-9, Viscous: 4e4, Friction: 0.015, ConstantPressure: units.Bar(1)}
+
+func ExampleGeometricDisplacement() {
+	// Nine 20 mm pistons on a 100 mm pitch circle, 18° swashplate.
+	d, err := hydrostat.GeometricDisplacement(hydrostat.Swashplate, 9, units.Millimetres(20), units.Millimetres(100), units.Degrees(18))
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("%.1f cm³/rev\n", d.CCPerRev())
+	// Output:
+	// 91.9 cm³/rev
+}
+
+func ExampleUnit_At() {
+	pump, err := hydrostat.NewUnit(hydrostat.UnitSpec{
+		MaxDisplacement: units.CCPerRev(90), MaxSpeed: units.RPM(3000),
+		RatedPressure: units.Bar(420), PeakPressure: units.Bar(480), Loss: demoLoss,
+	})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	p, err := pump.At(0.8, units.RPM(2000), units.Bar(250), hydrostat.VG46, units.Celsius(60))
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("%v: flow %.1f L/min, torque %.1f N·m\n", p.Mode, p.Flow.LitresPerMinute(), p.Torque.NewtonMetres())
+	fmt.Printf("η_v %.3f  η_hm %.3f  η %.3f  loss %.2f kW\n", p.Volumetric, p.HydroMechanical, p.Overall, p.Loss.Kilowatts())
+	// Output:
+	// pumping: flow 139.1 L/min, torque 295.4 N·m
+	// η_v 0.966  η_hm 0.970  η 0.937  loss 3.92 kW
+}
+
+func ExampleUnit_PressureFor() {
+	motor, _ := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(110), PeakPressure: units.Bar(480), Loss: demoLoss})
+	// The load takes 300 N·m from the motor shaft turning forward, so the
+	// shaft applies −300 N·m to the motor; the motor sees Δp = p_out − p_in < 0.
+	p, err := motor.PressureFor(1, units.RPM(1200), units.NewtonMetres(-300), hydrostat.VG46, units.Celsius(60))
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("%v at %.1f bar, η_hm %.3f\n", p.Mode, -p.Pressure.Bar(), p.HydroMechanical)
+	// Output:
+	// motoring at 175.9 bar, η_hm 0.974
+}
+
+func ExampleOil_Viscosity() {
+	for _, c := range []float64{0, 40, 60, 100} {
+		fmt.Printf("VG 46 at %3.0f °C: %6.1f cSt\n", c, hydrostat.VG46.Viscosity(units.Celsius(c)).Centistokes())
+	}
+	// Output:
+	// VG 46 at   0 °C:  577.3 cSt
+	// VG 46 at  40 °C:   46.0 cSt
+	// VG 46 at  60 °C:   20.6 cSt
+	// VG 46 at 100 °C:    6.8 cSt
+}
+
+func newDemoLoop(sched hydrostat.Schedule) (hydrostat.Loop, error) {
+	pump, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(90), MaxSpeed: units.RPM(3200), PeakPressure: units.Bar(480), Loss: demoLoss})
+	if err != nil {
+		return hydrostat.Loop{}, err
+	}
+	motor, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(110), MaxSpeed: units.RPM(4200), PeakPressure: units.Bar(480), Loss: demoLoss, Kind: hydrostat.BentAxis})
+	if err != nil {
+		return hydrostat.Loop{}, err
+	}
+	return hydrostat.NewLoop(hydrostat.LoopSpec{
+		Pump: pump, Motors: []hydrostat.Unit{motor}, Oil: hydrostat.VG46, Temperature: units.Celsius(60),
+		Charge: units.Bar(25), Relief: units.Bar(450), Schedule: sched,
+	})
+}
+
+func ExampleLoop_At() {
+	loop, err := newDemoLoop(hydrostat.Sequential{})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	var st hydrostat.LoopState // reuse across calls: At then allocates nothing
+	pumpSpeed := units.RPM(2000)
+	for _, ratio := range []float64{0, 0.5, 1, 2, 5} {
+		motor := []units.AngularVelocity{pumpSpeed * units.AngularVelocity(ratio)}
+		err := loop.At(pumpSpeed, motor, units.Bar(250), &st)
+		if errors.Is(err, hydrostat.ErrSettingLimit) {
+			fmt.Printf("ratio %.1f: %v\n", ratio, err)
+			continue
+		}
+		fmt.Printf("ratio %.1f: pump %.3f motor %.3f η %.3f\n", ratio, st.Settings[0], st.Settings[1], st.Efficiency)
+	}
+	// Output:
+	// ratio 0.0: pump 0.061 motor 1.000 η 0.000
+	// ratio 0.5: pump 0.672 motor 1.000 η 0.858
+	// ratio 1.0: pump 1.000 motor 0.768 η 0.887
+	// ratio 2.0: pump 1.000 motor 0.384 η 0.843
+	// ratio 5.0: hydrostat: motor setting 0.153654 beyond limit 0.2
+}
+
+func ExampleLoop_Solve() {
+	loop, err := newDemoLoop(nil) // nil schedule: Sequential
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	st, err := loop.Solve(hydrostat.LoopInput{
+		PumpSpeed:    units.RPM(2000),
+		MotorSpeeds:  []units.AngularVelocity{units.RPM(1200)},
+		MotorTorques: []units.Torque{units.NewtonMetres(-300)},
+	})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("Δp %.1f bar, high line %.1f bar, pump torque %.1f N·m, η %.3f\n",
+		st.Pressure.Bar(), st.High.Bar(), st.Pump.Torque.NewtonMetres(), st.Efficiency)
+	// Output:
+	// Δp 175.9 bar, high line 200.9 bar, pump torque 202.8 N·m, η 0.887
+}
+
+func ExampleNewMap() {
+	// Invented demo test data of a fixed unit: one setting layer.
+	m, err := hydrostat.NewMap(hydrostat.MapSpec{
+		Speeds:          []units.AngularVelocity{units.RPM(1000), units.RPM(3000)},
+		Pressures:       []units.Pressure{units.Bar(100), units.Bar(400)},
+		Settings:        []float64{1},
+		Volumetric:      [][][]float64{{{0.97, 0.92}, {0.99, 0.96}}},
+		HydroMechanical: [][][]float64{{{0.93, 0.96}, {0.89, 0.94}}},
+	})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	u, _ := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(50), Loss: m})
+	p, err := u.At(1, units.RPM(2000), units.Bar(250), hydrostat.VG46, units.Celsius(50))
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Printf("η_v %.4f η_hm %.4f η %.4f\n", p.Volumetric, p.HydroMechanical, p.Overall)
+	_, err = u.At(1, units.RPM(4000), units.Bar(250), hydrostat.VG46, units.Celsius(50))
+	fmt.Println(err)
+	// Output:
+	// η_v 0.9600 η_hm 0.9300 η 0.8928
+	// hydrostat: operating point outside the measured map
+}

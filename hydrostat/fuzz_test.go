@@ -1,0 +1,116 @@
+package hydrostat
+
+import (
+	"math"
+	"testing"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+func finitePoint(t *testing.T, p Point) {
+	t.Helper()
+	for _, v := range []float64{p.Setting, float64(p.Speed), float64(p.Pressure), float64(p.IdealFlow), float64(p.Flow),
+		float64(p.Leakage), float64(p.IdealTorque), float64(p.Torque), float64(p.LossTorque), p.Volumetric,
+		p.HydroMechanical, p.Overall, float64(p.Mechanical), float64(p.Hydraulic), float64(p.Loss)} {
+		if !finite(v) {
+			t.Fatalf("non-finite value in %+v", p)
+		}
+	}
+}
+
+func FuzzNewUnit(f *testing.F) {
+	f.Add(100.0, 3000.0, 420.0, 480.0, 0, 0.0, 0.0, 0.0, 1e-8, 0.02)
+	f.Add(0.0, 0.0, 0.0, 0.0, 9, 12.7, 127.0, 10.0, 0.0, 0.0)
+	f.Add(-1.0, math.NaN(), math.Inf(1), 0.0, -3, -1.0, 0.0, 95.0, -1.0, 2.0)
+	f.Fuzz(func(t *testing.T, cc, rpm, rated, peak float64, pistons int, dmm, pmm, deg, cs, cf float64) {
+		u, err := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(cc), MaxSpeed: units.RPM(rpm),
+			RatedPressure: units.Bar(rated), PeakPressure: units.Bar(peak), Pistons: pistons,
+			PistonDiameter: units.Millimetres(dmm), PitchDiameter: units.Millimetres(pmm), MaxAngle: units.Degrees(deg),
+			Loss: Wilson{Slip: cs, Friction: cf}})
+		if err != nil {
+			return
+		}
+		if d := float64(u.Spec().MaxDisplacement); !(d > 0) || !finite(d) {
+			t.Fatalf("built unit with displacement %v", d)
+		}
+	})
+}
+
+func FuzzUnitAt(f *testing.F) {
+	f.Add(0.7, 2000.0, 250.0, 60.0, 1e-8, 5e4, 0.02, 10.0, true, 0.5)
+	f.Add(-1.0, -3000.0, -480.0, 0.0, 0.0, 0.0, 0.0, 0.0, false, 0.0)
+	f.Add(0.0, 0.0, 0.0, -300.0, 1.0, 1.0, 1.0, 1.0, true, 1.0)
+	f.Add(1e-300, 1e300, 1e-300, 1e4, 1e300, 1e300, 1e300, 1e300, true, 1e300)
+	f.Fuzz(func(t *testing.T, x, rpm, bar, degC, cs, cv, cf, ch float64, comp bool, cr float64) {
+		u, err := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(100), MaxSpeed: units.RPM(3000), PeakPressure: units.Bar(480),
+			Loss: Wilson{Slip: cs, Viscous: cv, Friction: cf, Hydrodynamic: ch, Compressibility: comp, DeadVolume: cr}})
+		if err != nil {
+			return
+		}
+		p, err := u.At(x, units.RPM(rpm), units.Bar(bar), VG46, units.Celsius(degC))
+		if err == nil || isLimit(err) {
+			finitePoint(t, p)
+		}
+		q, err := u.PressureFor(x, units.RPM(rpm), units.NewtonMetres(bar), VG46, units.Celsius(degC))
+		if err == nil || isLimit(err) {
+			finitePoint(t, q)
+		}
+	})
+}
+
+func FuzzNewOil(f *testing.F) {
+	f.Add(40.0, 46.0, 100.0, 6.8, 60.0)
+	f.Add(40.0, 46.0, 40.0, 46.0, 60.0)
+	f.Add(-300.0, 1e300, 1e300, 2.0, -1.0)
+	f.Fuzz(func(t *testing.T, t1, n1, t2, n2, at float64) {
+		o, err := NewOil(OilSpec{T1: units.Celsius(t1), Nu1: units.Centistokes(n1), T2: units.Celsius(t2), Nu2: units.Centistokes(n2)})
+		if err != nil {
+			return
+		}
+		nu := o.Viscosity(units.Celsius(at))
+		if math.IsNaN(float64(nu)) || nu < 0 {
+			t.Fatalf("viscosity %v at %v °C", nu, at)
+		}
+		if rho := o.Density(units.Celsius(at)); math.IsNaN(float64(rho)) {
+			t.Fatalf("density NaN")
+		}
+	})
+}
+
+func FuzzLoop(f *testing.F) {
+	f.Add(2000.0, 1200.0, -800.0, 250.0, -300.0, 0.2, false)
+	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0, true)
+	f.Add(-2000.0, 3000.0, 0.0, -440.0, 500.0, 1.0, true)
+	f.Add(1e300, -1e300, math.NaN(), math.Inf(1), 1e300, -1.0, false)
+	f.Fuzz(func(t *testing.T, wp, wm1, wm2, bar, torque, minMotor float64, minLoss bool) {
+		var sched Schedule = Sequential{MinMotorSetting: minMotor}
+		if minLoss {
+			sched = MinLoss{MinMotorSetting: minMotor}
+		}
+		pump, _ := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(90), MaxSpeed: units.RPM(3200), PeakPressure: units.Bar(480), Loss: demoWilson})
+		motor, _ := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(110), MaxSpeed: units.RPM(4000), PeakPressure: units.Bar(480), Loss: demoWilson})
+		l, err := NewLoop(LoopSpec{Pump: pump, Motors: []Unit{motor, motor}, Oil: VG46, Temperature: units.Celsius(60),
+			Charge: units.Bar(25), Relief: units.Bar(450), Schedule: sched})
+		if err != nil {
+			return
+		}
+		speeds := []units.AngularVelocity{units.RPM(wm1), units.RPM(wm2)}
+		var st LoopState
+		if err := l.At(units.RPM(wp), speeds, units.Bar(bar), &st); err == nil || isLimit(err) {
+			finitePoint(t, st.Pump)
+			for _, m := range st.Motors {
+				finitePoint(t, m)
+			}
+			if !finite(st.Efficiency) || !finite(float64(st.Loss)) {
+				t.Fatalf("non-finite loop summary %+v", st)
+			}
+		}
+		in := LoopInput{PumpSpeed: units.RPM(wp), MotorSpeeds: speeds, MotorTorques: []units.Torque{units.Torque(torque), units.Torque(torque / 2)}}
+		if st, err := l.Solve(in); err == nil || isLimit(err) {
+			finitePoint(t, st.Pump)
+			for _, m := range st.Motors {
+				finitePoint(t, m)
+			}
+		}
+	})
+}

@@ -1,0 +1,137 @@
+package hydrostat
+
+import (
+	"fmt"
+	"math"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// LossModel gives the leakage flow and the loss torque of a unit at an
+// operating point. Implementations must be safe for concurrent use, should
+// not allocate, and must return finite, non-negative losses or an error.
+type LossModel interface {
+	Losses(c Condition) (Losses, error)
+}
+
+// Condition is an operating point as a loss model sees it.
+type Condition struct {
+	Setting         float64               // relative displacement x in [-1, 1]
+	MaxDisplacement units.Displacement    // D_max, per radian
+	Speed           units.AngularVelocity // signed shaft speed ω
+	Pressure        units.Pressure        // |Δp|, high minus low, ≥ 0
+	Viscosity       units.DynamicViscosity
+	Density         units.Density
+	BulkModulus     units.Pressure
+	Temperature     units.Temperature
+	Mode            Mode // from the sign of the ideal power Δp·x·D_max·ω
+}
+
+// Losses are the two loss quantities of a unit. Both are magnitudes.
+type Losses struct {
+	Leakage units.VolumeFlow // ≥ 0, flow from the high to the low side (all flow losses)
+	Torque  units.Torque     // ≥ 0, loss torque opposing the motion
+}
+
+// Wilson is the loss model of Wilson (1949) in dimensionless coefficients,
+// with the extensions of McCandlish & Dorey (1984) and Ivantysyn &
+// Ivantysynova (2001). D is per radian (see doc.go for the exact form and
+// for coefficients quoted per revolution). The zero value is lossless.
+//
+//	Q_s = Cs·D_q·|Δp|/μ                          laminar leakage
+//	Q_r = (Cr + |x|)·D_max·|ω|·|Δp|/β             compression (if Compressibility)
+//	T_v = Cv·D_t·μ·|ω|                           viscous drag
+//	T_f = Cf·D_t·|Δp|                            Coulomb friction ∝ load
+//	T_c = p_c·D_t                                constant torque
+//	T_h = Ch·ρ·ω²·D_t^(5/3)                      hydrodynamic (churning) torque
+//	D_q = D_max·(1 − s_q + s_q·|x|),  D_t = D_max·(1 − s_t + s_t·|x|)
+type Wilson struct {
+	Slip         float64 // Cs, laminar leakage coefficient, ≥ 0
+	Viscous      float64 // Cv, viscous drag coefficient, ≥ 0
+	Friction     float64 // Cf, Coulomb friction coefficient, ≥ 0 (torque loss per ideal torque at full setting)
+	Hydrodynamic float64 // Ch, churning torque coefficient, ≥ 0
+
+	// ConstantPressure p_c expresses the constant loss torque T_c as the
+	// pressure difference that would produce it at displacement D_t.
+	ConstantPressure units.Pressure
+
+	// Compressibility adds the compression flow loss Q_r; DeadVolume is Cr,
+	// the dead volume of all cylinders at full setting divided by the
+	// volume displaced per revolution at full setting (typically 0.2–1).
+	Compressibility bool
+	DeadVolume      float64
+
+	// LeakageSetting s_q and TorqueSetting s_t in [0, 1] choose how the
+	// leakage and the torque terms scale: 0 (default) with the maximum
+	// displacement (the classic Wilson form), 1 with the set displacement
+	// |x|·D_max, in between a blend.
+	LeakageSetting float64
+	TorqueSetting  float64
+}
+
+// Validate reports an error for negative, NaN or infinite coefficients or
+// settings shares outside [0, 1].
+func (m Wilson) Validate() error {
+	for _, c := range []struct {
+		name string
+		v    float64
+	}{
+		{"slip", m.Slip}, {"viscous", m.Viscous}, {"friction", m.Friction},
+		{"hydrodynamic", m.Hydrodynamic}, {"constant pressure", float64(m.ConstantPressure)},
+		{"dead volume", m.DeadVolume},
+	} {
+		if !finite(c.v) || c.v < 0 {
+			return fmt.Errorf("%w: Wilson %s coefficient %v must be finite and ≥ 0", ErrInvalid, c.name, c.v)
+		}
+	}
+	for _, s := range []float64{m.LeakageSetting, m.TorqueSetting} {
+		if !(s >= 0 && s <= 1) {
+			return fmt.Errorf("%w: Wilson setting share %v must be in [0, 1]", ErrInvalid, s)
+		}
+	}
+	return nil
+}
+
+// Losses implements LossModel.
+func (m Wilson) Losses(c Condition) (Losses, error) {
+	x := math.Abs(c.Setting)
+	dmax := float64(c.MaxDisplacement)
+	dp := math.Abs(float64(c.Pressure))
+	w := math.Abs(float64(c.Speed))
+	mu, rho, beta := float64(c.Viscosity), float64(c.Density), float64(c.BulkModulus)
+	if !(dmax > 0) || !(mu > 0) || !finite(dmax) || !finite(mu) || !finite(dp) || !finite(w) || !(x <= 1) {
+		return Losses{}, fmt.Errorf("%w: Wilson needs D_max > 0, viscosity > 0 and finite values", ErrInvalid)
+	}
+	dq := dmax * (1 - m.LeakageSetting + m.LeakageSetting*x)
+	dt := dmax * (1 - m.TorqueSetting + m.TorqueSetting*x)
+	leak := m.Slip * dq * dp / mu
+	if m.Compressibility {
+		if !(beta > 0) || !finite(beta) {
+			return Losses{}, fmt.Errorf("%w: compressibility needs a positive bulk modulus", ErrInvalid)
+		}
+		leak += (m.DeadVolume + x) * dmax * w * dp / beta
+	}
+	tau := m.Viscous*dt*mu*w + m.Friction*dt*dp + float64(m.ConstantPressure)*dt
+	if m.Hydrodynamic > 0 {
+		if !(rho > 0) || !finite(rho) {
+			return Losses{}, fmt.Errorf("%w: hydrodynamic torque needs a positive density", ErrInvalid)
+		}
+		tau += m.Hydrodynamic * rho * w * w * math.Pow(dt, 5.0/3)
+	}
+	return Losses{Leakage: units.VolumeFlow(leak), Torque: units.Torque(tau)}, nil
+}
+
+// WilsonPerRev converts coefficients quoted for the same formulas written
+// with the displacement per revolution, D_rev = 2π·D, into the per-radian
+// coefficients this package uses: Cs, Cv, Cf and p_c are multiplied by 2π,
+// Ch by (2π)^(5/3); the dead-volume ratio and the setting shares do not
+// change.
+func WilsonPerRev(m Wilson) Wilson {
+	const k = 2 * math.Pi
+	m.Slip *= k
+	m.Viscous *= k
+	m.Friction *= k
+	m.ConstantPressure *= k
+	m.Hydrodynamic *= math.Pow(k, 5.0/3)
+	return m
+}

@@ -1,0 +1,143 @@
+package hydrostat
+
+import (
+	"fmt"
+	"math"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// OilSpec describes a hydraulic oil by two points of its viscosity–
+// temperature line (ASTM D341) and its density and bulk modulus.
+type OilSpec struct {
+	Name string // for display only
+	// Two kinematic viscosities at two different temperatures, each at
+	// least 2 cSt (the range of the Walther equation as used here).
+	T1  units.Temperature
+	Nu1 units.KinematicViscosity
+	T2  units.Temperature
+	Nu2 units.KinematicViscosity
+	// Density at DensityTemperature; 0 means 870 kg/m³ at 15 °C.
+	Density            units.Density
+	DensityTemperature units.Temperature // 0 means 15 °C
+	// Expansion is the volumetric thermal expansion coefficient α in 1/K;
+	// 0 means 7×10⁻⁴ /K. ρ(T) = ρ_ref / (1 + α·(T − T_ref)).
+	Expansion float64
+	// BulkModulus β, taken constant; 0 means 1.6 GPa.
+	BulkModulus units.Pressure
+}
+
+// Oil is a built, immutable hydraulic oil.
+type Oil struct {
+	spec  OilSpec
+	a, b  float64 // log₁₀ log₁₀(ν + 0.7) = a − b·log₁₀ T
+	valid bool
+}
+
+// Default property values of an OilSpec.
+//
+// From memory: typical mineral hydraulic oil: density 0.86–0.88 kg/L at
+// 15 °C, volumetric expansion 6.5–7.5×10⁻⁴ /K, bulk modulus 1.4–1.8 GPa
+// (air-free, moderate pressure). Check the oil supplier's data.
+const (
+	defaultDensity   = 870.0
+	defaultExpansion = 7e-4
+	defaultBulk      = 1.6e9
+)
+
+// NewOil validates s and fits the Walther line through its two points.
+func NewOil(s OilSpec) (Oil, error) {
+	t1, t2 := float64(s.T1), float64(s.T2)
+	n1, n2 := s.Nu1.Centistokes(), s.Nu2.Centistokes()
+	for _, v := range []float64{t1, t2, n1, n2, float64(s.Density), float64(s.DensityTemperature), s.Expansion, float64(s.BulkModulus)} {
+		if !finite(v) || v < 0 {
+			return Oil{}, fmt.Errorf("%w: oil property %v must be finite and ≥ 0", ErrInvalid, v)
+		}
+	}
+	if !(t1 > 0) || !(t2 > 0) || t1 == t2 {
+		return Oil{}, fmt.Errorf("%w: two different positive temperatures needed", ErrInvalid)
+	}
+	if !(n1 >= 2) || !(n2 >= 2) {
+		return Oil{}, fmt.Errorf("%w: viscosities must be at least 2 cSt", ErrInvalid)
+	}
+	if (t2-t1)*(n2-n1) >= 0 {
+		return Oil{}, fmt.Errorf("%w: viscosity must fall as temperature rises", ErrInvalid)
+	}
+	if s.Density == 0 {
+		s.Density = defaultDensity
+	}
+	if s.DensityTemperature == 0 {
+		s.DensityTemperature = units.Celsius(15)
+	}
+	if s.Expansion == 0 {
+		s.Expansion = defaultExpansion
+	}
+	if s.BulkModulus == 0 {
+		s.BulkModulus = defaultBulk
+	}
+	z1 := math.Log10(math.Log10(n1 + 0.7))
+	z2 := math.Log10(math.Log10(n2 + 0.7))
+	b := (z1 - z2) / (math.Log10(t2) - math.Log10(t1))
+	a := z1 + b*math.Log10(t1)
+	if !finite(a) || !finite(b) || !(b > 0) {
+		return Oil{}, fmt.Errorf("%w: viscosity points give no valid Walther line", ErrInvalid)
+	}
+	return Oil{spec: s, a: a, b: b, valid: true}, nil
+}
+
+// Spec returns the specification with defaults filled in.
+func (o Oil) Spec() OilSpec { return o.spec }
+
+// Viscosity returns the kinematic viscosity at t by ASTM D341:
+// log₁₀ log₁₀(ν + 0.7) = A − B·log₁₀ T, ν in cSt, T in K. It returns 0 for
+// a zero Oil or a temperature that is not finite and positive. Far above
+// the fitted points ν falls towards the equation's floor of 0.3 cSt, where
+// the equation no longer holds (ASTM D341 adds terms below 2 cSt).
+func (o Oil) Viscosity(t units.Temperature) units.KinematicViscosity {
+	tk := float64(t)
+	if !o.valid || !finite(tk) || tk <= 0 {
+		return 0
+	}
+	z := math.Pow(10, math.Pow(10, o.a-o.b*math.Log10(tk)))
+	return units.Centistokes(z - 0.7)
+}
+
+// Density returns ρ(T) = ρ_ref / (1 + α·(T − T_ref)); 0 for a zero Oil or a
+// temperature that is not finite and positive.
+func (o Oil) Density(t units.Temperature) units.Density {
+	tk := float64(t)
+	if !o.valid || !finite(tk) || tk <= 0 {
+		return 0
+	}
+	return units.Density(float64(o.spec.Density) / (1 + o.spec.Expansion*(tk-float64(o.spec.DensityTemperature))))
+}
+
+// DynamicViscosity returns μ = ν·ρ at t.
+func (o Oil) DynamicViscosity(t units.Temperature) units.DynamicViscosity {
+	return units.DynamicFromKinematic(o.Viscosity(t), o.Density(t))
+}
+
+// BulkModulus returns the (constant) bulk modulus β.
+func (o Oil) BulkModulus() units.Pressure { return o.spec.BulkModulus }
+
+// ISO 3448 viscosity-grade presets: mineral hydraulic oils of viscosity
+// index about 100. The 40 °C point is the grade's midpoint by definition
+// (ISO 3448). The 100 °C point is the value a VI-100 oil of that grade has.
+//
+// From memory: 5.4, 6.8 and 8.7 cSt at 100 °C for VG 32, 46 and 68, the
+// typical data-sheet values of VI-100 mineral oils, consistent with the
+// viscosity-index tables of ASTM D2270 (the test TestPresetsViscosityIndex
+// recomputes the index). Density and bulk modulus are the defaults above.
+var (
+	VG32 = mustOil(OilSpec{Name: "ISO VG 32", T1: units.Celsius(40), Nu1: units.Centistokes(32), T2: units.Celsius(100), Nu2: units.Centistokes(5.4)})
+	VG46 = mustOil(OilSpec{Name: "ISO VG 46", T1: units.Celsius(40), Nu1: units.Centistokes(46), T2: units.Celsius(100), Nu2: units.Centistokes(6.8)})
+	VG68 = mustOil(OilSpec{Name: "ISO VG 68", T1: units.Celsius(40), Nu1: units.Centistokes(68), T2: units.Celsius(100), Nu2: units.Centistokes(8.7)})
+)
+
+func mustOil(s OilSpec) Oil {
+	o, err := NewOil(s)
+	if err != nil {
+		panic("hydrostat: bad preset: " + err.Error())
+	}
+	return o
+}
