@@ -1,0 +1,365 @@
+package powersplit
+
+import (
+	"fmt"
+	"math"
+
+	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/planetary"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// DefaultGearEfficiency is the mesh efficiency of a fixed gear pair when a
+// spec leaves it zero.
+//
+// Common practice (no published source): 0.98–0.99 per loaded spur or
+// helical mesh including bearings.
+const DefaultGearEfficiency = 0.985
+
+// RangeGear is one range of a builder: a fixed gear engaged by its own
+// clutch, with ωout = Ratio·ωfrom.
+type RangeGear struct {
+	Name       string  // range name; "" means "range 1", "range 2", ...
+	Ratio      float64 // non-zero; negative reverses
+	Efficiency float64 // mesh efficiency; 0 means the spec's GearEfficiency
+	// FromVariator takes the range gear from the planetary member on the
+	// hydrostat's side instead of the summing member: the pump member of an
+	// output-coupled split (the units then swap roles: the pump side turns
+	// with the output, and the share is counted from motor to pump, see
+	// Builder.ReverseShare), the motor member of an input-coupled split (a
+	// purely hydrostatic range: the summing member idles). Ranges of both
+	// kinds can shift synchronously (Solver.ShiftPoints). Not for
+	// PureHydrostatic.
+	FromVariator bool
+}
+
+// PTOSpec is a power take-off geared to the engine: ωPTO = Ratio·ωengine.
+type PTOSpec struct {
+	Name       string  // "" means "PTO", "PTO 2", ...
+	Ratio      float64 // non-zero
+	Efficiency float64 // 0 means the spec's GearEfficiency
+}
+
+// OutputCoupledSpec describes an output-coupled split: the planetary set at
+// the input divides the engine power between its output member (mechanical
+// path) and the pump; the motor is geared to the summing shaft on the output
+// side, which drives the output through the range gears.
+type OutputCoupledSpec struct {
+	Set planetary.Set
+	// Input, Pump and Output name the members on the engine side, the pump
+	// side and the summing side. All three zero (all Sun) means Input =
+	// Carrier, Pump = Sun, Output = Ring.
+	Input, Pump, Output planetary.Member
+	InputRatio          float64 // ωinput member = InputRatio·ωengine; 0 means direct (no gear)
+	PumpRatio           float64 // ωpump = PumpRatio·ωpump member; 0 means direct
+	MotorRatio          float64 // ωsum = MotorRatio·ωmotor; 0 means direct
+	// Loop is the hydrostatic loop; it must have exactly one motor.
+	Loop hydrostat.Loop
+	// Ranges are the range gears from the summing shaft to the output;
+	// none means the summing shaft is the output (one range, "single").
+	Ranges         []RangeGear
+	GearEfficiency float64 // mesh efficiency of every fixed gear; 0 means DefaultGearEfficiency
+	PTOs           []PTOSpec
+}
+
+// InputCoupledSpec describes an input-coupled split: the pump turns at a
+// fixed ratio to the engine; the planetary set at the output sums the
+// engine's mechanical path (input member) and the motor (motor member) on
+// its output member, which drives the output through the range gears.
+type InputCoupledSpec struct {
+	Set planetary.Set
+	// Input, Motor and Output name the members. All three zero means
+	// Input = Ring, Motor = Sun, Output = Carrier.
+	Input, Motor, Output planetary.Member
+	InputRatio           float64        // ωinput member = InputRatio·ωengine; 0 means direct
+	PumpRatio            float64        // ωpump = PumpRatio·ωengine; 0 means direct
+	MotorRatio           float64        // ωmotor member = MotorRatio·ωmotor; 0 means direct
+	Loop                 hydrostat.Loop // exactly one motor
+	Ranges               []RangeGear    // from the output member to the output
+	GearEfficiency       float64
+	PTOs                 []PTOSpec
+}
+
+// SecondMotor is a second motor of the loop driving a second output (an
+// axle of its own) through a clutch and a gear, ωaxle2 = Ratio·ωmotor2. It is
+// declutched (and held by a brake) above DeclutchAbove of the first output.
+type SecondMotor struct {
+	Ratio         float64
+	Efficiency    float64               // 0 means the spec's GearEfficiency
+	DeclutchAbove units.AngularVelocity // > 0
+}
+
+// PureHydrostaticSpec describes a hydrostatic drive: pump geared to the
+// engine, motor driving the output through the range gears, and optionally
+// a second motor on a second output.
+type PureHydrostaticSpec struct {
+	PumpRatio      float64 // ωpump = PumpRatio·ωengine; 0 means direct
+	Loop           hydrostat.Loop
+	Ranges         []RangeGear // from the motor to the output
+	Second         *SecondMotor
+	GearEfficiency float64
+	PTOs           []PTOSpec
+}
+
+type specCheck struct{ err error }
+
+func (c *specCheck) ratio(field string, v float64, zeroOK bool) {
+	if c.err != nil {
+		return
+	}
+	if math.IsNaN(v) || math.IsInf(v, 0) || (!zeroOK && v == 0) {
+		c.err = &InputError{Field: field, Value: v, Reason: "ratio must be finite and non-zero"}
+	}
+}
+
+func (c *specCheck) eff(field string, v float64) {
+	if c.err == nil && (math.IsNaN(v) || v < 0 || v > 1) {
+		c.err = &InputError{Field: field, Value: v, Reason: "efficiency outside (0, 1] (0 means default)"}
+	}
+}
+
+func (c *specCheck) loop(l hydrostat.Loop, motors int) {
+	if c.err == nil && len(l.Spec().Motors) != motors {
+		c.err = &InputError{Field: "Loop motors", Value: float64(len(l.Spec().Motors)),
+			Reason: fmt.Sprintf("this builder needs a loop with %d motor(s)", motors)}
+	}
+}
+
+func orDefault(v, d float64) float64 {
+	if v == 0 {
+		return d
+	}
+	return v
+}
+
+// geared returns shaft from itself when ratio is 0, else a new shaft geared
+// to it.
+func geared(b *Builder, name string, from Shaft, ratio, eta float64) Shaft {
+	if ratio == 0 {
+		return from
+	}
+	s := b.Shaft(name)
+	b.Gear(name+" gear", from, s, ratio, eta)
+	return s
+}
+
+func members(sh map[planetary.Member]Shaft) (sun, ring, carrier Shaft) {
+	return sh[planetary.Sun], sh[planetary.Ring], sh[planetary.Carrier]
+}
+
+// finish adds ranges, PTOs and the output from shaft from.
+func finish(b *Builder, c *specCheck, engine, from, alt Shaft, reverseAlt bool, ranges []RangeGear, ptos []PTOSpec, eta float64) {
+	addPTOs(b, c, engine, ptos, eta)
+	if len(ranges) == 0 {
+		b.Output("output", from)
+		return
+	}
+	out := b.Shaft("output")
+	b.Output("output", out)
+	addRanges(b, c, from, alt, reverseAlt, out, ranges, eta, nil)
+}
+
+func addPTOs(b *Builder, c *specCheck, engine Shaft, ptos []PTOSpec, eta float64) {
+	for i, p := range ptos {
+		c.ratio(fmt.Sprintf("PTOs[%d].Ratio", i), p.Ratio, false)
+		c.eff(fmt.Sprintf("PTOs[%d].Efficiency", i), p.Efficiency)
+		name := p.Name
+		if name == "" {
+			name = "PTO"
+			if i > 0 {
+				name = fmt.Sprintf("PTO %d", i+1)
+			}
+		}
+		b.PTO(name, engine, p.Ratio, orDefault(p.Efficiency, eta))
+	}
+}
+
+// addRanges adds one range gear and clutch per range from shaft from to
+// shaft out; more, if not nil, adds to each range (and may add ranges).
+func addRanges(b *Builder, c *specCheck, from, alt Shaft, reverseAlt bool, out Shaft, ranges []RangeGear, eta float64, more func(name string, engaged []string)) {
+	for i, rg := range ranges {
+		src := from
+		if rg.FromVariator {
+			if alt < 0 && c.err == nil {
+				c.err = &InputError{Field: fmt.Sprintf("Ranges[%d].FromVariator", i), Value: 1, Reason: "this builder has no variator member"}
+			}
+			src = alt
+		}
+		c.ratio(fmt.Sprintf("Ranges[%d].Ratio", i), rg.Ratio, false)
+		c.eff(fmt.Sprintf("Ranges[%d].Efficiency", i), rg.Efficiency)
+		name := rg.Name
+		if name == "" {
+			name = fmt.Sprintf("range %d", i+1)
+		}
+		if src < 0 {
+			continue
+		}
+		rs := b.Shaft(name + " gear shaft")
+		b.Gear(name+" gear", src, rs, rg.Ratio, orDefault(rg.Efficiency, eta))
+		b.Clutch(name+" clutch", rs, out)
+		if rg.FromVariator && reverseAlt {
+			b.ReverseShare(name)
+		}
+		if more != nil {
+			more(name, []string{name + " clutch"})
+		} else {
+			b.Range(name, name+" clutch")
+		}
+	}
+}
+
+// OutputCoupled builds an output-coupled split from spec. The motor may turn
+// either way, so the hydrostat gives reverse without a reverse gear. At the
+// mechanical point the pump shaft stands still and the motor must swing back
+// to zero displacement: with a schedule that keeps a minimum motor setting
+// (hydrostat.Sequential: 0.2 by default) a band of output speeds around it
+// is unreachable (ErrUnreachable).
+func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
+	var c specCheck
+	c.ratio("InputRatio", spec.InputRatio, true)
+	c.ratio("PumpRatio", spec.PumpRatio, true)
+	c.ratio("MotorRatio", spec.MotorRatio, true)
+	c.eff("GearEfficiency", spec.GearEfficiency)
+	c.loop(spec.Loop, 1)
+	if c.err != nil {
+		return Layout{}, c.err
+	}
+	eta := orDefault(spec.GearEfficiency, DefaultGearEfficiency)
+	in, pm, om := spec.Input, spec.Pump, spec.Output
+	if in == 0 && pm == 0 && om == 0 {
+		in, pm, om = planetary.Carrier, planetary.Sun, planetary.Ring
+	}
+	b := NewBuilder()
+	engine := b.Shaft("engine")
+	b.Input("engine", engine)
+	sh := map[planetary.Member]Shaft{}
+	sh[in] = geared(b, "planetary input", engine, spec.InputRatio, eta)
+	sh[pm] = b.Shaft("planetary " + pm.String())
+	sh[om] = b.Shaft("sum")
+	if len(sh) != 3 {
+		return Layout{}, &LayoutError{Element: "planetary", Reason: "a member on two shafts: Input, Pump and Output must differ", Err: ErrLayout}
+	}
+	sun, ring, carrier := members(sh)
+	b.Planetary("planetary", spec.Set, sun, ring, carrier)
+	pump := geared(b, "pump", sh[pm], spec.PumpRatio, eta)
+	var motor Shaft
+	if spec.MotorRatio == 0 {
+		motor = sh[om]
+	} else {
+		motor = b.Shaft("motor")
+		b.Gear("motor gear", motor, sh[om], spec.MotorRatio, eta)
+	}
+	b.Loop("hydrostat", spec.Loop, pump, motor)
+	finish(b, &c, engine, sh[om], sh[pm], true, spec.Ranges, spec.PTOs, eta)
+	if c.err != nil {
+		return Layout{}, c.err
+	}
+	return b.Build()
+}
+
+// InputCoupled builds an input-coupled split from spec.
+func InputCoupled(spec InputCoupledSpec) (Layout, error) {
+	var c specCheck
+	c.ratio("InputRatio", spec.InputRatio, true)
+	c.ratio("PumpRatio", spec.PumpRatio, true)
+	c.ratio("MotorRatio", spec.MotorRatio, true)
+	c.eff("GearEfficiency", spec.GearEfficiency)
+	c.loop(spec.Loop, 1)
+	if c.err != nil {
+		return Layout{}, c.err
+	}
+	eta := orDefault(spec.GearEfficiency, DefaultGearEfficiency)
+	in, mm, om := spec.Input, spec.Motor, spec.Output
+	if in == 0 && mm == 0 && om == 0 {
+		in, mm, om = planetary.Ring, planetary.Sun, planetary.Carrier
+	}
+	b := NewBuilder()
+	engine := b.Shaft("engine")
+	b.Input("engine", engine)
+	pump := geared(b, "pump", engine, spec.PumpRatio, eta)
+	sh := map[planetary.Member]Shaft{}
+	sh[in] = geared(b, "planetary input", engine, spec.InputRatio, eta)
+	sh[mm] = b.Shaft("planetary " + mm.String())
+	sh[om] = b.Shaft("sum")
+	if len(sh) != 3 {
+		return Layout{}, &LayoutError{Element: "planetary", Reason: "a member on two shafts: Input, Motor and Output must differ", Err: ErrLayout}
+	}
+	sun, ring, carrier := members(sh)
+	b.Planetary("planetary", spec.Set, sun, ring, carrier)
+	var motor Shaft
+	if spec.MotorRatio == 0 {
+		motor = sh[mm]
+	} else {
+		motor = b.Shaft("motor")
+		b.Gear("motor gear", motor, sh[mm], spec.MotorRatio, eta)
+	}
+	b.Loop("hydrostat", spec.Loop, pump, motor)
+	finish(b, &c, engine, sh[om], sh[mm], false, spec.Ranges, spec.PTOs, eta)
+	if c.err != nil {
+		return Layout{}, c.err
+	}
+	return b.Build()
+}
+
+// PureHydrostatic builds a hydrostatic drive from spec. With spec.Second set
+// the loop needs two motors and every range comes twice: name (both motors,
+// usable up to Second.DeclutchAbove of the first output) and name+" single"
+// (second motor declutched and held by its brake). The second axle is a
+// FreeOutput: its torque follows from the loop pressure.
+func PureHydrostatic(spec PureHydrostaticSpec) (Layout, error) {
+	var c specCheck
+	c.ratio("PumpRatio", spec.PumpRatio, true)
+	c.eff("GearEfficiency", spec.GearEfficiency)
+	motors := 1
+	if sm := spec.Second; sm != nil {
+		motors = 2
+		c.ratio("Second.Ratio", sm.Ratio, false)
+		c.eff("Second.Efficiency", sm.Efficiency)
+		if c.err == nil && (!(sm.DeclutchAbove > 0) || math.IsInf(float64(sm.DeclutchAbove), 0)) {
+			c.err = &InputError{Field: "Second.DeclutchAbove", Value: float64(sm.DeclutchAbove), Reason: "must be positive and finite"}
+		}
+	}
+	c.loop(spec.Loop, motors)
+	if c.err != nil {
+		return Layout{}, c.err
+	}
+	eta := orDefault(spec.GearEfficiency, DefaultGearEfficiency)
+	b := NewBuilder()
+	engine := b.Shaft("engine")
+	b.Input("engine", engine)
+	pump := geared(b, "pump", engine, spec.PumpRatio, eta)
+	motor := b.Shaft("motor")
+	if spec.Second == nil {
+		b.Loop("hydrostat", spec.Loop, pump, motor)
+		finish(b, &c, engine, motor, -1, false, spec.Ranges, spec.PTOs, eta)
+		if c.err != nil {
+			return Layout{}, c.err
+		}
+		return b.Build()
+	}
+	sm := spec.Second
+	m2 := b.Shaft("motor 2")
+	b.Loop("hydrostat", spec.Loop, pump, motor, m2)
+	m2c := b.Shaft("motor 2 clutch shaft")
+	b.Clutch("motor 2 clutch", m2, m2c)
+	b.Brake("motor 2 brake", m2)
+	axle := b.Shaft("axle 2")
+	b.Gear("axle 2 gear", m2c, axle, sm.Ratio, orDefault(sm.Efficiency, eta))
+	addPTOs(b, &c, engine, spec.PTOs, eta)
+	out := b.Shaft("output")
+	b.Output("output", out)
+	b.FreeOutput("axle 2", axle)
+	ranges := spec.Ranges
+	if len(ranges) == 0 {
+		ranges = []RangeGear{{Name: "direct", Ratio: 1, Efficiency: 1}}
+	}
+	addRanges(b, &c, motor, -1, false, out, ranges, eta, func(name string, engaged []string) {
+		b.Range(name, append(engaged, "motor 2 clutch")...)
+		b.RangeLimit(name, sm.DeclutchAbove)
+		b.Range(name+" single", append(engaged, "motor 2 brake")...)
+	})
+	if c.err != nil {
+		return Layout{}, c.err
+	}
+	return b.Build()
+}

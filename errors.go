@@ -1,0 +1,180 @@
+package powersplit
+
+import (
+	"errors"
+	"fmt"
+	"strconv"
+	"strings"
+)
+
+// Sentinel errors. Every error the package returns wraps one of them, so
+// errors.Is tells the kinds apart; the typed errors below carry the numbers.
+var (
+	// ErrLayout means a layout failed validation when it was built: a bad
+	// shaft, a duplicate name, a member on two shafts, a missing input or
+	// output. A *LayoutError says which element.
+	ErrLayout = errors.New("powersplit: invalid layout")
+	// ErrUnconnected means a shaft carries no element at all.
+	ErrUnconnected = errors.New("powersplit: unconnected shaft")
+	// ErrKinematics means the kinematic constraints of a range are over- or
+	// under-determined: some shaft speeds are not fixed by the input speed,
+	// the output speeds and the hydrostats' free ratios, or the constraints
+	// contradict each other. A *KinematicsError carries the details.
+	ErrKinematics = errors.New("powersplit: over- or under-determined kinematics")
+	// ErrTorques means the torque balance of a range has a different number
+	// of equations than unknowns (the number of outputs with a given torque
+	// must equal the number of hydrostatic loops).
+	ErrTorques = errors.New("powersplit: over- or under-determined torques")
+	// ErrInput means an operating point or spec value is NaN, infinite, out of
+	// its domain, or of the wrong length.
+	ErrInput = errors.New("powersplit: invalid input")
+	// ErrInfeasible means the point crosses a limit: loop pressure above the
+	// relief setting, a unit above its maximum speed, a displacement setting
+	// outside [-1, 1], or a range's output speed limit. A *LimitError carries
+	// the quantity, value and limit.
+	ErrInfeasible = errors.New("powersplit: operating point infeasible")
+	// ErrUnreachable means no displacement setting of the hydrostat gives the
+	// speed ratio the point asks for (the ratio lies outside the range). It
+	// comes wrapped in a *LimitError and also matches ErrInfeasible.
+	ErrUnreachable = errors.New("powersplit: speed ratio unreachable")
+	// ErrNoConvergence means the iteration on loss directions and loop
+	// pressure did not close the power balance. A *ConvergenceError carries
+	// the residual.
+	ErrNoConvergence = errors.New("powersplit: solver did not converge")
+	// ErrSelfLocking means no direction of the gear and planetary losses is
+	// consistent at the point: with its mesh losses the mechanism cannot
+	// carry power the way the point asks (typically strongly circulating
+	// power), so it locks. It comes in a *ConvergenceError.
+	ErrSelfLocking = errors.New("powersplit: mechanism self-locks")
+	// ErrSingular means the assembled torque system was singular at a point
+	// (for example a loop whose units all stand still at zero setting).
+	ErrSingular = errors.New("powersplit: singular torque system")
+)
+
+// LayoutError reports what is wrong with one element or shaft of a layout.
+type LayoutError struct {
+	Element string // element or shaft name ("" if none applies)
+	Reason  string
+	Err     error // the sentinel: ErrLayout, ErrUnconnected, ...
+}
+
+func (e *LayoutError) Error() string {
+	if e.Element == "" {
+		return e.Err.Error() + ": " + e.Reason
+	}
+	return e.Err.Error() + ": " + strconv.Quote(e.Element) + ": " + e.Reason
+}
+
+// Unwrap returns the sentinel.
+func (e *LayoutError) Unwrap() error { return e.Err }
+
+// KinematicsError reports an over- or under-determined range.
+type KinematicsError struct {
+	Range       string
+	Shafts      int      // number of shafts (unknown speeds)
+	Constraints int      // number of kinematic constraint rows
+	Rank        int      // rank of the constraint matrix
+	Free        []string // shafts whose speed is not fixed (under-determined)
+}
+
+func (e *KinematicsError) Error() string {
+	var b strings.Builder
+	fmt.Fprintf(&b, "%v: range %q: %d shafts, %d constraints, rank %d", ErrKinematics,
+		e.Range, e.Shafts, e.Constraints, e.Rank)
+	if len(e.Free) > 0 {
+		b.WriteString("; speed not fixed: " + strings.Join(e.Free, ", "))
+	}
+	if e.Constraints > e.Rank {
+		b.WriteString("; redundant or contradictory constraints")
+	}
+	return b.String()
+}
+
+// Unwrap returns ErrKinematics.
+func (e *KinematicsError) Unwrap() error { return ErrKinematics }
+
+// LimitError reports a limit crossed at an operating point: the quantity,
+// its value and the limit, in the SI unit named by Unit.
+type LimitError struct {
+	Element  string // element (or range) where the limit was crossed
+	Quantity string // "pressure", "pump speed", "setting", "output speed", ...
+	Value    float64
+	Limit    float64
+	Unit     string // unit of Value and Limit: "Pa", "rad/s" (this package), "bar", "rpm" (from hydrostat), "" (setting)
+	Err      error  // ErrInfeasible or ErrUnreachable
+	Cause    error  // the error from the hydrostat package, if any
+}
+
+func (e *LimitError) Error() string {
+	s := fmt.Sprintf("%v: %s: %s %s beyond limit %s", e.Err, e.Element, e.Quantity,
+		fmtNum(e.Value, e.Unit), fmtNum(e.Limit, e.Unit))
+	if e.Cause != nil {
+		s += " (" + e.Cause.Error() + ")"
+	}
+	return s
+}
+
+// Unwrap returns the sentinel (ErrInfeasible, and ErrUnreachable when the
+// ratio is out of range) and the hydrostat package's error if there is one.
+func (e *LimitError) Unwrap() []error {
+	errs := make([]error, 0, 3)
+	errs = append(errs, e.Err)
+	if e.Err != ErrInfeasible {
+		errs = append(errs, ErrInfeasible)
+	}
+	if e.Cause != nil {
+		errs = append(errs, e.Cause)
+	}
+	return errs
+}
+
+// ConvergenceError reports a solve that did not close its power balance.
+type ConvergenceError struct {
+	Iterations int
+	Residual   float64 // relative power-balance residual at the last iterate (NaN if none)
+	// SelfLocking is set when no combination of loss directions gives a
+	// consistent steady state: with the losses of its gears and sets the
+	// mechanism cannot carry power the way the point asks (strongly
+	// circulating power), or a unit near zero displacement cannot give the
+	// torque needed at any pressure within the relief setting.
+	SelfLocking bool
+}
+
+func (e *ConvergenceError) Error() string {
+	if e.SelfLocking {
+		return fmt.Sprintf("%v: no steady state after %d iterations: no direction of the gear and planetary losses is consistent "+
+			"(the mechanism self-locks, or the hydrostat cannot give the torque the point needs)", ErrSelfLocking, e.Iterations)
+	}
+	return fmt.Sprintf("%v after %d iterations (relative residual %.3g)", ErrNoConvergence,
+		e.Iterations, e.Residual)
+}
+
+// Unwrap returns ErrNoConvergence, and ErrSelfLocking when SelfLocking.
+func (e *ConvergenceError) Unwrap() []error {
+	if e.SelfLocking {
+		return []error{ErrNoConvergence, ErrSelfLocking}
+	}
+	return []error{ErrNoConvergence}
+}
+
+// InputError reports an invalid value in an operating point or a spec.
+type InputError struct {
+	Field  string
+	Value  float64
+	Reason string
+}
+
+func (e *InputError) Error() string {
+	return fmt.Sprintf("%v: %s = %s: %s", ErrInput, e.Field, strconv.FormatFloat(e.Value, 'g', 6, 64), e.Reason)
+}
+
+// Unwrap returns ErrInput.
+func (e *InputError) Unwrap() error { return ErrInput }
+
+func fmtNum(v float64, unit string) string {
+	s := strconv.FormatFloat(v, 'g', 6, 64)
+	if unit != "" {
+		s += " " + unit
+	}
+	return s
+}

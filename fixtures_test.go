@@ -1,0 +1,213 @@
+package powersplit
+
+import (
+	"math"
+	"testing"
+
+	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/planetary"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// Invented demo data: unit sizes, ratios and loss coefficients below are
+// round numbers chosen for the tests, not taken from any machine.
+
+// loopSpec describes a test loop.
+type loopSpec struct {
+	pumpCC, motorCC float64 // cc/rev
+	motors          int
+	lossy           bool
+	wilson          hydrostat.Wilson
+	maxRPM          float64 // 0: not rated
+	sched           hydrostat.Schedule
+}
+
+// demoWilson is an invented, plausible set of loss coefficients.
+var demoWilson = hydrostat.Wilson{Slip: 1e-9, Viscous: 2e5, Friction: 0.01, ConstantPressure: units.Bar(1)}
+
+func makeLoop(tb testing.TB, s loopSpec) hydrostat.Loop {
+	tb.Helper()
+	var lm hydrostat.LossModel
+	if s.lossy {
+		lm = s.wilson
+	}
+	mk := func(cc float64) hydrostat.Unit {
+		u, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(cc),
+			MaxSpeed: units.RPM(s.maxRPM), RatedPressure: units.Bar(420), PeakPressure: units.Bar(480), Loss: lm})
+		if err != nil {
+			tb.Fatal(err)
+		}
+		return u
+	}
+	n := s.motors
+	if n == 0 {
+		n = 1
+	}
+	ms := make([]hydrostat.Unit, n)
+	for i := range ms {
+		ms[i] = mk(s.motorCC)
+	}
+	l, err := hydrostat.NewLoop(hydrostat.LoopSpec{Pump: mk(s.pumpCC), Motors: ms, Oil: hydrostat.VG46,
+		Temperature: units.Celsius(60), Charge: units.Bar(20), Relief: units.Bar(500), Schedule: s.sched})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return l
+}
+
+// zeroMotor is a lossless schedule that may swing the motor back to zero:
+// the pump swings out first; when it is full, the motors swing back as far
+// as needed, down to zero (a motor with no minimum setting). It serves the
+// mechanical points of the output-coupled split, where the pump shaft stands
+// still and the motor is at zero displacement.
+type zeroMotor struct{}
+
+func (zeroMotor) Settings(l hydrostat.Loop, wp units.AngularVelocity, wm []units.AngularVelocity, dp units.Pressure, x []float64) error {
+	sp := l.Spec()
+	dP := float64(sp.Pump.Spec().MaxDisplacement)
+	need := 0.0 // motor flow at full setting
+	for i, w := range wm {
+		need += float64(sp.Motors[i].Spec().MaxDisplacement) * float64(w)
+	}
+	qp := dP * float64(wp)
+	for i := 1; i < len(x); i++ {
+		x[i] = 1
+	}
+	switch {
+	case need == 0:
+		x[0] = 0
+	case math.Abs(qp) >= math.Abs(need):
+		x[0] = need / qp
+	default:
+		x[0] = 1
+		if qp*need < 0 {
+			x[0] = -1
+		}
+		for i := 1; i < len(x); i++ {
+			x[i] = x[0] * qp / need
+		}
+	}
+	return nil
+}
+
+func mustSet(tb testing.TB, i0, eta0 float64) planetary.Set {
+	tb.Helper()
+	s, err := planetary.FromRatio(i0, eta0)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return s
+}
+
+func TestSmoke(t *testing.T) {
+	lp := makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson})
+	l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(t, -2.5, 0.98), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
+		Ranges: []RangeGear{{Ratio: 0.2}, {Ratio: 0.4}}, PTOs: []PTOSpec{{Ratio: 0.25}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := NewSolver(l)
+	var st State
+	for _, v := range []float64{-300, 0, 200, 600, 900, 1200} {
+		err = s.Solve(Point{Range: 0, Input: units.RPM(2000), Outputs: []OutputDemand{{Speed: units.RPM(v), Torque: units.NewtonMetres(2000)}}, PTO: []units.Torque{units.NewtonMetres(100)}}, &st)
+		t.Logf("v=%v err=%v in=%v out=%v eff=%.4f share=%.4f dp=%v it=%d res=%g", v, err, st.InputPower, st.OutputPower, st.Efficiency, st.HydraulicShare, st.Loops[0].Pressure, st.Iterations, st.Residual)
+	}
+}
+
+// Lossless fixtures for the published checks. i0 = −2.5 for every set.
+
+const testI0 = -2.5
+
+// ocLossless: carrier on the engine, sun to the pump (ratio 1.2), ring the
+// summing shaft, motor geared to it (ratio 0.8), one range of ratio 0.5.
+// Mechanical point (sun stopped): ωring = (i0−1)/i0·ωcarrier, so
+// ν_M = 1.4·0.5 = 0.7.
+func ocLossless(tb testing.TB, etaGear, eta0 float64, lossyUnits bool) (Layout, float64) {
+	tb.Helper()
+	lp := makeLoop(tb, loopSpec{pumpCC: 100, motorCC: 100, lossy: lossyUnits, wilson: demoWilson, sched: zeroMotor{}})
+	l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(tb, testI0, eta0), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
+		Ranges: []RangeGear{{Ratio: 0.5}}, GearEfficiency: etaGear})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return l, (testI0 - 1) / testI0 * 0.5
+}
+
+// icLossless: pump geared to the engine (1.1), ring on the engine through a
+// gear (0.9), sun to the motor (direct), carrier the summing shaft, one
+// range of ratio 0.6. Mechanical point (sun stopped): ωcarrier =
+// −i0/(1−i0)·ωring, so ν_M = 0.9·(2.5/3.5)·0.6.
+func icLossless(tb testing.TB, etaGear, eta0 float64, lossyUnits bool) (Layout, float64) {
+	tb.Helper()
+	lp := makeLoop(tb, loopSpec{pumpCC: 100, motorCC: 100, lossy: lossyUnits, wilson: demoWilson, sched: zeroMotor{}})
+	l, err := InputCoupled(InputCoupledSpec{Set: mustSet(tb, testI0, eta0), Loop: lp, PumpRatio: 1.1, InputRatio: 0.9,
+		Ranges: []RangeGear{{Ratio: 0.6}}, GearEfficiency: etaGear})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return l, 0.9 * (-testI0 / (1 - testI0)) * 0.6
+}
+
+// compound builds the compound split of the package example from public
+// elements: shafts I (engine), O (output), A, B; set 1 (sun A, ring I,
+// carrier O) and set 2 (sun B, ring O, carrier I); the pump on B, the motor
+// on A. Willis gives ωA = i1·ωI + (1−i1)·ωO and ωB = (1−i2)·ωI + i2·ωO, so
+// the pump stops at ν_p = −(1−i2)/i2 and the motor at ν_m = −i1/(1−i1).
+func compound(tb testing.TB, i1, i2, eta0 float64, lossyUnits bool) (l Layout, nuP, nuM float64) {
+	tb.Helper()
+	lp := makeLoop(tb, loopSpec{pumpCC: 120, motorCC: 120, lossy: lossyUnits, wilson: demoWilson, sched: zeroMotor{}})
+	b := NewBuilder()
+	in, out, a, c := b.Shaft("I"), b.Shaft("O"), b.Shaft("A"), b.Shaft("B")
+	b.Input("engine", in)
+	b.Output("output", out)
+	b.Planetary("set 1", mustSet(tb, i1, eta0), a, in, out)
+	b.Planetary("set 2", mustSet(tb, i2, eta0), c, out, in)
+	b.Loop("hydrostat", lp, c, a)
+	l, err := b.Build()
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return l, -(1 - i2) / i2, -i1 / (1 - i1)
+}
+
+// solveNu solves layout l in range 0 at 2000 rpm input, output speed ν·ωin,
+// output torque t (same sign as ν).
+func solveNu(tb testing.TB, s *Solver, st *State, nu, t float64) error {
+	tb.Helper()
+	win := units.RPM(2000)
+	tq := units.NewtonMetres(t)
+	if nu < 0 {
+		tq = -tq
+	}
+	p := Point{Input: win, Outputs: make([]OutputDemand, len(s.l.outputs))}
+	for i := range p.Outputs {
+		p.Outputs[i].Speed = units.AngularVelocity(nu * float64(win))
+	}
+	p.Outputs[0].Torque = tq
+	return s.Solve(p, st)
+}
+
+// pureLossless: pump geared 1.1 to the engine, motor → output through one
+// range of 0.5; with second a second motor drives axle 2 (ratio 0.5),
+// declutched above 800 rpm.
+func pureLossless(tb testing.TB, second bool) Layout {
+	tb.Helper()
+	n := 1
+	var sm *SecondMotor
+	if second {
+		n = 2
+		sm = &SecondMotor{Ratio: 0.5, DeclutchAbove: units.RPM(800)}
+	}
+	lp := makeLoop(tb, loopSpec{pumpCC: 100, motorCC: 80, motors: n, sched: zeroMotor{}})
+	l, err := PureHydrostatic(PureHydrostaticSpec{PumpRatio: 1.1, Loop: lp, Ranges: []RangeGear{{Ratio: 0.5}}, Second: sm, GearEfficiency: 1})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return l
+}
+
+type planetaryT = planetary.Set
+
+func planetaryFromRatio(i0, eta0 float64) (planetary.Set, error) {
+	return planetary.FromRatio(i0, eta0)
+}

@@ -1,0 +1,129 @@
+package powersplit
+
+import (
+	"math"
+	"testing"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+func finiteState(st *State) bool {
+	for _, v := range []float64{float64(st.InputPower), float64(st.OutputPower), float64(st.PTOPower), float64(st.Loss),
+		float64(st.InputTorque), st.Efficiency, st.HydraulicShare} {
+		if bad(v) {
+			return false
+		}
+	}
+	for _, e := range st.Elements {
+		if bad(float64(e.Loss)) {
+			return false
+		}
+		for _, p := range e.Ports {
+			if bad(float64(p.Speed)) || bad(float64(p.Torque)) || bad(float64(p.Power)) {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// FuzzSolve feeds arbitrary operating points to a lossy two-range
+// output-coupled split: an error or a finite state, never a panic or NaN.
+func FuzzSolve(f *testing.F) {
+	f.Add(1, 2000.0, 700.0, 1200.0, 150.0)
+	f.Add(0, 2000.0, -200.0, -500.0, 0.0)
+	f.Add(0, 0.0, 0.0, 0.0, 0.0)
+	f.Add(1, 2000.0, 5000.0, 1e6, 0.0)
+	f.Add(2, math.NaN(), 1.0, 1.0, 1.0)
+	f.Add(0, 1500.0, math.Inf(1), 1.0, 1.0)
+	f.Add(-1, 1500.0, 100.0, 1.0, -1e9)
+	lp := makeLoop(f, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson, maxRPM: 4500})
+	l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(f, testI0, 0.98), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
+		Ranges: []RangeGear{{Ratio: 0.2}, {Ratio: 0.4}}, PTOs: []PTOSpec{{Ratio: 0.27}}})
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Fuzz(func(t *testing.T, rng int, in, out, tq, pto float64) {
+		s := NewSolver(l)
+		var st State
+		err := s.Solve(Point{Range: rng, Input: units.RPM(in), Outputs: []OutputDemand{{Speed: units.RPM(out), Torque: units.Torque(tq)}},
+			PTO: []units.Torque{units.Torque(pto)}}, &st)
+		if err == nil && !finiteState(&st) {
+			t.Fatalf("non-finite state without error: %+v", st)
+		}
+	})
+}
+
+// FuzzBuilders feeds arbitrary numbers to the layout builders.
+func FuzzBuilders(f *testing.F) {
+	f.Add(uint8(0), -2.5, 1.2, 0.8, 0.3, 0.98, 1.0)
+	f.Add(uint8(1), -2.5, 1.1, 0.9, 0.6, 0.98, 0.0)
+	f.Add(uint8(2), 0.0, 1.1, 0.0, 0.5, 1.0, 300.0)
+	f.Add(uint8(3), math.NaN(), math.Inf(1), -1.0, 0.0, 2.0, -1.0)
+	f.Add(uint8(1), 1.0, 0.0, 0.0, 0.0, 0.0, 0.0)
+	lp := makeLoop(f, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson})
+	lp2 := makeLoop(f, loopSpec{pumpCC: 100, motorCC: 100, motors: 2})
+	f.Fuzz(func(t *testing.T, which uint8, i0, r1, r2, r3, eta, extra float64) {
+		set, err := planetaryFromRatio(i0, 0.98)
+		if err != nil && which < 2 {
+			return // the planetary package rejects the ratio
+		}
+		var l Layout
+		switch which % 4 {
+		case 0:
+			l, err = OutputCoupled(OutputCoupledSpec{Set: set, Loop: lp, PumpRatio: r1, MotorRatio: r2, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta})
+		case 1:
+			l, err = InputCoupled(InputCoupledSpec{Set: set, Loop: lp, PumpRatio: r1, InputRatio: r2, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta})
+		case 2:
+			l, err = PureHydrostatic(PureHydrostaticSpec{Loop: lp, PumpRatio: r1, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta})
+		case 3:
+			l, err = PureHydrostatic(PureHydrostaticSpec{Loop: lp2, PumpRatio: r1, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta,
+				Second: &SecondMotor{Ratio: r2, DeclutchAbove: units.RPM(extra)}})
+		}
+		if err != nil {
+			return
+		}
+		s := NewSolver(l)
+		var st State
+		p := Point{Input: units.RPM(2000), Outputs: make([]OutputDemand, len(l.Outputs()))}
+		p.Outputs[0] = OutputDemand{Speed: units.RPM(100), Torque: 100}
+		if err := s.Solve(p, &st); err == nil && !finiteState(&st) {
+			t.Fatalf("non-finite state without error")
+		}
+	})
+}
+
+// FuzzSweep feeds arbitrary sweep and map specs: a spec error, or cells
+// that are feasible with finite values or carry a reason.
+func FuzzSweep(f *testing.F) {
+	f.Add(-1, 2000.0, 100.0, 1200.0, 500.0, 0.0, uint8(4))
+	f.Add(0, 2000.0, -300.0, 300.0, 0.0, 60e3, uint8(3))
+	f.Add(1, math.NaN(), 0.0, 1.0, 1.0, 1.0, uint8(2))
+	f.Add(5, 1500.0, 1.0, 1.0, math.Inf(-1), 0.0, uint8(1))
+	lp := makeLoop(f, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson, maxRPM: 4500})
+	l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(f, testI0, 0.98), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
+		Ranges: []RangeGear{{Ratio: 0.2}, {Ratio: 0.4}}})
+	if err != nil {
+		f.Fatal(err)
+	}
+	f.Fuzz(func(t *testing.T, rng int, in, from, to, tq, power float64, steps uint8) {
+		n := int(steps%6) + 1
+		sw, err := l.Sweep(SweepSpec{Range: rng, Input: units.RPM(in), From: units.RPM(from), To: units.RPM(to), Steps: n,
+			Torque: units.Torque(tq), Power: units.Power(power), Workers: 2})
+		if err == nil {
+			for _, c := range sw.Cells {
+				if c.OK && (bad(c.Efficiency) || bad(float64(c.InputPower)) || bad(c.HydraulicShare)) {
+					t.Fatalf("non-finite feasible cell %+v", c)
+				}
+				if !c.OK && c.Reason == "" {
+					t.Fatalf("infeasible cell without reason")
+				}
+			}
+		}
+		m, err := l.Map(MapSpec{Range: rng, Input: units.RPM(in), SpeedFrom: units.RPM(from), SpeedTo: units.RPM(to), SpeedSteps: n,
+			TorqueFrom: 0, TorqueTo: units.Torque(tq), TorqueSteps: n, Workers: 2})
+		if err == nil && len(m.Cells) != n {
+			t.Fatalf("%d rows for %d torques", len(m.Cells), n)
+		}
+	})
+}

@@ -1,0 +1,301 @@
+package powersplit
+
+import (
+	"errors"
+	"math"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// The range logic works on the kinematics alone: shaft speeds are affine in
+// the output speed at a given input speed, the unit speeds and the
+// displacement settings needed (from the loop's schedule at zero pressure)
+// decide whether a speed is reachable.
+
+// outputSpeeds fills s.outW for first-output speed v, the other outputs
+// following the first in the proportion of template p (held at their speeds
+// in p when p's first output speed is zero).
+func (s *Solver) outputSpeeds(p *Point, v float64) {
+	w0 := float64(p.Outputs[0].Speed)
+	s.outW[0] = v
+	for i := 1; i < len(s.outW); i++ {
+		if w0 != 0 {
+			s.outW[i] = v * float64(p.Outputs[i].Speed) / w0
+		} else {
+			s.outW[i] = float64(p.Outputs[i].Speed)
+		}
+	}
+}
+
+// reachable reports whether first-output speed v is kinematically reachable
+// in range rg at input speed p.Input: unit speeds within their maxima,
+// settings within range, the range's speed limit kept.
+func (s *Solver) reachable(p *Point, rg int, v float64) bool {
+	l := s.l
+	r := &l.ranges[rg]
+	if r.maxOut > 0 && math.Abs(v) > r.maxOut {
+		return false
+	}
+	s.outputSpeeds(p, v)
+	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	if s.unitSpeeds() != nil {
+		return false
+	}
+	for j := range s.dp {
+		s.dp[j] = 0
+	}
+	return s.evalLoops(true) == nil
+}
+
+// Interval returns the interval of first-output speeds that range p.Range
+// reaches at input speed p.Input: the widest connected set of speeds at
+// which every unit is within its speed limit and the schedule finds settings
+// within range (evaluated at zero load). Other outputs follow the first in
+// the proportion of p's output speeds. It returns ErrUnreachable when the
+// range reaches no speed.
+func (s *Solver) Interval(p Point) (lo, hi units.AngularVelocity, err error) {
+	if err := s.check(&p); err != nil {
+		return 0, 0, err
+	}
+	l := s.l
+	r := &l.ranges[p.Range]
+	// Speeds of every unit are affine in v: a + b·v.
+	V := 0.0
+	s.outputSpeeds(&p, 0)
+	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	a := append([]float64(nil), s.w...)
+	s.outputSpeeds(&p, 1)
+	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	for _, e := range l.loops {
+		el := &l.elems[e]
+		spec := el.loop.Spec()
+		for k, sh := range el.shafts {
+			u := spec.Pump
+			if k > 0 {
+				u = spec.Motors[k-1]
+			}
+			b := s.w[sh] - a[sh]
+			if ms := float64(u.Spec().MaxSpeed); ms > 0 && b != 0 {
+				V = math.Max(V, (ms+math.Abs(a[sh]))/math.Abs(b))
+			}
+		}
+	}
+	if V == 0 {
+		V = 10 * math.Abs(float64(p.Input))
+	}
+	if r.maxOut > 0 {
+		V = math.Min(V, r.maxOut)
+	}
+	if V == 0 || math.IsInf(V, 0) {
+		return 0, 0, &LimitError{Element: r.name, Quantity: "output speed", Err: ErrUnreachable}
+	}
+	const n = 200
+	bestLo, bestHi, runLo := -1, -1, -1
+	for i := 0; i <= n; i++ {
+		v := -V + 2*V*float64(i)/n
+		if s.reachable(&p, p.Range, v) {
+			if runLo < 0 {
+				runLo = i
+			}
+			if bestLo < 0 || i-runLo > bestHi-bestLo {
+				bestLo, bestHi = runLo, i
+			}
+		} else {
+			runLo = -1
+		}
+	}
+	if bestLo < 0 {
+		return 0, 0, &LimitError{Element: r.name, Quantity: "output speed", Err: ErrUnreachable}
+	}
+	at := func(i int) float64 { return -V + 2*V*float64(i)/n }
+	edge := func(in, out float64) float64 {
+		for k := 0; k < 50; k++ {
+			m := (in + out) / 2
+			if s.reachable(&p, p.Range, m) {
+				in = m
+			} else {
+				out = m
+			}
+		}
+		return in
+	}
+	lv, hv := at(bestLo), at(bestHi)
+	if bestLo > 0 {
+		lv = edge(lv, at(bestLo-1))
+	}
+	if bestHi < n {
+		hv = edge(hv, at(bestHi+1))
+	}
+	return units.AngularVelocity(lv), units.AngularVelocity(hv), nil
+}
+
+// ShiftPoint is a synchronous shift point between two ranges: the output
+// speed at which every shaft turns at the same speed in both ranges, so the
+// oncoming clutch closes without slip and without a speed jump.
+type ShiftPoint struct {
+	From, To int
+	Output   units.AngularVelocity
+	// Ratio is the loop's speed ratio ωmotor/ωpump (first loop, first motor)
+	// at the shift.
+	Ratio float64
+}
+
+// ShiftPoints returns the synchronous shift points between adjacent ranges
+// (i, i+1) at input speed p.Input, other outputs following the first as in
+// Interval. A pair of ranges has one when the shaft speeds of both ranges,
+// affine in the output speed, coincide at some output speed both ranges
+// reach; range gears placed after the summing shaft coincide only at
+// standstill, which is not reported.
+func (s *Solver) ShiftPoints(p Point) ([]ShiftPoint, error) {
+	if err := s.check(&p); err != nil {
+		return nil, err
+	}
+	l := s.l
+	S := len(l.shafts)
+	speedsAt := func(rg int, v float64) []float64 {
+		s.outputSpeeds(&p, v)
+		l.speeds(&l.ranges[rg], float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+		return append([]float64(nil), s.w...)
+	}
+	var out []ShiftPoint
+	for i := 0; i+1 < len(l.ranges); i++ {
+		a0, a1 := speedsAt(i, 0), speedsAt(i, 1)
+		b0, b1 := speedsAt(i+1, 0), speedsAt(i+1, 1)
+		// d + e·v = 0 for every shaft.
+		num, den, scale := 0.0, 0.0, math.Abs(float64(p.Input))
+		for k := 0; k < S; k++ {
+			d := a0[k] - b0[k]
+			e := (a1[k] - a0[k]) - (b1[k] - b0[k])
+			num += d * e
+			den += e * e
+			scale = math.Max(scale, math.Abs(a0[k])+math.Abs(b0[k]))
+		}
+		if den == 0 {
+			continue
+		}
+		v := -num / den
+		if v == 0 || math.Abs(v) < 1e-12*scale {
+			continue
+		}
+		ok := true
+		for k := 0; k < S; k++ {
+			d := a0[k] - b0[k]
+			e := (a1[k] - a0[k]) - (b1[k] - b0[k])
+			if math.Abs(d+e*v) > 1e-9*(scale+math.Abs(v)) {
+				ok = false
+				break
+			}
+		}
+		if !ok || !s.reachable(&p, i, v) || !s.reachable(&p, i+1, v) {
+			continue
+		}
+		ratio := math.NaN()
+		if len(l.loops) > 0 {
+			el := &l.elems[l.loops[0]]
+			ratio = s.w[el.shafts[1]] / s.w[el.shafts[0]]
+		}
+		out = append(out, ShiftPoint{From: i, To: i + 1, Output: units.AngularVelocity(v), Ratio: ratio})
+	}
+	return out, nil
+}
+
+// Policy chooses between two solved states of the same operating point in
+// different ranges.
+type Policy interface {
+	// Better reports whether a is to be preferred to b.
+	Better(a, b *State) bool
+}
+
+// HighestEfficiency is the default Policy: the higher overall efficiency
+// wins; on a tie, the lower range index.
+type HighestEfficiency struct{}
+
+// Better implements Policy.
+func (HighestEfficiency) Better(a, b *State) bool { return a.Efficiency > b.Efficiency }
+
+// Feasible appends to dst the ranges in which p (its Range ignored) solves
+// without error, and returns it.
+func (s *Solver) Feasible(p Point, dst []int) []int {
+	for i := range s.l.ranges {
+		p.Range = i
+		if s.Solve(p, &s.scratch) == nil {
+			dst = append(dst, i)
+		}
+	}
+	return dst
+}
+
+// Best solves p in every range (its Range ignored), writes the state of the
+// best feasible range by policy pol (nil means HighestEfficiency) into st
+// and returns nil; with no feasible range it returns the error of the last
+// range tried, st then holding that range's state.
+func (s *Solver) Best(p Point, pol Policy, st *State) error {
+	if pol == nil {
+		pol = HighestEfficiency{}
+	}
+	found := false
+	var last error
+	for i := range s.l.ranges {
+		p.Range = i
+		err := s.Solve(p, &s.scratch)
+		if err != nil {
+			if errors.Is(err, ErrInput) {
+				return err
+			}
+			last = err
+			continue
+		}
+		if !found || pol.Better(&s.scratch, st) {
+			st.copyFrom(&s.scratch)
+			found = true
+		}
+	}
+	if found {
+		return nil
+	}
+	st.copyFrom(&s.scratch)
+	return last
+}
+
+// copyFrom copies src into st, reusing st's storage when it fits.
+func (st *State) copyFrom(src *State) {
+	ports, els, sh, outs, ptos, loops, mar, fl := st.ports, st.Elements, st.Shafts, st.Outputs, st.PTOs, st.Loops, st.Margins, st.Flags
+	if len(ports) != len(src.ports) || len(els) != len(src.Elements) || len(loops) != len(src.Loops) {
+		ports = make([]PortState, len(src.ports))
+		els = make([]ElementState, len(src.Elements))
+		loops = make([]LoopResult, len(src.Loops))
+		sh = make([]ShaftState, len(src.Shafts))
+		outs = make([]FlowState, len(src.Outputs))
+		ptos = make([]FlowState, len(src.PTOs))
+	}
+	*st = *src
+	copy(ports, src.ports)
+	st.ports = ports
+	off := 0
+	for i := range src.Elements {
+		e := src.Elements[i]
+		n := len(e.Ports)
+		e.Ports = ports[off : off+n : off+n]
+		off += n
+		els[i] = e
+	}
+	st.Elements = els
+	st.Shafts = append(sh[:0], src.Shafts...)
+	st.Outputs = append(outs[:0], src.Outputs...)
+	st.PTOs = append(ptos[:0], src.PTOs...)
+	for j := range src.Loops {
+		m, set := loops[j].Motors, loops[j].Settings
+		loops[j] = src.Loops[j]
+		loops[j].Motors = append(m[:0], src.Loops[j].Motors...)
+		loops[j].Settings = append(set[:0], src.Loops[j].Settings...)
+	}
+	st.Loops = loops
+	if mar == nil {
+		mar = make([]Margin, 0, cap(src.Margins))
+	}
+	if fl == nil {
+		fl = make([]Margin, 0, cap(src.Flags))
+	}
+	st.Margins = append(mar[:0], src.Margins...)
+	st.Flags = append(fl[:0], src.Flags...)
+}

@@ -1,0 +1,708 @@
+package powersplit
+
+import (
+	"errors"
+	"math"
+
+	"gonum.org/v1/gonum/blas"
+	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/lapack/lapack64"
+	"gonum.org/v1/gonum/mat"
+
+	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/internal/numeric"
+	"github.com/powersplit-dev/powersplit/planetary"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// Solver solves operating points of one layout. It holds the work space, so
+// repeated solves allocate nothing. A Solver is not safe for concurrent use;
+// use one per goroutine (they may share the Layout).
+type Solver struct {
+	l        *layout
+	n        int
+	a        *mat.Dense
+	rhs      *mat.VecDense
+	piv      []int
+	w        []float64
+	t        []float64
+	gearK    []float64 // per gear: η (a drives), 1/η (b drives) or 1 (lossless/none)
+	flip     []int
+	pflow    []int8 // per planetary: -1 lossless, 0 sun drives, 1 ring drives
+	pflip    []int
+	dp       []float64
+	loopA    []hydrostat.LoopState
+	loopB    []hydrostat.LoopState
+	mw       [][]units.AngularVelocity
+	outW     []float64
+	over     []int // per loop: iterations in a row beyond the relief pressure
+	alpha    float64
+	lastStep float64
+	scratch  State
+}
+
+// Settings of the iteration.
+const (
+	maxIter   = 80
+	balanceTo = 1e-9  // relative power balance required
+	pScale    = 1e5   // Pa per unknown of the loop pressure (bar)
+	dpTolRel  = 1e-12 // relative change of the loop pressure to stop
+	dpTolAbs  = 1e-6  // Pa
+)
+
+// NewSolver returns a Solver for l. It panics if l is the zero Layout.
+func NewSolver(l Layout) *Solver {
+	if l.l == nil {
+		panic("powersplit: NewSolver on a zero Layout")
+	}
+	ly := l.l
+	n := ly.nPorts + len(ly.loops)
+	s := &Solver{
+		l: ly, n: n,
+		a:     mat.NewDense(n, n, nil),
+		rhs:   mat.NewVecDense(n, nil),
+		piv:   make([]int, n),
+		w:     make([]float64, len(ly.shafts)),
+		t:     make([]float64, ly.nPorts),
+		gearK: make([]float64, len(ly.gears)),
+		flip:  make([]int, len(ly.gears)),
+		pflow: make([]int8, len(ly.planets)),
+		pflip: make([]int, len(ly.planets)),
+		dp:    make([]float64, len(ly.loops)),
+		loopA: make([]hydrostat.LoopState, len(ly.loops)),
+		loopB: make([]hydrostat.LoopState, len(ly.loops)),
+		mw:    make([][]units.AngularVelocity, len(ly.loops)),
+		outW:  make([]float64, len(ly.outputs)),
+		over:  make([]int, len(ly.loops)),
+	}
+	for j, e := range ly.loops {
+		m := len(ly.elems[e].shafts) - 1
+		s.loopA[j].Motors = make([]hydrostat.Point, m)
+		s.loopB[j].Motors = make([]hydrostat.Point, m)
+		s.mw[j] = make([]units.AngularVelocity, m)
+	}
+	return s
+}
+
+// Layout returns the solver's layout.
+func (s *Solver) Layout() Layout { return Layout{l: s.l} }
+
+func bad(v float64) bool { return math.IsNaN(v) || math.IsInf(v, 0) }
+
+func (s *Solver) check(p *Point) error {
+	l := s.l
+	if p.Range < 0 || p.Range >= len(l.ranges) {
+		return &InputError{Field: "Range", Value: float64(p.Range), Reason: "no such range"}
+	}
+	if bad(float64(p.Input)) {
+		return &InputError{Field: "Input", Value: float64(p.Input), Reason: "not finite"}
+	}
+	if len(p.Outputs) != len(l.outputs) {
+		return &InputError{Field: "len(Outputs)", Value: float64(len(p.Outputs)), Reason: "one demand per output needed"}
+	}
+	for _, o := range p.Outputs {
+		if bad(float64(o.Speed)) {
+			return &InputError{Field: "Outputs.Speed", Value: float64(o.Speed), Reason: "not finite"}
+		}
+		if bad(float64(o.Torque)) {
+			return &InputError{Field: "Outputs.Torque", Value: float64(o.Torque), Reason: "not finite"}
+		}
+	}
+	if p.PTO != nil && len(p.PTO) != len(l.ptos) {
+		return &InputError{Field: "len(PTO)", Value: float64(len(p.PTO)), Reason: "one torque per PTO, or nil"}
+	}
+	for _, t := range p.PTO {
+		if bad(float64(t)) {
+			return &InputError{Field: "PTO", Value: float64(t), Reason: "not finite"}
+		}
+	}
+	return nil
+}
+
+// Solve finds the steady state at operating point p and writes it into st.
+// It returns a *LimitError (ErrInfeasible, ErrUnreachable) when the point
+// crosses a limit — st then holds the state reached, with the crossed margin
+// — an *InputError for bad input, and a *ConvergenceError or ErrSingular
+// when the iteration fails. Solve does not allocate once st has been used
+// with this layout.
+func (s *Solver) Solve(p Point, st *State) error {
+	if err := s.check(&p); err != nil {
+		return err
+	}
+	l := s.l
+	r := &l.ranges[p.Range]
+	for i, o := range p.Outputs {
+		s.outW[i] = float64(o.Speed)
+	}
+	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	for i := range s.gearK {
+		s.gearK[i], s.flip[i] = 1, 0
+	}
+	for i := range s.pflow {
+		s.pflow[i], s.pflip[i] = -1, 0
+	}
+	for j := range s.dp {
+		s.dp[j] = 0
+	}
+	if r.maxOut > 0 && math.Abs(s.outW[0]) > r.maxOut*(1+1e-12) {
+		s.fill(st, p, r, 0, 0)
+		return &LimitError{Element: r.name, Quantity: "output speed", Value: math.Abs(s.outW[0]),
+			Limit: r.maxOut, Unit: "rad/s", Err: ErrInfeasible}
+	}
+	// Speed limits of the units do not depend on the torques.
+	if err := s.unitSpeeds(); err != nil {
+		s.fill(st, p, r, 0, 0)
+		return err
+	}
+	converged, it, err := s.iterate(r, &p, true, 0)
+	if err != nil {
+		s.fill(st, p, r, it, 0)
+		return err
+	}
+	if !converged && !s.frozen() && len(l.loops) == 1 {
+		// Newton's method on the loop pressure did not settle (a loss
+		// model with kinks, a unit near zero displacement): bracket the
+		// pressure instead, then polish from there.
+		var ok bool
+		ok, err = s.bracket(r, &p)
+		if err != nil {
+			s.fill(st, p, r, it, 0)
+			return err
+		}
+		if ok {
+			var it2 int
+			converged, it2, err = s.iterate(r, &p, true, it)
+			it = it2
+			if err != nil {
+				s.fill(st, p, r, it, 0)
+				return err
+			}
+		}
+	}
+	if !converged || s.frozen() {
+		// The loss directions oscillate: try every combination of the
+		// directions of the elements that flipped, each iterated on the
+		// loop pressure alone, and keep the first consistent one.
+		var locked bool
+		converged, locked, it, err = s.enumerate(r, &p)
+		if err != nil {
+			s.fill(st, p, r, it, 0)
+			return err
+		}
+		if !converged {
+			res := s.fill(st, p, r, it, 1)
+			return &ConvergenceError{Iterations: it, Residual: res, SelfLocking: locked}
+		}
+	}
+	// Final loop states at the final pressures.
+	lerr := s.evalLoops(true)
+	res := s.fill(st, p, r, it+1, 1)
+	if lerr != nil {
+		// A limit of the hydrostat (setting, pressure, speed): the state is
+		// filled as far as it goes; with a setting limit the flows do not
+		// balance and neither does the power.
+		return lerr
+	}
+	if !(res <= balanceTo) {
+		return &ConvergenceError{Iterations: it + 1, Residual: res}
+	}
+	return s.limits(st)
+}
+
+// iterate runs the fixed-point iteration on loss directions (if update is
+// set) and loop pressures from iteration it0 on, and reports convergence.
+func (s *Solver) iterate(r *rangeDef, p *Point, update bool, it0 int) (bool, int, error) {
+	l := s.l
+	it := it0
+	s.alpha, s.lastStep = 1, math.Inf(1)
+	for j := range s.over {
+		s.over[j] = 0
+	}
+	for ; it < it0+maxIter; it++ {
+		if err := s.evalLoops(false); err != nil {
+			return false, it, err
+		}
+		if err := s.assemble(r, p); err != nil {
+			return false, it, err
+		}
+		// LU with partial pivoting (LAPACK dgetrf/dgetrs through gonum),
+		// in place in the solver's storage: no allocation.
+		am := s.a.RawMatrix()
+		if !lapack64.Getrf(am, s.piv) {
+			return false, it, ErrSingular
+		}
+		x := s.rhs.RawVector().Data
+		lapack64.Getrs(blas.NoTrans, am, blas64.General{Rows: s.n, Cols: 1, Stride: 1, Data: x}, s.piv)
+		for i := range s.t {
+			s.t[i] = x[i]
+		}
+		for _, v := range x {
+			if bad(v) {
+				return false, it, ErrSingular
+			}
+		}
+		delta, step := 0.0, 0.0
+		for j, e := range l.loops {
+			nd := x[l.nPorts+j] * pScale
+			d := math.Abs(nd - s.dp[j])
+			if d > dpTolAbs+dpTolRel*math.Abs(nd) {
+				delta = math.Max(delta, d)
+			}
+			step = math.Max(step, d/(math.Abs(nd)+pScale))
+			// Beyond the relief setting the point is infeasible whatever
+			// the iteration would do there: hold the iterate at 1.5 times
+			// the relief pressure, and stop when it keeps asking for more.
+			el := &l.elems[e]
+			if lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge); lim > 0 && math.Abs(nd) > lim {
+				s.over[j]++
+				if s.over[j] >= 3 {
+					return false, it, &LimitError{Element: el.name, Quantity: "relief pressure",
+						Value: math.Abs(nd) + float64(el.lspec.Charge), Limit: float64(el.lspec.Relief), Unit: "Pa", Err: ErrInfeasible}
+				}
+				nd = math.Copysign(lim, nd)
+			} else {
+				s.over[j] = 0
+			}
+			s.dp[j] += s.alpha * (nd - s.dp[j])
+		}
+		// Damp the pressure steps when they stop shrinking (a loss model
+		// with kinks can make the Newton steps cycle).
+		if it-it0 > 5 && step > 0.7*s.lastStep {
+			s.alpha = math.Max(s.alpha/2, 1.0/8)
+		}
+		s.lastStep = step
+		changed := false
+		if update {
+			changed = s.directions(it - it0)
+		}
+		if !changed && delta == 0 && it > it0 {
+			return true, it, nil
+		}
+	}
+	return false, it, nil
+}
+
+// bracket finds the pressure of the single loop as a zero of
+// F(Δp) = Δp' − Δp, Δp' being the pressure the torque system gives with the
+// loop linearised at Δp, by a scan over ±1.5 times the relief pressure and
+// Brent's method on the sign change nearest zero. With no sign change the
+// loop cannot balance the torques the point asks for below the relief
+// pressure: a *LimitError.
+func (s *Solver) bracket(r *rangeDef, p *Point) (bool, error) {
+	l := s.l
+	el := &l.elems[l.loops[0]]
+	lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge)
+	var ferr error
+	f := func(dp float64) float64 {
+		s.dp[0] = dp
+		if err := s.evalLoops(false); err != nil {
+			ferr = err
+			return math.NaN()
+		}
+		if err := s.assemble(r, p); err != nil {
+			ferr = err
+			return math.NaN()
+		}
+		am := s.a.RawMatrix()
+		if !lapack64.Getrf(am, s.piv) {
+			return math.NaN()
+		}
+		x := s.rhs.RawVector().Data
+		lapack64.Getrs(blas.NoTrans, am, blas64.General{Rows: s.n, Cols: 1, Stride: 1, Data: x}, s.piv)
+		return x[l.nPorts]*pScale - dp
+	}
+	const n = 32 // scan points per side
+	best := -1.0
+	var lo, hi float64
+	prevX, prevF := 0.0, f(0)
+	if ferr != nil {
+		return false, ferr
+	}
+	for side := -1.0; side <= 1; side += 2 {
+		px, pf := prevX, prevF
+		for k := 1; k <= n; k++ {
+			x := side * lim * float64(k) / n
+			fx := f(x)
+			if ferr != nil {
+				return false, ferr
+			}
+			if !bad(pf) && !bad(fx) && (pf <= 0) != (fx <= 0) {
+				if d := math.Min(math.Abs(px), math.Abs(x)); best < 0 || d < best {
+					best, lo, hi = d, px, x
+				}
+				break
+			}
+			px, pf = x, fx
+		}
+	}
+	noBalance := &LimitError{Element: el.name, Quantity: "loop pressure (no torque balance up to 1.5 × relief)", Value: lim + float64(el.lspec.Charge),
+		Limit: float64(el.lspec.Relief), Unit: "Pa", Err: ErrInfeasible}
+	if best < 0 {
+		return false, noBalance
+	}
+	dp, err := numeric.Brent(f, lo, hi, 0, 200)
+	if ferr != nil {
+		return false, ferr
+	}
+	if err != nil {
+		return false, noBalance
+	}
+	// A sign change through a pole of F (the linearised system turning
+	// singular where a unit's torque peaks) is no balance: the loop cannot
+	// give the torque the point needs at any pressure.
+	if fx := f(dp); ferr != nil || bad(fx) || math.Abs(fx) > 1e-6*math.Max(math.Abs(dp), pScale) {
+		return false, noBalance
+	}
+	s.dp[0] = dp
+	return true, nil
+}
+
+// maxFlips is how often an element's loss direction may change before it is
+// taken to oscillate.
+const maxFlips = 4
+
+// frozen reports whether some element reached maxFlips.
+func (s *Solver) frozen() bool {
+	for _, f := range s.flip {
+		if f >= maxFlips {
+			return true
+		}
+	}
+	for _, f := range s.pflip {
+		if f >= maxFlips {
+			return true
+		}
+	}
+	return false
+}
+
+// enumerate tries every combination of directions of the elements that
+// flipped at least twice (at most 2^10), iterating the loop pressures with
+// the directions fixed, and keeps the first combination whose result is
+// consistent with its directions. locked reports that there were directions
+// to try and every combination converged but none was consistent.
+func (s *Solver) enumerate(r *rangeDef, p *Point) (ok, locked bool, it int, err error) {
+	l := s.l
+	var cand [10]int // gear index, or -(planet index)-1
+	n := 0
+	for i, f := range s.flip {
+		if f >= 2 && n < len(cand) && l.elems[l.gears[i]].eta < 1 {
+			cand[n] = i
+			n++
+		}
+	}
+	for i, f := range s.pflip {
+		if f >= 2 && n < len(cand) {
+			cand[n] = -i - 1
+			n++
+		}
+	}
+	total := 0
+	locked = n > 0
+	for mask := 0; mask < 1<<n; mask++ {
+		for k := 0; k < n; k++ {
+			bit := mask>>k&1 == 1
+			if c := cand[k]; c >= 0 {
+				e := &l.elems[l.gears[c]]
+				s.gearK[c] = e.eta
+				if bit {
+					s.gearK[c] = 1 / e.eta
+				}
+			} else if bit {
+				s.pflow[-c-1] = 1
+			} else {
+				s.pflow[-c-1] = 0
+			}
+		}
+		for j := range s.dp {
+			s.dp[j] = 0
+		}
+		conv, it, err := s.iterate(r, p, false, 0)
+		total += it
+		var le *LimitError
+		if errors.As(err, &le) {
+			continue // no pressure within the relief balances this combination
+		}
+		if err != nil {
+			return false, false, total, err
+		}
+		if !conv && len(l.loops) == 1 {
+			found, err := s.bracket(r, p)
+			if errors.As(err, &le) {
+				continue
+			}
+			if err != nil {
+				return false, false, total, err
+			}
+			if found {
+				conv, it, err = s.iterate(r, p, false, total)
+				total = it
+				if err != nil && !errors.As(err, &le) {
+					return false, false, total, err
+				}
+			}
+		}
+		if conv && s.consistent() {
+			return true, false, total, nil
+		}
+		locked = locked && conv
+	}
+	return false, locked, total, nil
+}
+
+// consistent reports whether every gear and planetary set carries power in
+// the direction its loss was applied for.
+func (s *Solver) consistent() bool {
+	l := s.l
+	for _, gi := range l.gears {
+		e := &l.elems[gi]
+		pa := s.t[e.port0] * s.w[e.shafts[0]]
+		pb := s.t[e.port0+1] * s.w[e.shafts[1]]
+		tol := 1e-12 * (math.Abs(pa) + math.Abs(pb))
+		k := s.gearK[e.index]
+		if (k < 1 && pa < -tol) || (k > 1 && pb < -tol) {
+			return false
+		}
+	}
+	for _, pi := range l.planets {
+		e := &l.elems[pi]
+		roll := s.t[e.port0] * (s.w[e.shafts[0]] - s.w[e.shafts[2]])
+		tol := 1e-12 * math.Abs(s.t[e.port0]) * (math.Abs(s.w[e.shafts[0]]) + math.Abs(s.w[e.shafts[2]]))
+		f := s.pflow[e.index]
+		if (f == 0 && roll < -tol) || (f == 1 && roll > tol) {
+			return false
+		}
+	}
+	return true
+}
+
+// unitSpeeds checks each unit's speed against its maximum.
+func (s *Solver) unitSpeeds() error {
+	l := s.l
+	for _, e := range l.loops {
+		el := &l.elems[e]
+		for k, sh := range el.shafts {
+			ms := float64(el.uspec[k].MaxSpeed)
+			if ms > 0 && math.Abs(s.w[sh]) > ms*(1+1e-12) {
+				return &LimitError{Element: el.name, Quantity: el.unames[k][1], Value: math.Abs(s.w[sh]), Limit: ms,
+					Unit: "rad/s", Err: ErrInfeasible}
+			}
+		}
+	}
+	return nil
+}
+
+// evalLoops evaluates every loop at its pressure (state A) and at a slightly
+// different pressure (state B) for the derivative of the unit torques. Limit
+// errors are ignored while iterating (the hydrostat fills the state even
+// then) and returned when final is set.
+func (s *Solver) evalLoops(final bool) error {
+	l := s.l
+	for j, e := range l.loops {
+		el := &l.elems[e]
+		for k := range s.mw[j] {
+			s.mw[j][k] = units.AngularVelocity(s.w[el.shafts[k+1]])
+		}
+		wp := units.AngularVelocity(s.w[el.shafts[0]])
+		err := el.loop.At(wp, s.mw[j], units.Pressure(s.dp[j]), &s.loopA[j])
+		if err != nil && (final || !isLimit(err)) {
+			return loopErr(el.name, err)
+		}
+		if final {
+			continue
+		}
+		h := dStep(s.dp[j])
+		if s.dp[j] < 0 {
+			h = -h // step away from zero, where the loss terms change sign
+		}
+		if err := el.loop.At(wp, s.mw[j], units.Pressure(s.dp[j]+h), &s.loopB[j]); err != nil && !isLimit(err) {
+			return loopErr(el.name, err)
+		}
+	}
+	return nil
+}
+
+func isLimit(err error) bool {
+	var le *hydrostat.LimitError
+	return errors.As(err, &le)
+}
+
+func dStep(dp float64) float64 { return 1e-4 * math.Max(math.Abs(dp), 1e5) }
+
+// loopErr turns an error of the hydrostat package into this package's.
+func loopErr(name string, err error) error {
+	var le *hydrostat.LimitError
+	if errors.As(err, &le) {
+		sent := ErrInfeasible
+		if errors.Is(err, hydrostat.ErrSettingLimit) {
+			sent = ErrUnreachable
+		}
+		return &LimitError{Element: name, Quantity: le.Quantity, Value: le.Value, Limit: le.Limit,
+			Unit: le.Unit, Err: sent, Cause: err}
+	}
+	if errors.Is(err, hydrostat.ErrSettingLimit) || errors.Is(err, hydrostat.ErrNoSolution) {
+		return &LimitError{Element: name, Quantity: "setting", Value: math.NaN(), Limit: 1, Err: ErrUnreachable, Cause: err}
+	}
+	return &LimitError{Element: name, Quantity: "loop", Value: 0, Limit: 0, Err: ErrInfeasible, Cause: err}
+}
+
+// unitTorque returns the torque of unit k (0 = pump) of loop state st.
+func unitTorque(st *hydrostat.LoopState, k int) float64 {
+	if k == 0 {
+		return float64(st.Pump.Torque)
+	}
+	return float64(st.Motors[k-1].Torque)
+}
+
+// assemble fills the torque system of range r with the current directions
+// and loop linearisation.
+func (s *Solver) assemble(r *rangeDef, p *Point) error {
+	l := s.l
+	a := s.a
+	a.Zero()
+	for i := 0; i < s.n; i++ {
+		s.rhs.SetVec(i, 0)
+	}
+	// Shaft balances: Σ port torques on a shaft = 0.
+	for _, e := range l.elems {
+		for k, sh := range e.shafts {
+			a.Set(sh, e.port0+k, a.At(sh, e.port0+k)+1)
+		}
+	}
+	row := len(l.shafts)
+	for i := range l.elems {
+		e := &l.elems[i]
+		p0 := e.port0
+		switch e.kind {
+		case GearKind:
+			// r·Tb + k·Ta = 0
+			a.Set(row, p0+1, e.ratio)
+			a.Set(row, p0, s.gearK[e.index])
+			row++
+		case PlanetaryKind:
+			var kr, kc float64
+			switch s.pflow[e.index] {
+			case 0:
+				kr, kc = e.set.TorqueFactors(planetary.SunDrives)
+			case 1:
+				kr, kc = e.set.TorqueFactors(planetary.RingDrives)
+			default:
+				kr = -e.set.FixedCarrierRatio()
+				kc = -(1 + kr)
+			}
+			a.Set(row, p0+1, 1)
+			a.Set(row, p0, -kr)
+			a.Set(row+1, p0+2, 1)
+			a.Set(row+1, p0, -kc)
+			row += 2
+		case ClutchKind:
+			if r.engaged[i] {
+				a.Set(row, p0, 1)
+				a.Set(row, p0+1, 1)
+				row++
+			} else {
+				a.Set(row, p0, 1)
+				a.Set(row+1, p0+1, 1)
+				row += 2
+			}
+		case BrakeKind:
+			if !r.engaged[i] {
+				a.Set(row, p0, 1)
+				row++
+			}
+		case OutputKind:
+			a.Set(row, p0, 1)
+			s.rhs.SetVec(row, float64(p.Outputs[e.index].Torque))
+			row++
+		case PTOKind:
+			a.Set(row, p0, 1)
+			if p.PTO != nil {
+				s.rhs.SetVec(row, float64(p.PTO[e.index]))
+			}
+			row++
+		case LoopKind:
+			j := e.index
+			A, B := &s.loopA[j], &s.loopB[j]
+			h := dStep(s.dp[j])
+			if s.dp[j] < 0 {
+				h = -h
+			}
+			for k := range e.shafts {
+				t0 := unitTorque(A, k)
+				d := (unitTorque(B, k) - t0) / h
+				if bad(t0) || bad(d) {
+					return &LimitError{Element: e.name, Quantity: "unit torque", Value: t0, Err: ErrInfeasible}
+				}
+				// T - d·dp = t0 - d·dp0, with dp in units of pScale.
+				a.Set(row, p0+k, 1)
+				a.Set(row, l.nPorts+j, -d*pScale)
+				s.rhs.SetVec(row, t0-d*s.dp[j])
+				row++
+			}
+		}
+	}
+	return nil
+}
+
+// directions updates gear and planetary loss directions from the current
+// torques and speeds and reports whether any changed. An element that keeps
+// flipping is frozen (its power is then near zero and the loss is zero
+// either way).
+func (s *Solver) directions(it int) bool {
+	l := s.l
+	changed := false
+	for _, gi := range l.gears {
+		e := &l.elems[gi]
+		pa := s.t[e.port0] * s.w[e.shafts[0]]
+		pb := s.t[e.port0+1] * s.w[e.shafts[1]]
+		scale := math.Abs(pa) + math.Abs(pb)
+		k := s.gearK[e.index]
+		switch {
+		case scale == 0 || e.eta == 1:
+			// no power or lossless: either way
+			if it == 0 && e.eta == 1 {
+				k = 1
+			}
+		case pa > 1e-13*scale:
+			k = e.eta
+		case pb > 1e-13*scale:
+			k = 1 / e.eta
+		}
+		if k != s.gearK[e.index] {
+			if s.flip[e.index] < maxFlips {
+				s.gearK[e.index] = k
+				s.flip[e.index]++
+				changed = true
+			}
+		}
+	}
+	for _, pi := range l.planets {
+		e := &l.elems[pi]
+		ws, wr, wc := s.w[e.shafts[0]], s.w[e.shafts[1]], s.w[e.shafts[2]]
+		rel := ws - wc
+		wmax := math.Max(math.Abs(ws), math.Max(math.Abs(wr), math.Abs(wc)))
+		roll := s.t[e.port0] * rel
+		scale := math.Abs(s.t[e.port0])*wmax + 1e-300
+		f := s.pflow[e.index]
+		switch {
+		case math.Abs(rel) <= planetary.BlockTolerance*wmax:
+			// Turning as a block: no power rolls, lossless torques (as
+			// planetary.Set.Torque takes them).
+			f = -1
+		case roll > 1e-13*scale:
+			f = 0
+		case roll < -1e-13*scale:
+			f = 1
+		case f < 0:
+			f = 0
+		}
+		if f != s.pflow[e.index] {
+			if s.pflip[e.index] < maxFlips {
+				s.pflow[e.index] = f
+				s.pflip[e.index]++
+				changed = true
+			}
+		}
+	}
+	return changed
+}

@@ -1,0 +1,365 @@
+package powersplit
+
+import (
+	"math"
+
+	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/planetary"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// OutputDemand is what an operating point asks of one output: its speed and
+// the torque it delivers to the load (positive when driving a load that turns
+// the same way). For a FreeOutput the torque is ignored and solved.
+type OutputDemand struct {
+	Speed  units.AngularVelocity
+	Torque units.Torque
+}
+
+// Point is an operating point: the range, the input (engine) speed, one
+// demand per output in the order of Layout.Outputs, and one torque per PTO
+// in the order of Layout.PTOs (nil means no PTO load).
+type Point struct {
+	Range   int
+	Input   units.AngularVelocity
+	Outputs []OutputDemand
+	PTO     []units.Torque
+}
+
+// PortState is the state at one port: the speed of its shaft, the torque the
+// shaft applies to the element, and the power T·ω into the element.
+type PortState struct {
+	Shaft  int
+	Speed  units.AngularVelocity
+	Torque units.Torque
+	Power  units.Power
+}
+
+// ElementState is the state of one element.
+type ElementState struct {
+	Name    string
+	Kind    Kind
+	Ports   []PortState    // in port order (gear a, b; sun, ring, carrier; pump, motors)
+	Loss    units.Power    // ≥ 0
+	Engaged bool           // clutch or brake engaged in this range
+	Flow    planetary.Flow // planetary: direction of the rolling power
+	Loop    int            // loop: index into State.Loops
+}
+
+// ShaftState is the state of one shaft: its speed, the torque it carries
+// (half the sum of |T| over its ports, so |T| for a shaft between two
+// elements) and the power it carries (half the sum of |T·ω|).
+type ShaftState struct {
+	Name   string
+	Speed  units.AngularVelocity
+	Torque units.Torque
+	Power  units.Power
+}
+
+// FlowState is the state of an output or a PTO.
+type FlowState struct {
+	Name   string
+	Speed  units.AngularVelocity
+	Torque units.Torque // torque delivered to the load
+	Power  units.Power  // T·ω delivered to the load
+}
+
+// LoopResult is the state of one hydrostatic loop.
+type LoopResult struct {
+	Name string
+	hydrostat.LoopState
+	// Ratio is the loop's speed ratio ωmotor/ωpump (first motor); ±Inf with
+	// the pump stopped.
+	Ratio float64
+	// HydraulicPower is the power the pump delivers into the circuit, Δp·Q:
+	// positive when power passes from the pump shaft to the motors, negative
+	// when it passes back (circulating power).
+	HydraulicPower units.Power
+}
+
+// Margin is the distance of one quantity from its limit, in SI units
+// (Pa, rad/s, or none for a setting). Value is the magnitude reached.
+type Margin struct {
+	Element  string
+	Quantity string
+	Value    float64
+	Limit    float64
+	Unit     string
+}
+
+// Left returns Limit − Value: negative when the limit is crossed.
+func (m Margin) Left() float64 { return m.Limit - m.Value }
+
+// State is the full steady state at an operating point. A State is filled by
+// Solver.Solve and can be reused: its slices are kept and overwritten.
+type State struct {
+	Range     int
+	RangeName string
+
+	InputSpeed  units.AngularVelocity
+	InputTorque units.Torque // torque the engine delivers into the input shaft
+	InputPower  units.Power  // power the engine delivers
+
+	Outputs     []FlowState
+	PTOs        []FlowState
+	OutputPower units.Power // sum over the outputs
+	PTOPower    units.Power // sum over the PTOs
+
+	Shafts   []ShaftState
+	Elements []ElementState
+	Loops    []LoopResult
+
+	Loss          units.Power // sum of every element's loss
+	HydrostatLoss units.Power // the part of Loss in the hydrostatic loops (Loss − HydrostatLoss is mechanical)
+	// Efficiency is (output + PTO power)/input power while the engine drives,
+	// input/(output + PTO) power when the loads drive the engine (overrun),
+	// and 0 when no power flows.
+	Efficiency float64
+	// HydraulicShare is the signed share of the input power through the
+	// hydrostats: the sum of the loops' HydraulicPower over InputPower
+	// (taken the other way in a range built with Builder.ReverseShare).
+	// Negative means circulating power. Zero when no power enters.
+	HydraulicShare float64
+
+	// Margins lists, per loop: loop pressure against the relief setting,
+	// pressure against each unit's rated (continuous) pressure, each unit's
+	// speed against its maximum, each unit's setting against 1.
+	Margins []Margin
+	// Flags lists the margins that are crossed but do not make the point
+	// infeasible (rated continuous pressure exceeded below the relief).
+	Flags []Margin
+
+	Iterations int
+	Residual   float64 // relative power-balance residual reached
+	ports      []PortState
+}
+
+// fill writes the state into st and returns the relative power-balance
+// residual. With torques == 0 the torques are not known yet and are zero.
+func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) float64 {
+	l := s.l
+	st.size(l)
+	st.Range, st.RangeName = p.Range, r.name
+	st.Iterations = iters
+	for i := range st.ports {
+		st.ports[i] = PortState{}
+	}
+	for i := range l.elems {
+		e := &l.elems[i]
+		es := &st.Elements[i]
+		es.Name, es.Kind, es.Loss, es.Engaged, es.Flow, es.Loop = e.name, e.kind, 0, r.engaged[i], 0, -1
+		for k, sh := range e.shafts {
+			ps := &es.Ports[k]
+			ps.Shaft = sh
+			ps.Speed = units.AngularVelocity(s.w[sh])
+			if torques != 0 {
+				ps.Torque = units.Torque(s.t[e.port0+k] + 0) // + 0 turns −0 into 0
+			}
+			ps.Power = units.Power(float64(ps.Torque) * float64(ps.Speed))
+		}
+	}
+	for i := range st.Shafts {
+		st.Shafts[i] = ShaftState{Name: l.shafts[i], Speed: units.AngularVelocity(s.w[i])}
+	}
+	for i := range st.ports {
+		ps := &st.ports[i]
+		sh := &st.Shafts[ps.Shaft]
+		sh.Torque += units.Torque(math.Abs(float64(ps.Torque)) / 2)
+		sh.Power += units.Power(math.Abs(float64(ps.Power)) / 2)
+	}
+	in := &st.Elements[l.input].Ports[0]
+	st.InputSpeed = in.Speed
+	st.InputTorque = -in.Torque
+	st.InputPower = -in.Power
+	st.OutputPower, st.PTOPower, st.Loss, st.HydrostatLoss = 0, 0, 0, 0
+	for k, oi := range l.outputs {
+		ps := &st.Elements[oi].Ports[0]
+		st.Outputs[k] = FlowState{Name: l.elems[oi].name, Speed: ps.Speed, Torque: ps.Torque, Power: ps.Power}
+		st.OutputPower += ps.Power
+	}
+	for k, pi := range l.ptos {
+		ps := &st.Elements[pi].Ports[0]
+		st.PTOs[k] = FlowState{Name: l.elems[pi].name, Speed: ps.Speed, Torque: ps.Torque, Power: ps.Power}
+		st.PTOPower += ps.Power
+	}
+	hyd := 0.0
+	for i := range l.elems {
+		e := &l.elems[i]
+		es := &st.Elements[i]
+		switch e.kind {
+		case GearKind:
+			pa, pb := float64(es.Ports[0].Power), float64(es.Ports[1].Power)
+			switch k := s.gearK[e.index]; {
+			case k < 1:
+				es.Loss = units.Power(math.Max(0, (1-e.eta)*pa))
+			case k > 1:
+				es.Loss = units.Power(math.Max(0, (1-e.eta)*pb))
+			}
+		case PlanetaryKind:
+			roll := float64(es.Ports[0].Torque) * (s.w[e.shafts[0]] - s.w[e.shafts[2]])
+			eta := e.set.BasicEfficiency()
+			switch s.pflow[e.index] {
+			case 0:
+				es.Flow = planetary.SunDrives
+				es.Loss = units.Power(math.Max(0, roll*(1-eta)))
+			case 1:
+				es.Flow = planetary.RingDrives
+				es.Loss = units.Power(math.Max(0, roll*(1-1/eta)))
+			}
+		case LoopKind:
+			j := e.index
+			es.Loop = j
+			lr := &st.Loops[j]
+			src := &s.loopA[j]
+			lr.Name = e.name
+			m, set := lr.Motors, lr.Settings
+			copy(m, src.Motors)
+			copy(set, src.Settings)
+			lr.LoopState = *src
+			lr.Motors, lr.Settings = m, set
+			lr.Ratio = s.w[e.shafts[1]] / s.w[e.shafts[0]]
+			if torques != 0 {
+				lr.HydraulicPower = src.Pump.Hydraulic
+				es.Loss = units.Power(math.Max(0, float64(src.Loss)))
+				st.HydrostatLoss += es.Loss
+			} else {
+				lr.HydraulicPower = 0
+			}
+			hyd += float64(lr.HydraulicPower)
+		}
+		st.Loss += es.Loss
+	}
+	pin, useful := float64(st.InputPower), float64(st.OutputPower+st.PTOPower)
+	switch {
+	case pin > 0 && useful > 0:
+		st.Efficiency = math.Min(1, useful/pin) // ≤ 1 up to rounding
+	case pin < 0 && useful < 0:
+		st.Efficiency = math.Min(1, pin/useful)
+	default:
+		st.Efficiency = 0
+	}
+	st.HydraulicShare = 0
+	if pin != 0 {
+		st.HydraulicShare = hyd / pin
+		if r.reverse {
+			st.HydraulicShare = -hyd / pin
+		}
+	}
+	// The balance is relative to the powers that flow, with a floor of
+	// 1e-3 of the largest port torque at the largest shaft speed, so that
+	// a point where almost no power flows is judged by the rounding of the
+	// powers it could carry.
+	scale := math.Abs(pin) + math.Abs(useful) + float64(st.Loss) + 1e-3*st.powerScale()
+	res := pin - useful - float64(st.Loss)
+	if scale > 0 {
+		res = math.Abs(res) / scale
+	} else {
+		res = 0
+	}
+	st.Residual = res
+	if torques != 0 {
+		s.margins(st)
+	}
+	return res
+}
+
+// powerScale returns the largest port torque times the largest shaft speed.
+func (st *State) powerScale() float64 {
+	var t, w float64
+	for i := range st.ports {
+		t = math.Max(t, math.Abs(float64(st.ports[i].Torque)))
+		w = math.Max(w, math.Abs(float64(st.ports[i].Speed)))
+	}
+	return t * w
+}
+
+// size makes st's slices fit layout l, allocating only when they do not.
+func (st *State) size(l *layout) {
+	if len(st.ports) != l.nPorts || len(st.Elements) != len(l.elems) || len(st.Loops) != len(l.loops) ||
+		len(st.Shafts) != len(l.shafts) || len(st.Outputs) != len(l.outputs) || len(st.PTOs) != len(l.ptos) {
+		st.ports = make([]PortState, l.nPorts)
+		st.Elements = make([]ElementState, len(l.elems))
+		for i := range l.elems {
+			e := &l.elems[i]
+			st.Elements[i].Ports = st.ports[e.port0 : e.port0+len(e.shafts) : e.port0+len(e.shafts)]
+		}
+		st.Shafts = make([]ShaftState, len(l.shafts))
+		st.Outputs = make([]FlowState, len(l.outputs))
+		st.PTOs = make([]FlowState, len(l.ptos))
+		st.Loops = make([]LoopResult, len(l.loops))
+		nm := 0
+		for j, e := range l.loops {
+			m := len(l.elems[e].shafts) - 1
+			st.Loops[j].Motors = make([]hydrostat.Point, m)
+			st.Loops[j].Settings = make([]float64, m+1)
+			nm += 3*(m+1) + 1
+		}
+		st.Margins = make([]Margin, 0, nm)
+		st.Flags = make([]Margin, 0, nm)
+	}
+	// A State filled for another layout of the same shape keeps its slices.
+	for i := range l.elems {
+		e := &l.elems[i]
+		if len(st.Elements[i].Ports) != len(e.shafts) {
+			st.Elements[i].Ports = st.ports[e.port0 : e.port0+len(e.shafts) : e.port0+len(e.shafts)]
+		}
+	}
+	for j, e := range l.loops {
+		if m := len(l.elems[e].shafts) - 1; len(st.Loops[j].Motors) != m || len(st.Loops[j].Settings) != m+1 {
+			st.Loops[j].Motors = make([]hydrostat.Point, m)
+			st.Loops[j].Settings = make([]float64, m+1)
+		}
+	}
+}
+
+// margins lists the distance of every loop quantity from its limit.
+func (s *Solver) margins(st *State) {
+	l := s.l
+	st.Margins = st.Margins[:0]
+	st.Flags = st.Flags[:0]
+	for j, e := range l.loops {
+		el := &l.elems[e]
+		spec := &el.lspec
+		ls := &st.Loops[j]
+		high := float64(spec.Charge) + math.Abs(float64(ls.Pressure))
+		if spec.Relief > 0 {
+			st.Margins = append(st.Margins, Margin{Element: el.name, Quantity: "pressure", Value: high, Limit: float64(spec.Relief), Unit: "Pa"})
+		}
+		for k := range el.shafts {
+			pt := &ls.Pump
+			if k > 0 {
+				pt = &ls.Motors[k-1]
+			}
+			us := &el.uspec[k]
+			if us.RatedPressure > 0 {
+				m := Margin{Element: el.name, Quantity: el.unames[k][0], Value: math.Abs(float64(ls.Pressure)), Limit: float64(us.RatedPressure), Unit: "Pa"}
+				st.Margins = append(st.Margins, m)
+				if m.Left() < 0 {
+					st.Flags = append(st.Flags, m)
+				}
+			}
+			if us.MaxSpeed > 0 {
+				st.Margins = append(st.Margins, Margin{Element: el.name, Quantity: el.unames[k][1], Value: math.Abs(float64(pt.Speed)), Limit: float64(us.MaxSpeed), Unit: "rad/s"})
+			}
+			st.Margins = append(st.Margins, Margin{Element: el.name, Quantity: el.unames[k][2], Value: math.Abs(pt.Setting), Limit: 1})
+		}
+	}
+}
+
+// limits returns a *LimitError for the first infeasible margin of st.
+func (s *Solver) limits(st *State) error {
+	for _, m := range st.Margins {
+		if m.Left() >= -1e-12*m.Limit {
+			continue
+		}
+		if len(m.Quantity) > 14 && m.Quantity[len(m.Quantity)-14:] == "rated pressure" {
+			continue // a flag, not infeasible
+		}
+		sent := ErrInfeasible
+		if len(m.Quantity) > 7 && m.Quantity[len(m.Quantity)-7:] == "setting" {
+			sent = ErrUnreachable
+		}
+		return &LimitError{Element: m.Element, Quantity: m.Quantity, Value: m.Value, Limit: m.Limit, Unit: m.Unit, Err: sent}
+	}
+	return nil
+}

@@ -1,0 +1,353 @@
+package powersplit
+
+import (
+	"encoding/csv"
+	"errors"
+	"io"
+	"math"
+	"runtime"
+	"strconv"
+	"sync"
+	"sync/atomic"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// Cell is the result at one grid point of a sweep or map.
+type Cell struct {
+	OK     bool   // the point solved and is feasible
+	Reason string // why not, when !OK
+	Err    error  // the error, when !OK
+	Range  int    // the range solved in (the best one when the spec's Range is Auto)
+
+	OutputSpeed    units.AngularVelocity
+	OutputTorque   units.Torque
+	InputTorque    units.Torque
+	InputPower     units.Power
+	OutputPower    units.Power
+	Loss           units.Power
+	Efficiency     float64
+	HydraulicShare float64
+	Pressure       units.Pressure // first loop
+	PumpSetting    float64        // first loop
+	MotorSetting   float64        // first loop, first motor
+}
+
+// Auto as a spec's Range means: the best feasible range by the spec's Policy.
+const Auto = -1
+
+// SweepSpec describes a sweep over output speed.
+type SweepSpec struct {
+	Range  int    // range index, or Auto
+	Policy Policy // for Auto; nil means HighestEfficiency
+	Input  units.AngularVelocity
+	// From, To and Steps (≥ 2) give the output speeds, evenly spaced. Every
+	// output of the layout gets the swept speed.
+	From, To units.AngularVelocity
+	Steps    int
+	// Torque is the first output's torque; other outputs carry none. When
+	// Power is non-zero instead, the output torque at each speed is found so
+	// that the engine delivers Power.
+	Torque   units.Torque
+	Power    units.Power
+	PTO      []units.Torque
+	Workers  int                   // parallel workers; 0 means GOMAXPROCS
+	Progress func(done, total int) // called after each point, serialised; may be nil
+}
+
+// Sweep is the result of Layout.Sweep: one Cell per output speed.
+type Sweep struct {
+	Speeds []units.AngularVelocity
+	Cells  []Cell
+}
+
+// MapSpec describes a 2-D map over output speed × output torque.
+type MapSpec struct {
+	Range                int
+	Policy               Policy
+	Input                units.AngularVelocity
+	SpeedFrom, SpeedTo   units.AngularVelocity
+	SpeedSteps           int // ≥ 2
+	TorqueFrom, TorqueTo units.Torque
+	TorqueSteps          int // ≥ 2
+	PTO                  []units.Torque
+	Workers              int
+	Progress             func(done, total int)
+}
+
+// Map is the result of Layout.Map: Cells[i][j] at Torques[i], Speeds[j].
+type Map struct {
+	Speeds  []units.AngularVelocity
+	Torques []units.Torque
+	Cells   [][]Cell
+}
+
+// Feasible returns the feasibility mask: mask[i][j] is Cells[i][j].OK.
+func (m Map) Feasible() [][]bool {
+	mask := make([][]bool, len(m.Cells))
+	for i, row := range m.Cells {
+		mask[i] = make([]bool, len(row))
+		for j, c := range row {
+			mask[i][j] = c.OK
+		}
+	}
+	return mask
+}
+
+func axis(from, to float64, n int) []float64 {
+	out := make([]float64, n)
+	for i := range out {
+		out[i] = from + (to-from)*float64(i)/float64(n-1)
+	}
+	out[n-1] = to
+	return out
+}
+
+func checkAxis(field string, from, to float64, n int) error {
+	if bad(from) || bad(to) {
+		return &InputError{Field: field, Value: from, Reason: "not finite"}
+	}
+	if n < 2 || n > 1<<20 {
+		return &InputError{Field: field + " steps", Value: float64(n), Reason: "need 2 to 2^20 steps"}
+	}
+	return nil
+}
+
+// job solves one cell.
+type job func(s *Solver, st *State, p *Point, i int) Cell
+
+// run solves n cells on workers goroutines, each with its own Solver.
+// Results depend only on the cell, never on the order, so they are
+// deterministic.
+func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) []Cell {
+	cells := make([]Cell, n)
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	workers = min(workers, n)
+	var next atomic.Int64
+	var mu sync.Mutex
+	done := 0
+	var wg sync.WaitGroup
+	for range workers {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			s := NewSolver(l)
+			var st State
+			q := p
+			q.Outputs = append([]OutputDemand(nil), p.Outputs...)
+			for {
+				i := int(next.Add(1)) - 1
+				if i >= n {
+					return
+				}
+				cells[i] = f(s, &st, &q, i)
+				if progress != nil {
+					mu.Lock()
+					done++
+					progress(done, n)
+					mu.Unlock()
+				}
+			}
+		}()
+	}
+	wg.Wait()
+	return cells
+}
+
+// solveCell solves q in range rg (or Auto) and summarises it.
+func solveCell(s *Solver, st *State, q *Point, rg int, pol Policy) Cell {
+	var err error
+	if rg == Auto {
+		err = s.Best(*q, pol, st)
+	} else {
+		q.Range = rg
+		err = s.Solve(*q, st)
+	}
+	c := Cell{OK: err == nil, Err: err, Range: st.Range, OutputTorque: q.Outputs[0].Torque,
+		OutputSpeed: q.Outputs[0].Speed}
+	if err != nil {
+		c.Reason = err.Error()
+		return c
+	}
+	c.InputTorque, c.InputPower, c.OutputPower = st.InputTorque, st.InputPower, st.OutputPower
+	c.OutputTorque = st.Outputs[0].Torque
+	c.Loss, c.Efficiency, c.HydraulicShare = st.Loss, st.Efficiency, st.HydraulicShare
+	if len(st.Loops) > 0 {
+		c.Pressure = st.Loops[0].Pressure
+		c.PumpSetting = st.Loops[0].Pump.Setting
+		if len(st.Loops[0].Motors) > 0 {
+			c.MotorSetting = st.Loops[0].Motors[0].Setting
+		}
+	}
+	return c
+}
+
+func (l Layout) point(in units.AngularVelocity, pto []units.Torque) Point {
+	return Point{Input: in, Outputs: make([]OutputDemand, len(l.l.outputs)), PTO: pto}
+}
+
+// Sweep solves the layout over output speed at the given input speed and
+// either output torque or input power, in parallel. Cells that fail carry
+// the reason; the error return is for a bad spec only.
+func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
+	if err := l.checkSpec(spec.Range, spec.Input, spec.PTO); err != nil {
+		return Sweep{}, err
+	}
+	if err := checkAxis("Sweep speed", float64(spec.From), float64(spec.To), spec.Steps); err != nil {
+		return Sweep{}, err
+	}
+	if bad(float64(spec.Torque)) || bad(float64(spec.Power)) {
+		return Sweep{}, &InputError{Field: "Torque/Power", Value: math.NaN(), Reason: "not finite"}
+	}
+	vs := axis(float64(spec.From), float64(spec.To), spec.Steps)
+	p := l.point(spec.Input, spec.PTO)
+	cells := l.run(len(vs), spec.Workers, spec.Progress, p, func(s *Solver, st *State, q *Point, i int) Cell {
+		for k := range q.Outputs {
+			q.Outputs[k] = OutputDemand{Speed: units.AngularVelocity(vs[i])}
+		}
+		if spec.Power == 0 {
+			q.Outputs[0].Torque = spec.Torque
+			return solveCell(s, st, q, spec.Range, spec.Policy)
+		}
+		return powerCell(s, st, q, spec.Range, spec.Policy, float64(spec.Power))
+	})
+	out := Sweep{Speeds: make([]units.AngularVelocity, len(vs)), Cells: cells}
+	for i, v := range vs {
+		out.Speeds[i] = units.AngularVelocity(v)
+	}
+	return out, nil
+}
+
+// powerCell finds the output torque at which the engine delivers power P
+// (secant iteration on the output torque; input power is close to affine in
+// it).
+func powerCell(s *Solver, st *State, q *Point, rg int, pol Policy, P float64) Cell {
+	pin := func(t float64) (float64, Cell) {
+		q.Outputs[0].Torque = units.Torque(t)
+		c := solveCell(s, st, q, rg, pol)
+		return float64(c.InputPower), c
+	}
+	w := math.Abs(float64(q.Outputs[0].Speed))
+	t0 := 0.0
+	t1 := 0.8 * P / math.Max(w, 0.05*math.Abs(float64(q.Input)))
+	if float64(q.Outputs[0].Speed) < 0 {
+		t1 = -t1
+	}
+	f0, c0 := pin(t0)
+	if !c0.OK {
+		return c0
+	}
+	for k := 0; k < 40; k++ {
+		f1, c1 := pin(t1)
+		if !c1.OK {
+			// Step back towards the last good torque.
+			t1 = (t0 + t1) / 2
+			continue
+		}
+		if math.Abs(f1-P) <= 1e-9*math.Abs(P) {
+			return c1
+		}
+		if f1 == f0 {
+			break
+		}
+		t0, t1, f0 = t1, t1-(f1-P)*(t1-t0)/(f1-f0), f1
+		if bad(t1) {
+			break
+		}
+	}
+	c := Cell{OutputSpeed: q.Outputs[0].Speed, Err: ErrUnreachable,
+		Reason: "input power " + strconv.FormatFloat(P, 'g', 6, 64) + " W not reached at this speed"}
+	return c
+}
+
+// Map solves the layout over the grid output speed × output torque at the
+// given input speed, in parallel.
+func (l Layout) Map(spec MapSpec) (Map, error) {
+	if err := l.checkSpec(spec.Range, spec.Input, spec.PTO); err != nil {
+		return Map{}, err
+	}
+	if err := checkAxis("Map speed", float64(spec.SpeedFrom), float64(spec.SpeedTo), spec.SpeedSteps); err != nil {
+		return Map{}, err
+	}
+	if err := checkAxis("Map torque", float64(spec.TorqueFrom), float64(spec.TorqueTo), spec.TorqueSteps); err != nil {
+		return Map{}, err
+	}
+	vs := axis(float64(spec.SpeedFrom), float64(spec.SpeedTo), spec.SpeedSteps)
+	ts := axis(float64(spec.TorqueFrom), float64(spec.TorqueTo), spec.TorqueSteps)
+	nv := len(vs)
+	p := l.point(spec.Input, spec.PTO)
+	flat := l.run(nv*len(ts), spec.Workers, spec.Progress, p, func(s *Solver, st *State, q *Point, i int) Cell {
+		for k := range q.Outputs {
+			q.Outputs[k] = OutputDemand{Speed: units.AngularVelocity(vs[i%nv])}
+		}
+		q.Outputs[0].Torque = units.Torque(ts[i/nv])
+		return solveCell(s, st, q, spec.Range, spec.Policy)
+	})
+	m := Map{Speeds: make([]units.AngularVelocity, nv), Torques: make([]units.Torque, len(ts)), Cells: make([][]Cell, len(ts))}
+	for j, v := range vs {
+		m.Speeds[j] = units.AngularVelocity(v)
+	}
+	for i, t := range ts {
+		m.Torques[i] = units.Torque(t)
+		m.Cells[i] = flat[i*nv : (i+1)*nv : (i+1)*nv]
+	}
+	return m, nil
+}
+
+func (l Layout) checkSpec(rg int, in units.AngularVelocity, pto []units.Torque) error {
+	if l.l == nil {
+		return &LayoutError{Reason: "zero Layout", Err: ErrLayout}
+	}
+	if rg != Auto && (rg < 0 || rg >= len(l.l.ranges)) {
+		return &InputError{Field: "Range", Value: float64(rg), Reason: "no such range"}
+	}
+	if bad(float64(in)) {
+		return &InputError{Field: "Input", Value: float64(in), Reason: "not finite"}
+	}
+	if pto != nil && len(pto) != len(l.l.ptos) {
+		return &InputError{Field: "len(PTO)", Value: float64(len(pto)), Reason: "one torque per PTO, or nil"}
+	}
+	return nil
+}
+
+var csvHeader = []string{"output_speed_rpm", "output_torque_Nm", "feasible", "range", "input_torque_Nm",
+	"input_power_kW", "output_power_kW", "loss_kW", "efficiency", "hydraulic_share", "pressure_bar",
+	"pump_setting", "motor_setting", "reason"}
+
+func (c Cell) record() []string {
+	f := func(v float64) string { return strconv.FormatFloat(v, 'g', 10, 64) }
+	if !c.OK {
+		return []string{f(c.OutputSpeed.RPM()), f(float64(c.OutputTorque)), "false", "", "", "", "", "", "", "", "", "", "", c.Reason}
+	}
+	return []string{f(c.OutputSpeed.RPM()), f(float64(c.OutputTorque)), "true", strconv.Itoa(c.Range),
+		f(float64(c.InputTorque)), f(c.InputPower.Kilowatts()), f(c.OutputPower.Kilowatts()), f(c.Loss.Kilowatts()),
+		f(c.Efficiency), f(c.HydraulicShare), f(c.Pressure.Bar()), f(c.PumpSetting), f(c.MotorSetting), ""}
+}
+
+// WriteCSV writes the sweep as CSV: a header row, then one row per speed.
+// Infeasible rows carry the reason and leave the results empty.
+func (s Sweep) WriteCSV(w io.Writer) error {
+	return writeCells(w, [][]Cell{s.Cells})
+}
+
+// WriteCSV writes the map as CSV in long form: a header row, then one row
+// per cell, torque-major.
+func (m Map) WriteCSV(w io.Writer) error { return writeCells(w, m.Cells) }
+
+func writeCells(w io.Writer, rows [][]Cell) error {
+	cw := csv.NewWriter(w)
+	if err := cw.Write(csvHeader); err != nil {
+		return err
+	}
+	for _, row := range rows {
+		for _, c := range row {
+			if err := cw.Write(c.record()); err != nil {
+				return err
+			}
+		}
+	}
+	cw.Flush()
+	return errors.Join(cw.Error())
+}

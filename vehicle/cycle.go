@@ -1,0 +1,457 @@
+package vehicle
+
+import (
+	"errors"
+	"math"
+	"slices"
+	"time"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// Kind is the kind of a duty-cycle segment.
+type Kind int
+
+// Segment kinds.
+const (
+	// FieldPass travels Distance at Speed with an Implement working (its
+	// draft and PTO load) on a constant Grade.
+	FieldPass Kind = iota
+	// HeadlandTurn travels at Speed for Duration with the implement raised:
+	// no draft and no PTO load.
+	HeadlandTurn
+	// RoadTransfer travels at Speed along a Profile of stretches of given
+	// length and grade, towing the Trailer.
+	RoadTransfer
+	// StationaryPTO stands still for Duration driving the PTO (PTOPower at
+	// PTOSpeed, or the Implement's PTO load).
+	StationaryPTO
+	// Accelerate speeds up from StartSpeed (zero: from rest) to Speed at a
+	// constant Acceleration on a constant Grade, towing the Trailer.
+	Accelerate
+)
+
+// String returns the kind's name.
+func (k Kind) String() string {
+	switch k {
+	case FieldPass:
+		return "field pass"
+	case HeadlandTurn:
+		return "headland turn"
+	case RoadTransfer:
+		return "road transfer"
+	case StationaryPTO:
+		return "stationary PTO"
+	case Accelerate:
+		return "acceleration"
+	}
+	return "unknown segment kind"
+}
+
+// A Stretch is a piece of a road profile.
+type Stretch struct {
+	Length units.Length // > 0
+	Grade  float64      // rise over run, within ±1
+}
+
+// A Segment is one part of a working day. Which fields apply depends on
+// Kind (see the Kind constants); the others are ignored.
+type Segment struct {
+	Name         string
+	Kind         Kind
+	Speed        units.Speed        // travel speed (final speed for Accelerate)
+	StartSpeed   units.Speed        // Accelerate: initial speed, >= 0
+	Acceleration units.Acceleration // Accelerate: > 0
+	Distance     units.Length       // FieldPass: pass length
+	Duration     time.Duration      // HeadlandTurn, StationaryPTO
+	Implement    *Implement         // FieldPass; StationaryPTO (PTO load only)
+	Trailer      Trailer            // RoadTransfer, Accelerate
+	Profile      []Stretch          // RoadTransfer
+	Grade        float64            // FieldPass, HeadlandTurn, StationaryPTO, Accelerate
+	PTOPower     units.Power        // StationaryPTO without an Implement
+	PTOSpeed     units.AngularVelocity
+	// Ground is the tyres on this segment's surface (field, road); nil
+	// means the vehicle's Spec.Tyres.
+	Ground Traction
+}
+
+// Options control a simulation. Zero fields take the defaults.
+type Options struct {
+	// Step is the time step; default 1 s.
+	Step time.Duration
+	// MaxSteps bounds the steps of one segment; default 1 000 000. A
+	// segment that needs more is reported as invalid.
+	MaxSteps int
+}
+
+// A Step is the state of the vehicle over one time step (evaluated at the
+// step's mid-point speed).
+type Step struct {
+	Segment                int
+	Start                  time.Duration // from the start of the day
+	Duration               time.Duration
+	Speed                  units.Speed
+	Grade                  float64
+	EngineSpeed            units.AngularVelocity
+	EngineTorque           units.Torque
+	Range                  int // -1 with the drive disengaged
+	TransmissionEfficiency float64
+	HydrostaticShare       float64
+	Slip                   float64
+	FuelRate               units.MassFlow
+}
+
+// An Audit is the energy account of a segment or a day. It closes as
+//
+//	FuelEnergy = EngineLoss + Hydrostatic + Mechanical + PTOLoss + PTOWork
+//	           + Slip + Rolling + Brake + Drawbar + Trailer + Aero + Potential + Kinetic
+//
+// where EngineWork = FuelEnergy − EngineLoss, Potential is the gain in
+// potential energy (m·g·Δh over tractor and trailer) and Kinetic the gain
+// in kinetic energy (½·m_eq·(v₁² − v₀²), rotating parts included), both
+// computed from the segment's states rather than summed from the steps.
+type Audit struct {
+	Duration   time.Duration
+	Distance   units.Length
+	Fuel       units.Mass
+	FuelEnergy units.Energy
+	EngineLoss units.Energy
+	EngineWork units.Energy
+	// Transmission losses: hydrostatic, and mechanical including the final drive.
+	Hydrostatic, Mechanical units.Energy
+	PTOLoss, PTOWork        units.Energy
+	// Tyre losses of the tractor, and energy the brakes absorb.
+	Slip, Rolling, Brake units.Energy
+	// Work done on the implement (draft), the trailer's rolling loss, drag.
+	Drawbar, Trailer, Aero units.Energy
+	Potential, Kinetic     units.Energy
+}
+
+// Sinks returns the sum of every line the fuel energy goes to.
+func (a Audit) Sinks() units.Energy {
+	return a.EngineLoss + a.Hydrostatic + a.Mechanical + a.PTOLoss + a.PTOWork +
+		a.Slip + a.Rolling + a.Brake + a.Drawbar + a.Trailer + a.Aero + a.Potential + a.Kinetic
+}
+
+// Residual returns FuelEnergy − Sinks().
+func (a Audit) Residual() units.Energy { return a.FuelEnergy - a.Sinks() }
+
+// Turnover returns the energy that passes through the account: the fuel
+// energy plus the magnitudes of the potential and kinetic energy changes
+// (downhill or slowing, stored energy feeds the brakes and losses too).
+func (a Audit) Turnover() units.Energy {
+	return a.FuelEnergy + units.Energy(math.Abs(float64(a.Potential))+math.Abs(float64(a.Kinetic)))
+}
+
+// RelativeResidual returns |Residual|/Turnover (0 when nothing is left
+// over).
+func (a Audit) RelativeResidual() float64 {
+	r := math.Abs(float64(a.Residual()))
+	if r == 0 {
+		return 0
+	}
+	return r / math.Max(float64(a.Turnover()), math.SmallestNonzeroFloat64)
+}
+
+// Volume returns the fuel volume burned at the fuel's density.
+func (a Audit) Volume(f Fuel) units.Volume {
+	return units.Volume(float64(a.Fuel) / float64(f.Density))
+}
+
+func (a *Audit) add(b Audit) {
+	a.Duration += b.Duration
+	a.Distance += b.Distance
+	a.Fuel += b.Fuel
+	a.FuelEnergy += b.FuelEnergy
+	a.EngineLoss += b.EngineLoss
+	a.EngineWork += b.EngineWork
+	a.Hydrostatic += b.Hydrostatic
+	a.Mechanical += b.Mechanical
+	a.PTOLoss += b.PTOLoss
+	a.PTOWork += b.PTOWork
+	a.Slip += b.Slip
+	a.Rolling += b.Rolling
+	a.Brake += b.Brake
+	a.Drawbar += b.Drawbar
+	a.Trailer += b.Trailer
+	a.Aero += b.Aero
+	a.Potential += b.Potential
+	a.Kinetic += b.Kinetic
+}
+
+// A SegmentResult is the outcome of one segment. Err is non-nil (a
+// *SegmentError) when the segment could not be run; then Steps and Audit
+// are empty and the day's totals leave it out.
+type SegmentResult struct {
+	Index int
+	Name  string
+	Kind  Kind
+	Err   error
+	Steps []Step
+	Audit Audit
+	// Flags name the rated limits crossed during the segment (each once)
+	// that did not make it infeasible. Check them: they are warnings.
+	Flags []string
+}
+
+// A Day is the result of a duty cycle.
+type Day struct {
+	Segments []SegmentResult
+	// Audit is the sum of the audits of the segments that ran.
+	Audit Audit
+}
+
+// Err returns the segments' errors joined, or nil when every segment ran.
+func (d Day) Err() error {
+	var errs []error
+	for _, s := range d.Segments {
+		if s.Err != nil {
+			errs = append(errs, s.Err)
+		}
+	}
+	return errors.Join(errs...)
+}
+
+// piece is one time step of a segment before it is solved.
+type piece struct {
+	dt, v0, v1, grade float64
+}
+
+// Simulate runs the duty cycle with the vehicle under the strategy. Each
+// segment starts from its own speeds: only Accelerate changes speed within
+// the account. A segment that cannot be run (bad input, beyond the engine,
+// beyond traction, ...) is reported in its SegmentResult with the reason,
+// and the rest of the cycle still runs. The returned error is non-nil only
+// for a nil vehicle or strategy, an empty cycle (ErrEmptyCycle) or bad
+// options.
+func Simulate(v *Vehicle, s Strategy, cycle []Segment, opt Options) (Day, error) {
+	if v == nil || s == nil {
+		return Day{}, invalid("Simulate", math.NaN(), "needs a vehicle and a strategy")
+	}
+	if len(cycle) == 0 {
+		return Day{}, ErrEmptyCycle
+	}
+	if opt.Step == 0 {
+		opt.Step = time.Second
+	}
+	if opt.Step < time.Millisecond {
+		return Day{}, invalid("Options.Step", opt.Step.Seconds(), "must be at least 1 ms")
+	}
+	if opt.MaxSteps == 0 {
+		opt.MaxSteps = 1_000_000
+	}
+	if opt.MaxSteps < 1 {
+		return Day{}, invalid("Options.MaxSteps", float64(opt.MaxSteps), "must be positive")
+	}
+	day := Day{Segments: make([]SegmentResult, len(cycle))}
+	var clock float64
+	for i, seg := range cycle {
+		res := SegmentResult{Index: i, Name: seg.Name, Kind: seg.Kind}
+		pieces, err := seg.pieces(opt)
+		if err != nil {
+			res.Err = &SegmentError{Index: i, Name: seg.Name, Err: err}
+			day.Segments[i] = res
+			continue
+		}
+		var dur float64
+		for _, p := range pieces {
+			dur += p.dt
+		}
+		steps, audit, flags, at, err := v.run(s, seg, i, pieces, clock)
+		if err != nil {
+			res.Err = &SegmentError{Index: i, Name: seg.Name, At: seconds(at), Err: err}
+		} else {
+			res.Steps, res.Audit, res.Flags = steps, audit, flags
+			day.Audit.add(audit)
+		}
+		day.Segments[i] = res
+		clock += dur
+	}
+	return day, nil
+}
+
+// pieces validates the segment and splits it into time steps.
+func (g Segment) pieces(opt Options) ([]piece, error) {
+	dt := opt.Step.Seconds()
+	v := float64(g.Speed)
+	if err := isFinite("Segment.Grade", g.Grade); err != nil {
+		return nil, err
+	}
+	if math.Abs(g.Grade) > 1 {
+		return nil, invalid("Segment.Grade", g.Grade, "must be within ±1 (45°)")
+	}
+	var out []piece
+	add := func(total, v0, v1, grade float64) error {
+		n := math.Ceil(total/dt - 1e-9)
+		if n < 1 {
+			n = 1
+		}
+		if int(n)+len(out) > opt.MaxSteps || math.IsInf(n, 0) {
+			return invalid("segment steps", n, "exceed Options.MaxSteps")
+		}
+		acc := (v1 - v0) / total
+		t := 0.0
+		for k := 0; k < int(n); k++ {
+			h := math.Min(dt, total-t)
+			if k == int(n)-1 {
+				h = total - t
+			}
+			a0, a1 := v0+acc*t, v0+acc*(t+h)
+			if k == int(n)-1 {
+				a1 = v1
+			}
+			out = append(out, piece{dt: h, v0: a0, v1: a1, grade: grade})
+			t += h
+		}
+		return nil
+	}
+	switch g.Kind {
+	case FieldPass:
+		if err := positive("Segment.Speed", v); err != nil {
+			return nil, err
+		}
+		if err := positive("Segment.Distance", float64(g.Distance)); err != nil {
+			return nil, err
+		}
+		return out, add(float64(g.Distance)/v, v, v, g.Grade)
+	case HeadlandTurn:
+		if err := positive("Segment.Speed", v); err != nil {
+			return nil, err
+		}
+		if g.Duration <= 0 {
+			return nil, invalid("Segment.Duration", g.Duration.Seconds(), "must be positive")
+		}
+		return out, add(g.Duration.Seconds(), v, v, g.Grade)
+	case RoadTransfer:
+		if err := positive("Segment.Speed", v); err != nil {
+			return nil, err
+		}
+		if len(g.Profile) == 0 {
+			return nil, invalid("Segment.Profile", 0, "needs at least one stretch")
+		}
+		for _, st := range g.Profile {
+			if err := positive("Stretch.Length", float64(st.Length)); err != nil {
+				return nil, err
+			}
+			if !finite(st.Grade) || math.Abs(st.Grade) > 1 {
+				return nil, invalid("Stretch.Grade", st.Grade, "must be finite and within ±1")
+			}
+			if err := add(float64(st.Length)/v, v, v, st.Grade); err != nil {
+				return nil, err
+			}
+		}
+		return out, nil
+	case StationaryPTO:
+		if g.Duration <= 0 {
+			return nil, invalid("Segment.Duration", g.Duration.Seconds(), "must be positive")
+		}
+		return out, add(g.Duration.Seconds(), 0, 0, g.Grade)
+	case Accelerate:
+		v0 := float64(g.StartSpeed)
+		if err := nonNegative("Segment.StartSpeed", v0); err != nil {
+			return nil, err
+		}
+		if err := positive("Segment.Speed", v); err != nil {
+			return nil, err
+		}
+		if v <= v0 {
+			return nil, invalid("Segment.Speed", v, "must exceed StartSpeed")
+		}
+		if err := positive("Segment.Acceleration", float64(g.Acceleration)); err != nil {
+			return nil, err
+		}
+		return out, add((v-v0)/float64(g.Acceleration), v0, v, g.Grade)
+	}
+	return nil, invalid("Segment.Kind", float64(g.Kind), "is not a known kind")
+}
+
+// demandFor returns the demand of a piece of the segment.
+func (g Segment) demandFor(p piece) (Demand, error) {
+	vm := 0.5 * (p.v0 + p.v1)
+	d := Demand{Speed: units.Speed(vm), Grade: p.grade, Acceleration: units.Acceleration((p.v1 - p.v0) / p.dt), Ground: g.Ground}
+	if g.Kind == Accelerate || g.Kind == RoadTransfer {
+		d.Trailer = g.Trailer
+	}
+	switch g.Kind {
+	case FieldPass:
+		if g.Implement != nil {
+			dr, err := g.Implement.Draft(units.Speed(vm))
+			if err != nil {
+				return Demand{}, err
+			}
+			d.Draft = dr
+			d.PTOPower, d.PTOSpeed = g.Implement.PTOPower, g.Implement.PTOSpeed
+		}
+	case StationaryPTO:
+		d.PTOPower, d.PTOSpeed = g.PTOPower, g.PTOSpeed
+		if g.Implement != nil {
+			d.PTOPower, d.PTOSpeed = g.Implement.PTOPower, g.Implement.PTOSpeed
+		}
+	}
+	return d, d.Validate()
+}
+
+// run solves the pieces of one segment.
+func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock float64) ([]Step, Audit, []string, float64, error) {
+	steps := make([]Step, 0, len(pieces))
+	var a Audit
+	var t float64
+	mEq := float64(v.s.Mass) + float64(v.s.RotatingMass)
+	mGrav := float64(v.s.Mass)
+	if g.Kind == Accelerate || g.Kind == RoadTransfer {
+		mEq += float64(g.Trailer.Mass) + float64(g.Trailer.RotatingMass)
+		mGrav += float64(g.Trailer.Mass)
+	}
+	var rise, dist float64
+	var flags []string
+	for _, pc := range pieces {
+		d, err := g.demandFor(pc)
+		if err != nil {
+			return nil, Audit{}, nil, t, err
+		}
+		p, err := s.Operate(v, d)
+		if err != nil {
+			return nil, Audit{}, nil, t, err
+		}
+		for _, fl := range p.Flags {
+			if !slices.Contains(flags, fl) {
+				flags = append(flags, fl)
+			}
+		}
+		f := p.Flows
+		h := pc.dt
+		e := func(x units.Power) units.Energy { return units.Energy(float64(x) * h) }
+		a.Fuel += units.Mass(float64(p.FuelRate) * h)
+		a.FuelEnergy += e(f.Fuel)
+		a.EngineLoss += e(f.EngineLoss)
+		a.EngineWork += e(f.Engine)
+		a.Hydrostatic += e(f.Hydrostatic)
+		a.Mechanical += e(f.Mechanical)
+		a.PTOLoss += e(f.PTOLoss)
+		a.PTOWork += e(f.PTO)
+		a.Slip += e(f.Slip)
+		a.Rolling += e(f.Rolling)
+		a.Brake += e(f.Brake)
+		a.Drawbar += e(f.Drawbar)
+		a.Trailer += e(f.Trailer)
+		a.Aero += e(f.Aero)
+		ds := float64(d.Speed) * h
+		dist += ds
+		rise += ds * sinGrade(pc.grade)
+		steps = append(steps, Step{
+			Segment: idx, Start: seconds(clock + t), Duration: seconds(h),
+			Speed: d.Speed, Grade: pc.grade, EngineSpeed: p.EngineSpeed, EngineTorque: p.EngineTorque,
+			Range: p.Range, TransmissionEfficiency: p.TransmissionEfficiency(),
+			HydrostaticShare: p.Drive.HydrostaticShare, Slip: p.Slip, FuelRate: p.FuelRate,
+		})
+		t += h
+	}
+	v0, v1 := pieces[0].v0, pieces[len(pieces)-1].v1
+	a.Kinetic = units.Energy(0.5 * mEq * (v1*v1 - v0*v0))
+	a.Potential = units.Energy(mGrav * float64(units.Gravity) * rise)
+	a.Distance = units.Length(dist)
+	a.Duration = seconds(t)
+	return steps, a, flags, t, nil
+}
+
+func seconds(s float64) time.Duration { return time.Duration(math.Round(s * 1e9)) }

@@ -1,0 +1,87 @@
+package vehicle
+
+import (
+	"errors"
+	"fmt"
+	"time"
+)
+
+// Sentinel errors of the package. Every error this package returns wraps
+// exactly one of them, so errors.Is finds the kind of failure.
+var (
+	// ErrInvalid means an input is out of its valid range, NaN or infinite.
+	ErrInvalid = errors.New("vehicle: invalid input")
+	// ErrEngineLimit means a demand lies beyond the engine: above its
+	// full-load torque curve or outside its speed range.
+	ErrEngineLimit = errors.New("vehicle: beyond the engine's limits")
+	// ErrTraction means the tyres cannot deliver the pull the demand needs
+	// (for example a grade beyond traction).
+	ErrTraction = errors.New("vehicle: beyond traction")
+	// ErrStability means the front axle would be unloaded: the demand
+	// would tip the vehicle backwards or leave it unsteerable.
+	ErrStability = errors.New("vehicle: front axle unloaded")
+	// ErrTransmission means the transmission cannot run the operating point
+	// (ratio out of range, a limit of its own crossed, or its power balance
+	// does not close).
+	ErrTransmission = errors.New("vehicle: transmission cannot run the point")
+	// ErrPTOLimit means a PTO demand exceeds the PTO driveline's rating.
+	ErrPTOLimit = errors.New("vehicle: beyond the PTO rating")
+	// ErrInfeasible means no engine speed and range meets a demand within
+	// every limit.
+	ErrInfeasible = errors.New("vehicle: no feasible operating point")
+	// ErrEmptyCycle means a duty cycle has no segments.
+	ErrEmptyCycle = errors.New("vehicle: empty duty cycle")
+)
+
+// A LimitError records a quantity that crossed a limit. Value and Limit are
+// in the SI unit named by Unit. It wraps one of the sentinel errors.
+type LimitError struct {
+	Quantity string  // what was limited, e.g. "engine torque"
+	Value    float64 // the value demanded, in Unit
+	Limit    float64 // the limit it crossed, in Unit
+	Unit     string  // the SI unit of Value and Limit, e.g. "N·m"
+	Err      error   // the sentinel: ErrEngineLimit, ErrTraction, ...
+}
+
+// Error returns the message, naming the quantity, the value and the limit.
+func (e *LimitError) Error() string {
+	return fmt.Sprintf("%v: %s %.6g %s beyond limit %.6g %s", e.Err, e.Quantity, e.Value, e.Unit, e.Limit, e.Unit)
+}
+
+// Unwrap returns the sentinel error so that errors.Is finds it.
+func (e *LimitError) Unwrap() error { return e.Err }
+
+// An InputError records an invalid input field.
+type InputError struct {
+	Field  string  // the field or argument, e.g. "Spec.Mass"
+	Value  float64 // the offending value (NaN when the value is not a number)
+	Reason string  // what a valid value is, e.g. "must be positive"
+}
+
+// Error returns the message.
+func (e *InputError) Error() string {
+	return fmt.Sprintf("%v: %s = %.6g %s", ErrInvalid, e.Field, e.Value, e.Reason)
+}
+
+// Unwrap returns ErrInvalid.
+func (e *InputError) Unwrap() error { return ErrInvalid }
+
+// A SegmentError reports why a duty-cycle segment could not be run.
+type SegmentError struct {
+	Index int           // position of the segment in the cycle
+	Name  string        // the segment's name
+	At    time.Duration // time into the segment when the failure occurred
+	Err   error         // the cause
+}
+
+// Error returns the message.
+func (e *SegmentError) Error() string {
+	return fmt.Sprintf("vehicle: segment %d %q at %v: %v", e.Index, e.Name, e.At, e.Err)
+}
+
+// Unwrap returns the cause.
+func (e *SegmentError) Unwrap() error { return e.Err }
+
+func invalid(field string, v float64, reason string) error {
+	return &InputError{Field: field, Value: v, Reason: reason}
+}

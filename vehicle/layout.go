@@ -1,0 +1,90 @@
+package vehicle
+
+import (
+	"errors"
+	"math"
+	"sync"
+
+	"github.com/powersplit-dev/powersplit"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// A LayoutDrive adapts a layout of the root package (a power-split,
+// hydrostatic or other network solved by powersplit.Solver) to
+// Transmission. The layout must have exactly one output (given speed and
+// torque); its PTOs, if any, are left unloaded: the vehicle's PTO is
+// described by Spec.PTO. Operate is safe for concurrent use (one solver
+// guarded by a lock).
+type LayoutDrive struct {
+	layout powersplit.Layout
+	mu     sync.Mutex
+	solver *powersplit.Solver
+	st     powersplit.State
+	outs   []powersplit.OutputDemand
+}
+
+// FromLayout returns the Transmission view of layout l.
+func FromLayout(l powersplit.Layout) (*LayoutDrive, error) {
+	if !l.Valid() {
+		return nil, invalid("layout", math.NaN(), "is the zero Layout")
+	}
+	if n := len(l.Outputs()); n != 1 {
+		return nil, invalid("layout outputs", float64(n), "must be exactly one")
+	}
+	if l.Ranges() < 1 {
+		return nil, invalid("layout ranges", 0, "needs at least one range")
+	}
+	return &LayoutDrive{layout: l, solver: powersplit.NewSolver(l), outs: make([]powersplit.OutputDemand, 1)}, nil
+}
+
+// Ranges implements Transmission.
+func (d *LayoutDrive) Ranges() int { return d.layout.Ranges() }
+
+// Layout returns the adapted layout.
+func (d *LayoutDrive) Layout() powersplit.Layout { return d.layout }
+
+// Operate implements Transmission. Losses of the layout's hydrostatic loops
+// are HydrostaticLoss; all other elements' losses are MechanicalLoss. Rated
+// limits the solver flags without making the point infeasible are listed in
+// DrivePoint.Flags.
+func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTorque units.Torque) (DrivePoint, error) {
+	if rng < 0 || rng >= d.layout.Ranges() {
+		return DrivePoint{}, invalid("range", float64(rng), "does not exist")
+	}
+	d.mu.Lock()
+	defer d.mu.Unlock()
+	d.outs[0] = powersplit.OutputDemand{Speed: out, Torque: outTorque}
+	err := d.solver.Solve(powersplit.Point{Range: rng, Input: engine, Outputs: d.outs}, &d.st)
+	if err != nil {
+		switch {
+		case errors.Is(err, powersplit.ErrInput):
+			return DrivePoint{}, errors.Join(ErrInvalid, err)
+		default:
+			return DrivePoint{}, errors.Join(ErrTransmission, err)
+		}
+	}
+	st := &d.st
+	var hydro float64
+	for _, e := range st.Elements {
+		if e.Kind == powersplit.LoopKind {
+			hydro += float64(e.Loss)
+		}
+	}
+	mech := float64(st.Loss) - hydro
+	if mech < 0 { // rounding only: every element's loss is >= 0
+		mech = 0
+	}
+	p := DrivePoint{
+		Range:            rng,
+		InputTorque:      st.InputTorque,
+		OutputSpeed:      out,
+		OutputTorque:     outTorque,
+		HydrostaticLoss:  units.Power(hydro),
+		MechanicalLoss:   units.Power(mech),
+		HydrostaticShare: st.HydraulicShare,
+	}
+	for _, m := range st.Flags {
+		p.Flags = append(p.Flags, m.Element+": "+m.Quantity+" above rating")
+	}
+	return p, nil
+}

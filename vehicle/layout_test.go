@@ -1,0 +1,119 @@
+package vehicle_test
+
+import (
+	"errors"
+	"math"
+	"testing"
+
+	"github.com/powersplit-dev/powersplit"
+	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/planetary"
+	"github.com/powersplit-dev/powersplit/units"
+	"github.com/powersplit-dev/powersplit/vehicle"
+)
+
+// demoLayout is a one-range output-coupled split built from invented, round
+// numbers (no real machine).
+func demoLayout(tb testing.TB) powersplit.Layout {
+	tb.Helper()
+	wil := hydrostat.Wilson{Slip: 1e-9, Viscous: 2e5, Friction: 0.01, ConstantPressure: units.Bar(1)}
+	mk := func(cc float64) hydrostat.Unit {
+		u, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(cc),
+			RatedPressure: units.Bar(420), PeakPressure: units.Bar(480), Loss: wil})
+		if err != nil {
+			tb.Fatal(err)
+		}
+		return u
+	}
+	lp, err := hydrostat.NewLoop(hydrostat.LoopSpec{Pump: mk(100), Motors: []hydrostat.Unit{mk(100)},
+		Oil: hydrostat.VG46, Temperature: units.Celsius(60), Charge: units.Bar(20), Relief: units.Bar(500)})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	set, err := planetary.FromRatio(-2.5, 0.98)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	l, err := powersplit.OutputCoupled(powersplit.OutputCoupledSpec{Set: set, Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8})
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return l
+}
+
+func TestFromLayout(t *testing.T) {
+	t.Parallel()
+	drive, err := vehicle.FromLayout(demoLayout(t))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if drive.Ranges() != 1 {
+		t.Fatalf("Ranges() = %d, want 1", drive.Ranges())
+	}
+	we := units.RPM(1800)
+	ok := 0
+	for _, outRPM := range []float64{300, 900, 1500, 2200} {
+		out := units.RPM(outRPM)
+		dp, err := drive.Operate(0, we, out, units.NewtonMetres(300))
+		if err != nil {
+			t.Logf("out %v: %v", out, err)
+			continue
+		}
+		ok++
+		pin := float64(dp.InputTorque) * float64(we)
+		pout := 300 * float64(out)
+		// Hand calculation: conservation, input = output + losses.
+		if r := math.Abs(pin-pout-float64(dp.HydrostaticLoss+dp.MechanicalLoss)) / pin; r > 1e-9 {
+			t.Errorf("out %v: power balance residual %g", out, r)
+		}
+		if dp.HydrostaticLoss < 0 || dp.MechanicalLoss < 0 {
+			t.Errorf("out %v: negative loss %+v", out, dp)
+		}
+		if e := dp.Efficiency(we); !(e > 0 && e <= 1) {
+			t.Errorf("out %v: efficiency %g", out, e)
+		}
+	}
+	if ok < 2 {
+		t.Fatalf("only %d of 4 points solved", ok)
+	}
+	if _, err := drive.Operate(3, we, units.RPM(100), 10); !errors.Is(err, vehicle.ErrInvalid) {
+		t.Errorf("Operate(range 3) error = %v, want ErrInvalid", err)
+	}
+}
+
+func TestLayoutVehicleCycle(t *testing.T) {
+	t.Parallel()
+	drive, err := vehicle.FromLayout(demoLayout(t))
+	if err != nil {
+		t.Fatal(err)
+	}
+	v, err := vehicle.New(vehicle.Spec{
+		Mass: units.Tonnes(9), Tyres: demoTyres(0.03), Transmission: drive,
+		FinalDrive: 20, Engine: demoEngine(t, true),
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	cycle := []vehicle.Segment{
+		{Name: "start", Kind: vehicle.Accelerate, Speed: units.KMH(6), Acceleration: 0.5},
+		{Name: "cultivate", Kind: vehicle.FieldPass, Speed: units.KMH(6), Distance: units.Metres(50),
+			Implement: &vehicle.Implement{Row: vehicle.FieldCultivatorSecondary, Width: 20, Texture: vehicle.Medium, Depth: units.Centimetres(10)}},
+	}
+	day, err := vehicle.Simulate(v, vehicle.LeastFuel{Samples: 12}, cycle, vehicle.Options{Step: 2e9})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, s := range day.Segments {
+		if s.Err != nil {
+			t.Errorf("segment %s: %v", s.Name, s.Err)
+			continue
+		}
+		if r := s.Audit.RelativeResidual(); r > 1e-6 {
+			t.Errorf("segment %s: audit residual %g", s.Name, r)
+		}
+		if s.Audit.Hydrostatic <= 0 {
+			t.Errorf("segment %s: hydrostatic loss %v, want > 0", s.Name, s.Audit.Hydrostatic)
+		}
+	}
+	t.Logf("%+v", day.Audit)
+}

@@ -1,0 +1,187 @@
+package vehicle
+
+import (
+	"errors"
+	"math"
+
+	"github.com/powersplit-dev/powersplit/internal/numeric"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// A Strategy chooses the engine speed and transmission range for a demand.
+type Strategy interface {
+	// Operate returns the operating point the strategy chooses for d, or an
+	// error wrapping ErrInfeasible (joined with the last limit met) when no
+	// point meets every limit.
+	Operate(v *Vehicle, d Demand) (Point, error)
+}
+
+// LeastFuel chooses, over every range and every engine speed from idle to
+// the top of the torque curve, the point of least fuel flow that meets
+// every limit. A demanded PTO speed fixes the engine speed; then only the
+// range is chosen.
+//
+// The search samples Samples speeds per range and refines the best sample
+// by Brent's minimiser to Tolerance, so it finds the least fuel to within
+// that tolerance when fuel flow is unimodal in engine speed near the
+// optimum, as it is for usual engine maps.
+type LeastFuel struct {
+	Samples   int     // speeds sampled per range; default 24
+	Tolerance float64 // relative speed tolerance of the refinement; default 1e-7
+}
+
+// Operate implements Strategy.
+func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
+	if err := d.Validate(); err != nil {
+		return Point{}, err
+	}
+	e := v.Engine()
+	if ws, err := ptoEngineSpeeds(v, d); err != nil {
+		return Point{}, err
+	} else if ws != nil {
+		return bestRange(v, d, ws)
+	}
+	n := s.Samples
+	if n < 2 {
+		n = 24
+	}
+	tol := s.Tolerance
+	if !(tol > 0) {
+		tol = 1e-7
+	}
+	lo, hi := float64(e.Idle()), e.hi
+	if d.Speed == 0 && d.Acceleration == 0 {
+		// Drive disengaged: only the engine speed matters.
+		p, err := refine(v, d, 0, e.speeds(lo, hi, n), tol)
+		if err != nil {
+			return Point{}, infeasible(err)
+		}
+		return p, nil
+	}
+	var (
+		best  Point
+		found bool
+		errs  []error
+	)
+	for r := range v.s.Transmission.Ranges() {
+		p, err := refine(v, d, r, e.speeds(lo, hi, n), tol)
+		if err != nil {
+			errs = append(errs, err)
+			continue
+		}
+		if !found || p.FuelRate < best.FuelRate {
+			best, found = p, true
+		}
+	}
+	if !found {
+		return Point{}, infeasible(errs...)
+	}
+	return best, nil
+}
+
+// refine samples the speeds in range r and refines the best sample.
+func refine(v *Vehicle, d Demand, r int, ws []float64, tol float64) (Point, error) {
+	bestI := -1
+	var (
+		best    Point
+		lastErr error
+	)
+	for i, w := range ws {
+		p, err := v.At(d, units.AngularVelocity(w), r)
+		if err != nil {
+			lastErr = err
+			continue
+		}
+		if bestI < 0 || p.FuelRate < best.FuelRate {
+			best, bestI = p, i
+		}
+	}
+	if bestI < 0 {
+		return Point{}, lastErr
+	}
+	a := ws[max(bestI-1, 0)]
+	b := ws[min(bestI+1, len(ws)-1)]
+	if b > a {
+		fuel := func(w float64) float64 {
+			p, err := v.At(d, units.AngularVelocity(w), r)
+			if err != nil {
+				return math.Inf(1)
+			}
+			return float64(p.FuelRate)
+		}
+		x, fx := numeric.Minimize(fuel, a, b, tol*b)
+		if fx < float64(best.FuelRate) {
+			if p, err := v.At(d, units.AngularVelocity(x), r); err == nil {
+				best = p
+			}
+		}
+	}
+	return best, nil
+}
+
+// FixedSpeed runs the engine at one speed (a hand throttle setting) and
+// chooses the range of least fuel. A demanded PTO speed overrides Speed.
+type FixedSpeed struct {
+	Speed units.AngularVelocity
+}
+
+// Operate implements Strategy.
+func (s FixedSpeed) Operate(v *Vehicle, d Demand) (Point, error) {
+	if err := d.Validate(); err != nil {
+		return Point{}, err
+	}
+	ws, err := ptoEngineSpeeds(v, d)
+	if err != nil {
+		return Point{}, err
+	}
+	if ws == nil {
+		ws = []units.AngularVelocity{s.Speed}
+	}
+	return bestRange(v, d, ws)
+}
+
+// bestRange returns the least-fuel range and engine speed among ws.
+func bestRange(v *Vehicle, d Demand, ws []units.AngularVelocity) (Point, error) {
+	ranges := v.s.Transmission.Ranges()
+	if d.Speed == 0 && d.Acceleration == 0 {
+		ranges = 1 // drive disengaged
+	}
+	var (
+		best  Point
+		found bool
+		errs  []error
+	)
+	for _, w := range ws {
+		for r := range ranges {
+			p, err := v.At(d, w, r)
+			if err != nil {
+				errs = append(errs, err)
+				continue
+			}
+			if !found || p.FuelRate < best.FuelRate {
+				best, found = p, true
+			}
+		}
+	}
+	if !found {
+		return Point{}, infeasible(errs...)
+	}
+	return best, nil
+}
+
+// ptoEngineSpeeds returns the engine speeds a demanded PTO speed allows,
+// nil when none is demanded.
+func ptoEngineSpeeds(v *Vehicle, d Demand) ([]units.AngularVelocity, error) {
+	if d.PTOSpeed == 0 {
+		return nil, nil
+	}
+	return v.s.PTO.EngineSpeeds(d.PTOSpeed)
+}
+
+// infeasible joins ErrInfeasible with the limits met (one per range).
+func infeasible(errs ...error) error {
+	if len(errs) == 1 && errors.Is(errs[0], ErrInfeasible) {
+		return errs[0]
+	}
+	return errors.Join(append([]error{ErrInfeasible}, errs...)...)
+}

@@ -1,0 +1,149 @@
+package vehicle
+
+import (
+	"math"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// A Transmission is the drive from the engine to the final drive, seen by
+// the vehicle: given a range, the engine speed and the demanded output speed
+// and torque, it returns the input torque it takes from the engine and its
+// losses. A power-split layout solved by the root package is adapted to it
+// by FromLayout; SplitEstimate is a quick stand-in.
+//
+// Implementations must conserve power: InputTorque·engine speed = output
+// power + HydrostaticLoss + MechanicalLoss, each loss >= 0. The vehicle
+// checks the balance to 1e-6 relative and reports ErrTransmission if it
+// does not close.
+type Transmission interface {
+	// Ranges returns the number of ranges (at least 1).
+	Ranges() int
+	// Operate runs range rng (0-based) with the engine at speed engine and
+	// the output at speed out (>= 0) carrying torque outTorque (>= 0, the
+	// torque the output delivers to the final drive).
+	Operate(rng int, engine, out units.AngularVelocity, outTorque units.Torque) (DrivePoint, error)
+}
+
+// A DrivePoint is a transmission's solved state at one operating point.
+type DrivePoint struct {
+	Range        int
+	InputTorque  units.Torque          // torque the engine delivers to the input
+	OutputSpeed  units.AngularVelocity // output shaft speed
+	OutputTorque units.Torque          // torque the output delivers
+	// HydrostaticLoss is the loss of the hydrostatic units and lines;
+	// MechanicalLoss the rest (gears, planetary sets, clutches, bearings).
+	HydrostaticLoss, MechanicalLoss units.Power
+	// HydrostaticShare is the signed share of the input power that flows
+	// through the hydrostat (negative: circulating power).
+	HydrostaticShare float64
+	// Flags name rated limits crossed that do not make the point
+	// infeasible (for example a rated continuous pressure exceeded below
+	// the relief setting). They are reported, never hidden.
+	Flags []string
+}
+
+// Efficiency returns the output power over the input power, or 0 when no
+// power flows in.
+func (d DrivePoint) Efficiency(engine units.AngularVelocity) float64 {
+	in := float64(units.PowerFromTorque(d.InputTorque, engine))
+	if in <= 0 {
+		return 0
+	}
+	return float64(units.PowerFromTorque(d.OutputTorque, d.OutputSpeed)) / in
+}
+
+// A SplitRange is one range of a SplitEstimate, in terms of the speed ratio
+// ν = output speed / engine speed.
+type SplitRange struct {
+	MinRatio, MaxRatio float64 // ν span of the range; MinRatio may be 0 (geared neutral)
+	// MechanicalPoint is the ν at which no power flows through the
+	// hydrostat (> 0).
+	MechanicalPoint float64
+}
+
+// A SplitEstimate is a quick estimate of a power-split transmission from
+// its mechanical points, for studies before a layout exists and for tests.
+// In a range with mechanical point ν_m the hydrostatic share is
+//
+//	h = 1 − ν/ν_m
+//
+// (1 at standstill, 0 at the mechanical point, negative beyond it), and
+// with hydrostatic and mechanical path efficiencies η_h and η_m the input
+// power is P_in = P_out·[1 + (1 − h)·(1/η_m − 1) + |h|·(1/η_h − 1)] + P_0:
+// the mechanical path carries (1 − h)·P_out (output plus circulating power
+// beyond the mechanical point) and the no-load loss P_0 is charged to it.
+//
+// Common practice (no published source): a first estimate of a power-split
+// drive from the share of power that passes the variator.
+type SplitEstimate struct {
+	Spans                 []SplitRange
+	MechanicalEfficiency  float64      // η_m in (0, 1]
+	HydrostaticEfficiency float64      // η_h in (0, 1]
+	NoLoadLoss            units.Power  // P_0 >= 0, drag while the input turns
+	MaxInputTorque        units.Torque // input torque rating; zero means none
+}
+
+// Validate reports whether the estimate is usable.
+func (s *SplitEstimate) Validate() error {
+	if len(s.Spans) == 0 {
+		return invalid("SplitEstimate.Spans", 0, "needs at least one range")
+	}
+	for _, r := range s.Spans {
+		if !finite(r.MinRatio, r.MaxRatio, r.MechanicalPoint) || r.MinRatio < 0 || r.MaxRatio <= r.MinRatio || r.MechanicalPoint <= 0 {
+			return invalid("SplitRange", r.MaxRatio, "needs 0 <= MinRatio < MaxRatio and MechanicalPoint > 0")
+		}
+	}
+	if err := fraction("SplitEstimate.MechanicalEfficiency", s.MechanicalEfficiency); err != nil {
+		return err
+	}
+	if err := fraction("SplitEstimate.HydrostaticEfficiency", s.HydrostaticEfficiency); err != nil {
+		return err
+	}
+	if err := nonNegative("SplitEstimate.NoLoadLoss", float64(s.NoLoadLoss)); err != nil {
+		return err
+	}
+	return nonNegative("SplitEstimate.MaxInputTorque", float64(s.MaxInputTorque))
+}
+
+// Ranges returns the number of ranges.
+func (s *SplitEstimate) Ranges() int { return len(s.Spans) }
+
+// Operate implements Transmission.
+func (s *SplitEstimate) Operate(rng int, engine, out units.AngularVelocity, outTorque units.Torque) (DrivePoint, error) {
+	if rng < 0 || rng >= len(s.Spans) {
+		return DrivePoint{}, invalid("range", float64(rng), "does not exist")
+	}
+	if err := positive("engine speed", float64(engine)); err != nil {
+		return DrivePoint{}, err
+	}
+	if err := nonNegative("output speed", float64(out)); err != nil {
+		return DrivePoint{}, err
+	}
+	if err := nonNegative("output torque", float64(outTorque)); err != nil {
+		return DrivePoint{}, err
+	}
+	r := s.Spans[rng]
+	nu := float64(out) / float64(engine)
+	if nu < r.MinRatio*(1-1e-12) {
+		return DrivePoint{}, &LimitError{Quantity: "speed ratio", Value: nu, Limit: r.MinRatio, Unit: "1", Err: ErrTransmission}
+	}
+	if nu > r.MaxRatio*(1+1e-12) {
+		return DrivePoint{}, &LimitError{Quantity: "speed ratio", Value: nu, Limit: r.MaxRatio, Unit: "1", Err: ErrTransmission}
+	}
+	h := 1 - nu/r.MechanicalPoint
+	ah := math.Abs(h)
+	pOut := float64(outTorque) * float64(out)
+	hydro := pOut * ah * (1/s.HydrostaticEfficiency - 1)
+	mech := pOut*(1-h)*(1/s.MechanicalEfficiency-1) + float64(s.NoLoadLoss)
+	in := units.Torque((pOut + hydro + mech) / float64(engine))
+	if s.MaxInputTorque > 0 && in > s.MaxInputTorque {
+		return DrivePoint{}, &LimitError{Quantity: "transmission input torque", Value: float64(in), Limit: float64(s.MaxInputTorque), Unit: "N·m", Err: ErrTransmission}
+	}
+	share := 0.0
+	if pIn := pOut + hydro + mech; pIn > 0 {
+		share = h * (pOut + hydro) / pIn
+	}
+	return DrivePoint{Range: rng, InputTorque: in, OutputSpeed: out, OutputTorque: outTorque,
+		HydrostaticLoss: units.Power(hydro), MechanicalLoss: units.Power(mech), HydrostaticShare: share}, nil
+}

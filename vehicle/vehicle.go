@@ -1,0 +1,333 @@
+package vehicle
+
+import (
+	"math"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// Spec describes a vehicle. Zero optional fields take the documented
+// defaults.
+type Spec struct {
+	// Mass is the operating mass (with ballast and mounted implement), > 0.
+	Mass units.Mass
+	// RotatingMass is the translating mass equivalent to the rotating
+	// wheels and driveline (see RotatingMass), >= 0; default 0.
+	RotatingMass units.Mass
+	// DragArea is the drag coefficient times the frontal area, c_d·A;
+	// default 0 (no aerodynamic drag).
+	DragArea units.Area
+	// AirDensity for the drag; default AirDensity.
+	AirDensity units.Density
+	// Tyres are the wheels on the ground. Required.
+	Tyres Traction
+	// Transmission is the drive from the engine to the final drive. Required.
+	Transmission Transmission
+	// FinalDrive is the ratio of transmission output speed to wheel-shaft
+	// speed (> 0); required.
+	FinalDrive float64
+	// FinalDriveEfficiency of the final drives in (0, 1]; default 0.97.
+	FinalDriveEfficiency float64
+	// Engine is the engine. Required.
+	Engine *Engine
+	// PTO is the power take-off driveline; zero means none.
+	PTO PTO
+	// Geometry of the centre of mass and hitch; nil skips the axle-load
+	// check (the Tyres adapter makes its own).
+	Geometry *Geometry
+}
+
+// DefaultFinalDriveEfficiency is used when Spec.FinalDriveEfficiency is zero.
+// Common practice (no published source): about 0.97 for a bevel set and
+// planetary final drives.
+const DefaultFinalDriveEfficiency = 0.97
+
+// A Vehicle is a built, immutable vehicle, safe for concurrent use when its
+// Tyres and Transmission are.
+type Vehicle struct {
+	s Spec
+}
+
+// New validates the spec and builds the vehicle.
+func New(s Spec) (*Vehicle, error) {
+	if err := positive("Spec.Mass", float64(s.Mass)); err != nil {
+		return nil, err
+	}
+	if err := nonNegative("Spec.RotatingMass", float64(s.RotatingMass)); err != nil {
+		return nil, err
+	}
+	if err := nonNegative("Spec.DragArea", float64(s.DragArea)); err != nil {
+		return nil, err
+	}
+	if s.AirDensity == 0 {
+		s.AirDensity = AirDensity
+	}
+	if err := positive("Spec.AirDensity", float64(s.AirDensity)); err != nil {
+		return nil, err
+	}
+	if s.Tyres == nil {
+		return nil, invalid("Spec.Tyres", math.NaN(), "is required")
+	}
+	if s.Transmission == nil || s.Transmission.Ranges() < 1 {
+		return nil, invalid("Spec.Transmission", math.NaN(), "is required and needs a range")
+	}
+	if err := positive("Spec.FinalDrive", s.FinalDrive); err != nil {
+		return nil, err
+	}
+	if s.FinalDriveEfficiency == 0 {
+		s.FinalDriveEfficiency = DefaultFinalDriveEfficiency
+	}
+	if err := fraction("Spec.FinalDriveEfficiency", s.FinalDriveEfficiency); err != nil {
+		return nil, err
+	}
+	if s.Engine == nil {
+		return nil, invalid("Spec.Engine", math.NaN(), "is required")
+	}
+	if err := s.PTO.validate(); err != nil {
+		return nil, err
+	}
+	if s.Geometry != nil {
+		g := *s.Geometry
+		if err := g.validate(); err != nil {
+			return nil, err
+		}
+		s.Geometry = &g
+	}
+	return &Vehicle{s: s}, nil
+}
+
+// Spec returns the vehicle's spec with defaults filled in.
+func (v *Vehicle) Spec() Spec { return v.s }
+
+// Engine returns the vehicle's engine.
+func (v *Vehicle) Engine() *Engine { return v.s.Engine }
+
+// A Demand is what the vehicle is asked to do at one instant.
+type Demand struct {
+	Speed        units.Speed        // travel speed, >= 0
+	Acceleration units.Acceleration // along the travel direction
+	Draft        units.Force        // implement draft at the hitch, >= 0
+	Trailer      Trailer            // towed trailer; zero value: none
+	Grade        float64            // rise over run; positive uphill
+	PTOPower     units.Power        // power at the PTO shaft, >= 0
+	// PTOSpeed is the PTO shaft speed demanded (PTO540, PTO1000); it fixes
+	// the engine speed. Zero: any PTO speed.
+	PTOSpeed units.AngularVelocity
+	// Ground is the tyres on the surface of this demand; nil means the
+	// vehicle's Spec.Tyres.
+	Ground Traction
+}
+
+// Validate reports whether the demand is usable.
+func (d Demand) Validate() error {
+	if err := nonNegative("Demand.Speed", float64(d.Speed)); err != nil {
+		return err
+	}
+	if err := isFinite("Demand.Acceleration", float64(d.Acceleration)); err != nil {
+		return err
+	}
+	if err := nonNegative("Demand.Draft", float64(d.Draft)); err != nil {
+		return err
+	}
+	if err := d.Trailer.Validate(); err != nil {
+		return err
+	}
+	if err := isFinite("Demand.Grade", d.Grade); err != nil {
+		return err
+	}
+	if math.Abs(d.Grade) > 1 {
+		return invalid("Demand.Grade", d.Grade, "must be within ±1 (45°)")
+	}
+	if err := nonNegative("Demand.PTOPower", float64(d.PTOPower)); err != nil {
+		return err
+	}
+	return nonNegative("Demand.PTOSpeed", float64(d.PTOSpeed))
+}
+
+// Flows are the power flows of an operating point, all in watts. They
+// balance in two stages:
+//
+//	Fuel   = EngineLoss + Engine
+//	Engine = Hydrostatic + Mechanical + PTOLoss + PTO + Slip + Rolling + Brake
+//	         + Drawbar + Trailer + Aero + Grade + Inertia
+//
+// Hydrostatic and Mechanical are the transmission's losses (Mechanical
+// includes the final drive), Slip and Rolling the tractor's tyre losses,
+// Brake the power the service brakes absorb when the load drives the
+// vehicle (downhill, slowing), Drawbar the implement's draft times speed,
+// Trailer the trailer's rolling loss, Grade and Inertia the rate of change
+// of potential and kinetic energy of tractor and trailer.
+type Flows struct {
+	Fuel, EngineLoss, Engine               units.Power
+	Hydrostatic, Mechanical, PTOLoss, PTO  units.Power
+	Slip, Rolling, Brake                   units.Power
+	Drawbar, Trailer, Aero, Grade, Inertia units.Power
+}
+
+// A Point is a solved operating point.
+type Point struct {
+	Demand       Demand
+	EngineSpeed  units.AngularVelocity
+	EngineTorque units.Torque
+	// LoadRatio is the engine torque over the full-load torque at its speed.
+	LoadRatio float64
+	FuelRate  units.MassFlow
+	// Range is the transmission range in use, -1 with the drive disengaged
+	// (standing still).
+	Range int
+	Drive DrivePoint
+	// Slip of the driven wheels.
+	Slip float64
+	// Pull is the net pull the tyres give (drawbar + trailer + grade + drag + inertia).
+	Pull  units.Force
+	Flows Flows
+	// Flags name rated limits crossed that do not make the point
+	// infeasible (tyre load above its rating, a transmission rating).
+	Flags []string
+}
+
+// FlagTyreOverload is the flag of a tyre carrying more than its rated load.
+const FlagTyreOverload = "tyre load above rating"
+
+// TransmissionEfficiency returns the transmission's output over input
+// power, 0 with the drive disengaged.
+func (p Point) TransmissionEfficiency() float64 {
+	if p.Range < 0 {
+		return 0
+	}
+	return p.Drive.Efficiency(p.EngineSpeed)
+}
+
+// At solves the demand with the engine at speed w and the transmission in
+// range rng. It is the primitive the strategies search over. Standing
+// still (zero speed and acceleration) disengages the drive and rng is
+// ignored.
+func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) {
+	if err := d.Validate(); err != nil {
+		return Point{}, err
+	}
+	if !finite(float64(w)) || w <= 0 {
+		return Point{}, invalid("engine speed", float64(w), "must be finite and positive")
+	}
+	s := &v.s
+	p := Point{Demand: d, EngineSpeed: w, Range: -1}
+	f := &p.Flows
+	vs := float64(d.Speed)
+
+	// PTO.
+	if d.PTOPower > 0 || d.PTOSpeed > 0 {
+		if len(s.PTO.Ratios) == 0 {
+			return Point{}, invalid("Demand.PTOPower", float64(d.PTOPower), "needs a vehicle with a PTO")
+		}
+		if s.PTO.MaxPower > 0 && d.PTOPower > s.PTO.MaxPower {
+			return Point{}, &LimitError{Quantity: "PTO power", Value: float64(d.PTOPower), Limit: float64(s.PTO.MaxPower), Unit: "W", Err: ErrPTOLimit}
+		}
+		if d.PTOSpeed > 0 && !s.PTO.matches(w, d.PTOSpeed) {
+			return Point{}, &LimitError{Quantity: "engine speed for the PTO speed", Value: float64(w),
+				Limit: s.PTO.Ratios[0] * float64(d.PTOSpeed), Unit: "rad/s", Err: ErrInfeasible}
+		}
+		f.PTO = d.PTOPower
+		f.PTOLoss = units.Power(float64(d.PTOPower) * (1/s.PTO.efficiency() - 1))
+	}
+	ptoTorque := units.TorqueFromPower(f.PTO+f.PTOLoss, w)
+
+	// Resistances.
+	m := float64(s.Mass)
+	mt := float64(d.Trailer.Mass)
+	a := float64(d.Acceleration)
+	f.Drawbar = units.PowerFromForce(d.Draft, d.Speed)
+	f.Trailer = units.PowerFromForce(d.Trailer.rolling(d.Grade), d.Speed)
+	aero := AeroDrag(s.DragArea, s.AirDensity, d.Speed)
+	f.Aero = units.PowerFromForce(aero, d.Speed)
+	f.Grade = units.Power((m + mt) * float64(units.Gravity) * sinGrade(d.Grade) * vs)
+	f.Inertia = units.Power((m + float64(s.RotatingMass) + mt + float64(d.Trailer.RotatingMass)) * a * vs)
+	pull := float64(d.Draft) + float64(d.Trailer.Pull(d.Grade, d.Acceleration)) + float64(aero) +
+		float64(GradeResistance(s.Mass, d.Grade)) + float64(InertiaResistance(s.Mass, s.RotatingMass, d.Acceleration))
+	p.Pull = units.Force(pull)
+
+	if s.Geometry != nil {
+		if _, _, err := v.AxleLoads(d); err != nil {
+			return Point{}, err
+		}
+	}
+
+	driveTorque := units.Torque(0)
+	if vs > 0 {
+		ground := s.Tyres
+		if d.Ground != nil {
+			ground = d.Ground
+		}
+		wh, err := ground.Drive(units.Force(math.Max(pull, 0)), d.Grade, d.Speed)
+		if err != nil {
+			return Point{}, err
+		}
+		if !finite(float64(wh.Power), float64(wh.Speed), wh.Slip, float64(wh.SlipLoss), float64(wh.RollingLoss)) || wh.Speed <= 0 {
+			return Point{}, invalid("Traction.Drive", math.NaN(), "returned a non-finite or non-positive state")
+		}
+		useful := math.Max(pull, 0) * vs
+		if bal := float64(wh.Power) - float64(wh.SlipLoss) - float64(wh.RollingLoss) - useful; math.Abs(bal) > 1e-6*math.Max(float64(wh.Power), 1) {
+			return Point{}, &LimitError{Quantity: "tyre power balance", Value: bal, Limit: 1e-6 * float64(wh.Power), Unit: "W", Err: ErrTraction}
+		}
+		p.Slip = wh.Slip
+		if wh.Overloaded {
+			p.Flags = append(p.Flags, FlagTyreOverload)
+		}
+		f.Rolling = wh.RollingLoss
+		// Close the tyre balance exactly on the slip loss (its rounding is
+		// within the check above).
+		f.Slip = units.Power(float64(wh.Power) - float64(wh.RollingLoss) - useful)
+		wheelPower := float64(wh.Power)
+		if pull < 0 {
+			wheelPower += pull * vs
+			if wheelPower < 0 {
+				f.Brake = units.Power(-wheelPower)
+				wheelPower = 0
+			}
+		}
+		rng = min(max(rng, 0), s.Transmission.Ranges()-1)
+		out := units.AngularVelocity(float64(wh.Speed) * s.FinalDrive)
+		outTorque := units.Torque(wheelPower / s.FinalDriveEfficiency / float64(out))
+		dp, err := s.Transmission.Operate(rng, w, out, outTorque)
+		if err != nil {
+			return Point{}, err
+		}
+		pin := float64(units.PowerFromTorque(dp.InputTorque, w))
+		pout := float64(units.PowerFromTorque(dp.OutputTorque, dp.OutputSpeed))
+		if !finite(pin, pout, float64(dp.HydrostaticLoss), float64(dp.MechanicalLoss)) ||
+			dp.HydrostaticLoss < 0 || dp.MechanicalLoss < 0 ||
+			math.Abs(pin-pout-float64(dp.HydrostaticLoss)-float64(dp.MechanicalLoss)) > 1e-6*math.Max(math.Abs(pin), 1) ||
+			math.Abs(pout-float64(outTorque)*float64(out)) > 1e-6*math.Max(pout, 1) {
+			return Point{}, &LimitError{Quantity: "transmission power balance", Value: pin - pout - float64(dp.HydrostaticLoss+dp.MechanicalLoss), Limit: 1e-6 * math.Abs(pin), Unit: "W", Err: ErrTransmission}
+		}
+		p.Range = rng
+		p.Drive = dp
+		p.Flags = append(p.Flags, dp.Flags...)
+		driveTorque = dp.InputTorque
+		f.Hydrostatic = dp.HydrostaticLoss
+		// The mechanical line takes the final drive and the transmission's
+		// own closure rounding, so the chain closes exactly.
+		f.Mechanical = units.Power(pin - float64(dp.HydrostaticLoss) - wheelPower)
+	}
+	// Standing still, the brakes hold any net pull and no work is done.
+
+	// Engine.
+	et := driveTorque + ptoTorque
+	if err := v.s.Engine.check(w, et); err != nil {
+		return Point{}, err
+	}
+	fuel, err := v.s.Engine.FuelRate(w, et)
+	if err != nil {
+		return Point{}, err
+	}
+	max, _ := v.s.Engine.MaxTorque(w)
+	p.EngineTorque = et
+	p.LoadRatio = float64(et) / float64(max)
+	p.FuelRate = fuel
+	f.Engine = units.Power(float64(driveTorque)*float64(w)) + f.PTO + f.PTOLoss
+	f.Fuel = units.Power(float64(fuel) * float64(v.s.Engine.fuel.HeatingValue))
+	f.EngineLoss = f.Fuel - f.Engine
+	if f.EngineLoss < 0 {
+		return Point{}, &LimitError{Quantity: "engine efficiency", Value: float64(f.Engine) / float64(f.Fuel), Limit: 1, Unit: "1", Err: ErrInvalid}
+	}
+	return p, nil
+}
