@@ -96,22 +96,48 @@ func (e *KinematicsError) Unwrap() error { return ErrKinematics }
 // LimitError reports a limit crossed at an operating point: the quantity,
 // its value and the limit, in the SI unit named by Unit.
 type LimitError struct {
-	Element  string // element (or range) where the limit was crossed
-	Quantity string // "pressure", "pump speed", "setting", "output speed", ...
-	Value    float64
+	Element  string  // element (or range) where the limit was crossed
+	Quantity string  // "pressure", "pump speed", "setting", "output speed", ...
+	Value    float64 // always finite: a setting no schedule could find carries the last setting tried (see Quantity)
 	Limit    float64
 	Unit     string // unit of Value and Limit: "Pa", "rad/s" (this package), "bar", "rpm" (from hydrostat), "" (setting)
 	Err      error  // ErrInfeasible or ErrUnreachable
 	Cause    error  // the error from the hydrostat package, if any
 }
 
+// Error returns "<sentinel>: <element>: <quantity> <value> beyond limit
+// <limit>", and " (<cause>)" with a cause. It appends into one buffer:
+// maps format the reason of every infeasible cell.
 func (e *LimitError) Error() string {
-	s := fmt.Sprintf("%v: %s: %s %s beyond limit %s", e.Err, e.Element, e.Quantity,
-		fmtNum(e.Value, e.Unit), fmtNum(e.Limit, e.Unit))
-	if e.Cause != nil {
-		s += " (" + e.Cause.Error() + ")"
+	b := make([]byte, 0, 160)
+	if e.Err != nil {
+		b = append(b, e.Err.Error()...)
+	} else {
+		b = append(b, "<nil>"...)
 	}
-	return s
+	b = append(b, ": "...)
+	b = append(b, e.Element...)
+	b = append(b, ": "...)
+	b = append(b, e.Quantity...)
+	b = append(b, ' ')
+	b = appendNum(b, e.Value, e.Unit)
+	b = append(b, " beyond limit "...)
+	b = appendNum(b, e.Limit, e.Unit)
+	if e.Cause != nil {
+		b = append(b, " ("...)
+		b = append(b, e.Cause.Error()...)
+		b = append(b, ')')
+	}
+	return string(b)
+}
+
+func appendNum(b []byte, v float64, unit string) []byte {
+	b = strconv.AppendFloat(b, v, 'g', 6, 64)
+	if unit != "" {
+		b = append(b, ' ')
+		b = append(b, unit...)
+	}
+	return b
 }
 
 // Unwrap returns the sentinel (ErrInfeasible, and ErrUnreachable when the

@@ -4,9 +4,6 @@ import (
 	"errors"
 	"math"
 
-	"gonum.org/v1/gonum/blas"
-	"gonum.org/v1/gonum/blas/blas64"
-	"gonum.org/v1/gonum/lapack/lapack64"
 	"gonum.org/v1/gonum/mat"
 
 	"github.com/powersplit-dev/powersplit/hydrostat"
@@ -39,6 +36,22 @@ type Solver struct {
 	alpha    float64
 	lastStep float64
 	scratch  State
+
+	// The factored torque systems (see factor.go) and the work space of
+	// their solve.
+	unit0     []int // per loop: index of its pump among all units
+	nU        int   // units over all loops
+	lt0, ld   []float64
+	x, y, dx  []float64
+	last      *sysEntry // the factored system of the last solve; nil after a full LU
+	small, sg []float64
+	work      []float64
+	iwork     []int
+	cache     []sysEntry
+	nextEntry int
+	dpPrev    []float64 // loop pressures of the system last solved
+	full      bool      // solve by full LU (after converging on the factored systems)
+	noFactor  bool      // tests: always solve by full LU
 }
 
 // Settings of the iteration.
@@ -79,15 +92,20 @@ func NewSolver(l Layout) *Solver {
 		m := len(ly.elems[e].shafts) - 1
 		s.loopA[j].Motors = make([]hydrostat.Point, m)
 		s.loopB[j].Motors = make([]hydrostat.Point, m)
+		s.loopA[j].Settings = make([]float64, m+1)
+		s.loopB[j].Settings = make([]float64, m+1)
 		s.mw[j] = make([]units.AngularVelocity, m)
 	}
+	s.dpPrev = make([]float64, len(ly.loops))
+	s.initCache()
 	return s
 }
 
 // Layout returns the solver's layout.
 func (s *Solver) Layout() Layout { return Layout{l: s.l} }
 
-func bad(v float64) bool { return math.IsNaN(v) || math.IsInf(v, 0) }
+// bad reports whether v is NaN or infinite (v − v is NaN for both).
+func bad(v float64) bool { return v-v != 0 }
 
 func (s *Solver) check(p *Point) error {
 	l := s.l
@@ -214,6 +232,7 @@ func (s *Solver) Solve(p Point, st *State) error {
 func (s *Solver) iterate(r *rangeDef, p *Point, update bool, it0 int) (bool, int, error) {
 	l := s.l
 	it := it0
+	s.full = false
 	s.alpha, s.lastStep = 1, math.Inf(1)
 	for j := range s.over {
 		s.over[j] = 0
@@ -222,17 +241,12 @@ func (s *Solver) iterate(r *rangeDef, p *Point, update bool, it0 int) (bool, int
 		if err := s.evalLoops(false); err != nil {
 			return false, it, err
 		}
-		if err := s.assemble(r, p); err != nil {
+		// The torque system, factored once per range and directions
+		// (factor.go): no allocation.
+		x, err := s.solveSystem(r, p)
+		if err != nil {
 			return false, it, err
 		}
-		// LU with partial pivoting (LAPACK dgetrf/dgetrs through gonum),
-		// in place in the solver's storage: no allocation.
-		am := s.a.RawMatrix()
-		if !lapack64.Getrf(am, s.piv) {
-			return false, it, ErrSingular
-		}
-		x := s.rhs.RawVector().Data
-		lapack64.Getrs(blas.NoTrans, am, blas64.General{Rows: s.n, Cols: 1, Stride: 1, Data: x}, s.piv)
 		for i := range s.t {
 			s.t[i] = x[i]
 		}
@@ -241,14 +255,15 @@ func (s *Solver) iterate(r *rangeDef, p *Point, update bool, it0 int) (bool, int
 				return false, it, ErrSingular
 			}
 		}
+		copy(s.dpPrev, s.dp)
 		delta, step := 0.0, 0.0
 		for j, e := range l.loops {
 			nd := x[l.nPorts+j] * pScale
 			d := math.Abs(nd - s.dp[j])
 			if d > dpTolAbs+dpTolRel*math.Abs(nd) {
-				delta = math.Max(delta, d)
+				delta = maxAbs(delta, d)
 			}
-			step = math.Max(step, d/(math.Abs(nd)+pScale))
+			step = maxAbs(step, d/(math.Abs(nd)+pScale))
 			// Beyond the relief setting the point is infeasible whatever
 			// the iteration would do there: hold the iterate at 1.5 times
 			// the relief pressure, and stop when it keeps asking for more.
@@ -276,11 +291,86 @@ func (s *Solver) iterate(r *rangeDef, p *Point, update bool, it0 int) (bool, int
 			changed = s.directions(it - it0)
 		}
 		if !changed && delta == 0 && it > it0 {
-			return true, it, nil
+			if s.full {
+				return true, it, nil
+			}
+			// Converged on the factored reference systems: make the last
+			// solution exact to rounding (exact), and go on by full LU
+			// from here if that changes a loss direction.
+			s.full = true
+			s.exact(r, p)
+			if !update || !s.directions(it-it0) {
+				return true, it, nil
+			}
 		}
 	}
 	return false, it, nil
 }
+
+// exact makes the final port torques of the converged iteration exact to
+// rounding when they came from a factored reference system (factor.go).
+// Those are accurate relative to the largest torques of the point; exact
+// refines the last solution until the correction is negligible for every
+// torque, and solves by full LU where a torque is too small for that, so
+// that every torque is accurate relative to its own size, as a direct LU
+// solution is: a point where almost no power flows (a unit at a setting of
+// 1e-16) still has its powers right and its loss directions decided on
+// true torques. The pressures keep the iteration's values. After a full LU
+// solve there is nothing to do.
+func (s *Solver) exact(r *rangeDef, p *Point) {
+	if s.last == nil {
+		return
+	}
+	for range maxRefine {
+		if s.refine(s.last, p) {
+			break
+		}
+	}
+	x := s.x[:len(s.t)]
+	// The refinement leaves an error of about eps² times the largest torque
+	// (the rounding of the large rows' residuals): a torque below 1e-12 of
+	// the largest, non-zero, is solved again by full LU, which keeps the
+	// rows of such a near-idle part of the network apart.
+	var tmax float64
+	for _, v := range x {
+		tmax = maxAbs(tmax, v)
+	}
+	for _, v := range x {
+		if v != 0 && math.Abs(v) < 1e-12*tmax {
+			s.exactLU(r, p)
+			return
+		}
+	}
+	copy(s.t, x)
+}
+
+// exactLU solves the last system (at the pressures it was linearised at)
+// by full LU for the final port torques.
+func (s *Solver) exactLU(r *rangeDef, p *Point) {
+	copy(s.dx[:len(s.dp)], s.dp)
+	copy(s.dp, s.dpPrev)
+	defer copy(s.dp, s.dx[:len(s.dp)])
+	if s.assemble(r, p) != nil {
+		return
+	}
+	am := s.a.RawMatrix().Data
+	if !luFactor(am, s.n, s.piv, s.iwork) {
+		return
+	}
+	x := s.rhs.RawVector().Data
+	luSolve(am, s.n, s.piv, x)
+	for _, v := range x {
+		if bad(v) {
+			return
+		}
+	}
+	copy(s.t, x[:len(s.t)])
+}
+
+// maxRefine is the most refinement steps exact takes; each shrinks the
+// error by about eps·κ, so a few reach the rounding of the smallest torque
+// even when it is 1e-30 of the largest.
+const maxRefine = 4
 
 // bracket finds the pressure of the single loop as a zero of
 // F(Δp) = Δp' − Δp, Δp' being the pressure the torque system gives with the
@@ -299,16 +389,14 @@ func (s *Solver) bracket(r *rangeDef, p *Point) (bool, error) {
 			ferr = err
 			return math.NaN()
 		}
-		if err := s.assemble(r, p); err != nil {
+		x, err := s.solveSystem(r, p)
+		if errors.Is(err, ErrSingular) {
+			return math.NaN()
+		}
+		if err != nil {
 			ferr = err
 			return math.NaN()
 		}
-		am := s.a.RawMatrix()
-		if !lapack64.Getrf(am, s.piv) {
-			return math.NaN()
-		}
-		x := s.rhs.RawVector().Data
-		lapack64.Getrs(blas.NoTrans, am, blas64.General{Rows: s.n, Cols: 1, Stride: 1, Data: x}, s.piv)
 		return x[l.nPorts]*pScale - dp
 	}
 	const n = 32 // scan points per side
@@ -419,8 +507,7 @@ func (s *Solver) enumerate(r *rangeDef, p *Point) (ok, locked bool, it int, err 
 		}
 		conv, it, err := s.iterate(r, p, false, 0)
 		total += it
-		var le *LimitError
-		if errors.As(err, &le) {
+		if isOwnLimit(err) {
 			continue // no pressure within the relief balances this combination
 		}
 		if err != nil {
@@ -428,7 +515,7 @@ func (s *Solver) enumerate(r *rangeDef, p *Point) (ok, locked bool, it int, err 
 		}
 		if !conv && len(l.loops) == 1 {
 			found, err := s.bracket(r, p)
-			if errors.As(err, &le) {
+			if isOwnLimit(err) {
 				continue
 			}
 			if err != nil {
@@ -437,7 +524,7 @@ func (s *Solver) enumerate(r *rangeDef, p *Point) (ok, locked bool, it int, err 
 			if found {
 				conv, it, err = s.iterate(r, p, false, total)
 				total = it
-				if err != nil && !errors.As(err, &le) {
+				if err != nil && !isOwnLimit(err) {
 					return false, false, total, err
 				}
 			}
@@ -506,7 +593,7 @@ func (s *Solver) evalLoops(final bool) error {
 		wp := units.AngularVelocity(s.w[el.shafts[0]])
 		err := el.loop.At(wp, s.mw[j], units.Pressure(s.dp[j]), &s.loopA[j])
 		if err != nil && (final || !isLimit(err)) {
-			return loopErr(el.name, err)
+			return loopErr(el.name, err, &s.loopA[j])
 		}
 		if final {
 			continue
@@ -516,32 +603,52 @@ func (s *Solver) evalLoops(final bool) error {
 			h = -h // step away from zero, where the loss terms change sign
 		}
 		if err := el.loop.At(wp, s.mw[j], units.Pressure(s.dp[j]+h), &s.loopB[j]); err != nil && !isLimit(err) {
-			return loopErr(el.name, err)
+			return loopErr(el.name, err, &s.loopB[j])
 		}
 	}
 	return nil
 }
 
+// isLimit reports whether err is a *hydrostat.LimitError (errors.AsType:
+// no allocation, unlike errors.As with a target that escapes).
 func isLimit(err error) bool {
-	var le *hydrostat.LimitError
-	return errors.As(err, &le)
+	_, ok := errors.AsType[*hydrostat.LimitError](err)
+	return ok
 }
 
-func dStep(dp float64) float64 { return 1e-4 * math.Max(math.Abs(dp), 1e5) }
+// isOwnLimit reports whether err is a *LimitError of this package.
+func isOwnLimit(err error) bool {
+	_, ok := errors.AsType[*LimitError](err)
+	return ok
+}
+
+func dStep(dp float64) float64 { return 1e-4 * maxAbs(1e5, dp) }
 
 // loopErr turns an error of the hydrostat package into this package's.
-func loopErr(name string, err error) error {
-	var le *hydrostat.LimitError
-	if errors.As(err, &le) {
+// When the schedule found no settings (hydrostat.ErrNoSolution, or
+// ErrSettingLimit without a value) the *LimitError carries the largest
+// finite setting magnitude the schedule left in st (0 if none is finite),
+// never NaN, and its Quantity says that no setting was found.
+func loopErr(name string, err error, st *hydrostat.LoopState) error {
+	if le, ok := errors.AsType[*hydrostat.LimitError](err); ok {
 		sent := ErrInfeasible
 		if errors.Is(err, hydrostat.ErrSettingLimit) {
 			sent = ErrUnreachable
 		}
-		return &LimitError{Element: name, Quantity: le.Quantity, Value: le.Value, Limit: le.Limit,
+		return &LimitError{Element: name, Quantity: le.Quantity, Value: finiteOr(le.Value, 0), Limit: finiteOr(le.Limit, 0),
 			Unit: le.Unit, Err: sent, Cause: err}
 	}
 	if errors.Is(err, hydrostat.ErrSettingLimit) || errors.Is(err, hydrostat.ErrNoSolution) {
-		return &LimitError{Element: name, Quantity: "setting", Value: math.NaN(), Limit: 1, Err: ErrUnreachable, Cause: err}
+		v := 0.0
+		if st != nil {
+			for _, x := range st.Settings {
+				if !bad(x) {
+					v = math.Max(v, math.Abs(x))
+				}
+			}
+		}
+		return &LimitError{Element: name, Quantity: "setting (none found; value is the last setting tried)", Value: v, Limit: 1,
+			Err: ErrUnreachable, Cause: err}
 	}
 	return &LimitError{Element: name, Quantity: "loop", Value: 0, Limit: 0, Err: ErrInfeasible, Cause: err}
 }
@@ -555,93 +662,145 @@ func unitTorque(st *hydrostat.LoopState, k int) float64 {
 }
 
 // assemble fills the torque system of range r with the current directions
-// and loop linearisation.
+// and loop linearisation into the solver's dense matrix and right-hand side.
 func (s *Solver) assemble(r *rangeDef, p *Point) error {
+	return s.assembleInto(r, p, s.a.RawMatrix().Data, s.rhs.RawVector().Data, nil)
+}
+
+// assembleInto fills a (n × n, row-major) and rhs with the torque system of
+// range r with the current directions. With e == nil the loop rows carry
+// the current loop linearisation; otherwise they carry e's reference
+// linearisation (rhs of the loop rows zero), and the rows of the loop units
+// and of the given torques are recorded in e.
+func (s *Solver) assembleInto(r *rangeDef, p *Point, a, rhs []float64, e *sysEntry) error {
 	l := s.l
-	a := s.a
-	a.Zero()
-	for i := 0; i < s.n; i++ {
-		s.rhs.SetVec(i, 0)
-	}
+	n := s.n
+	clear(a[:n*n])
+	clear(rhs[:n])
+	set := func(i, j int, v float64) { a[i*n+j] = v }
 	// Shaft balances: Σ port torques on a shaft = 0.
-	for _, e := range l.elems {
-		for k, sh := range e.shafts {
-			a.Set(sh, e.port0+k, a.At(sh, e.port0+k)+1)
+	for i := range l.elems {
+		el := &l.elems[i]
+		for k, sh := range el.shafts {
+			a[sh*n+el.port0+k]++
 		}
+	}
+	if e != nil {
+		e.nExt = 0
 	}
 	row := len(l.shafts)
 	for i := range l.elems {
-		e := &l.elems[i]
-		p0 := e.port0
-		switch e.kind {
+		el := &l.elems[i]
+		p0 := el.port0
+		switch el.kind {
 		case GearKind:
 			// r·Tb + k·Ta = 0
-			a.Set(row, p0+1, e.ratio)
-			a.Set(row, p0, s.gearK[e.index])
+			set(row, p0+1, el.ratio)
+			set(row, p0, s.gearK[el.index])
 			row++
 		case PlanetaryKind:
 			var kr, kc float64
-			switch s.pflow[e.index] {
+			switch s.pflow[el.index] {
 			case 0:
-				kr, kc = e.set.TorqueFactors(planetary.SunDrives)
+				kr, kc = el.set.TorqueFactors(planetary.SunDrives)
 			case 1:
-				kr, kc = e.set.TorqueFactors(planetary.RingDrives)
+				kr, kc = el.set.TorqueFactors(planetary.RingDrives)
 			default:
-				kr = -e.set.FixedCarrierRatio()
+				kr = -el.set.FixedCarrierRatio()
 				kc = -(1 + kr)
 			}
-			a.Set(row, p0+1, 1)
-			a.Set(row, p0, -kr)
-			a.Set(row+1, p0+2, 1)
-			a.Set(row+1, p0, -kc)
+			set(row, p0+1, 1)
+			set(row, p0, -kr)
+			set(row+1, p0+2, 1)
+			set(row+1, p0, -kc)
 			row += 2
 		case ClutchKind:
 			if r.engaged[i] {
-				a.Set(row, p0, 1)
-				a.Set(row, p0+1, 1)
+				set(row, p0, 1)
+				set(row, p0+1, 1)
 				row++
 			} else {
-				a.Set(row, p0, 1)
-				a.Set(row+1, p0+1, 1)
+				set(row, p0, 1)
+				set(row+1, p0+1, 1)
 				row += 2
 			}
 		case BrakeKind:
 			if !r.engaged[i] {
-				a.Set(row, p0, 1)
+				set(row, p0, 1)
 				row++
 			}
 		case OutputKind:
-			a.Set(row, p0, 1)
-			s.rhs.SetVec(row, float64(p.Outputs[e.index].Torque))
+			set(row, p0, 1)
+			rhs[row] = float64(p.Outputs[el.index].Torque)
+			if e != nil {
+				e.extRow[e.nExt], e.extSrc[e.nExt] = row, el.index
+				e.nExt++
+			}
 			row++
 		case PTOKind:
-			a.Set(row, p0, 1)
+			set(row, p0, 1)
 			if p.PTO != nil {
-				s.rhs.SetVec(row, float64(p.PTO[e.index]))
+				rhs[row] = float64(p.PTO[el.index])
+			}
+			if e != nil {
+				e.extRow[e.nExt], e.extSrc[e.nExt] = row, -el.index-1
+				e.nExt++
 			}
 			row++
 		case LoopKind:
-			j := e.index
-			A, B := &s.loopA[j], &s.loopB[j]
-			h := dStep(s.dp[j])
-			if s.dp[j] < 0 {
-				h = -h
+			j := el.index
+			if e == nil {
+				if err := s.linearise(j); err != nil {
+					return err
+				}
 			}
-			for k := range e.shafts {
-				t0 := unitTorque(A, k)
-				d := (unitTorque(B, k) - t0) / h
-				if bad(t0) || bad(d) {
-					return &LimitError{Element: e.name, Quantity: "unit torque", Value: t0, Err: ErrInfeasible}
+			for k := range el.shafts {
+				u := s.unit0[j] + k
+				set(row, p0+k, 1)
+				if e != nil {
+					set(row, l.nPorts+j, -e.dref[u]*pScale)
+					e.loopRow[u] = row
+					row++
+					continue
 				}
 				// T - d·dp = t0 - d·dp0, with dp in units of pScale.
-				a.Set(row, p0+k, 1)
-				a.Set(row, l.nPorts+j, -d*pScale)
-				s.rhs.SetVec(row, t0-d*s.dp[j])
+				set(row, l.nPorts+j, -s.ld[u]*pScale)
+				rhs[row] = s.lt0[u] - s.ld[u]*s.dp[j]
 				row++
 			}
 		}
 	}
 	return nil
+}
+
+// linearise computes the torque t0 of every unit of loop j at the loop's
+// pressure and its derivative d = ∂T/∂Δp from the two loop states.
+func (s *Solver) linearise(j int) error {
+	el := &s.l.elems[s.l.loops[j]]
+	A, B := &s.loopA[j], &s.loopB[j]
+	h := dStep(s.dp[j])
+	if s.dp[j] < 0 {
+		h = -h
+	}
+	for k := range el.shafts {
+		t0 := unitTorque(A, k)
+		d := (unitTorque(B, k) - t0) / h
+		if bad(t0) || bad(d) {
+			return &LimitError{Element: el.name, Quantity: "unit torque", Value: finiteOr(t0, 0), Err: ErrInfeasible}
+		}
+		u := s.unit0[j] + k
+		s.lt0[u], s.ld[u] = t0, d
+	}
+	return nil
+}
+
+// finiteOr returns v, or alt when v is NaN or infinite: a public error
+// value never carries NaN.
+func finiteOr(v, alt float64) float64 {
+	if bad(v) {
+		return alt
+	}
+	return v
 }
 
 // directions updates gear and planetary loss directions from the current
@@ -680,7 +839,7 @@ func (s *Solver) directions(it int) bool {
 		e := &l.elems[pi]
 		ws, wr, wc := s.w[e.shafts[0]], s.w[e.shafts[1]], s.w[e.shafts[2]]
 		rel := ws - wc
-		wmax := math.Max(math.Abs(ws), math.Max(math.Abs(wr), math.Abs(wc)))
+		wmax := maxAbs(maxAbs(math.Abs(ws), wr), wc)
 		roll := s.t[e.port0] * rel
 		scale := math.Abs(s.t[e.port0])*wmax + 1e-300
 		f := s.pflow[e.index]

@@ -191,9 +191,9 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 			pa, pb := float64(es.Ports[0].Power), float64(es.Ports[1].Power)
 			switch k := s.gearK[e.index]; {
 			case k < 1:
-				es.Loss = units.Power(math.Max(0, (1-e.eta)*pa))
+				es.Loss = units.Power(pos((1 - e.eta) * pa))
 			case k > 1:
-				es.Loss = units.Power(math.Max(0, (1-e.eta)*pb))
+				es.Loss = units.Power(pos((1 - e.eta) * pb))
 			}
 		case PlanetaryKind:
 			roll := float64(es.Ports[0].Torque) * (s.w[e.shafts[0]] - s.w[e.shafts[2]])
@@ -201,10 +201,10 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 			switch s.pflow[e.index] {
 			case 0:
 				es.Flow = planetary.SunDrives
-				es.Loss = units.Power(math.Max(0, roll*(1-eta)))
+				es.Loss = units.Power(pos(roll * (1 - eta)))
 			case 1:
 				es.Flow = planetary.RingDrives
-				es.Loss = units.Power(math.Max(0, roll*(1-1/eta)))
+				es.Loss = units.Power(pos(roll * (1 - 1/eta)))
 			}
 		case LoopKind:
 			j := e.index
@@ -220,7 +220,7 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 			lr.Ratio = s.w[e.shafts[1]] / s.w[e.shafts[0]]
 			if torques != 0 {
 				lr.HydraulicPower = src.Pump.Hydraulic
-				es.Loss = units.Power(math.Max(0, float64(src.Loss)))
+				es.Loss = units.Power(pos(float64(src.Loss)))
 				st.HydrostatLoss += es.Loss
 			} else {
 				lr.HydraulicPower = 0
@@ -267,10 +267,30 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 func (st *State) powerScale() float64 {
 	var t, w float64
 	for i := range st.ports {
-		t = math.Max(t, math.Abs(float64(st.ports[i].Torque)))
-		w = math.Max(w, math.Abs(float64(st.ports[i].Speed)))
+		t = maxAbs(t, float64(st.ports[i].Torque))
+		w = maxAbs(w, float64(st.ports[i].Speed))
 	}
 	return t * w
+}
+
+// pos returns max(0, v) as math.Max does (+0 for −0, NaN for NaN) without
+// its call.
+func pos(v float64) float64 {
+	if v <= 0 {
+		return 0
+	}
+	return v
+}
+
+// maxAbs returns max(m, |v|) for m ≥ 0, NaN once either is NaN.
+func maxAbs(m, v float64) float64 {
+	if v < 0 {
+		v = -v
+	}
+	if v > m || v != v {
+		return v
+	}
+	return m
 }
 
 // size makes st's slices fit layout l, allocating only when they do not.

@@ -227,7 +227,12 @@ func (l Loop) at(sched Schedule, pumpSpeed units.AngularVelocity, motorSpeeds []
 		}
 	}
 	st.size(n)
-	first := sched.Settings(l, pumpSpeed, motorSpeeds, dp, st.Settings)
+	var first error
+	if sq, ok := sched.(Sequential); ok {
+		first = sq.settings(&l, pumpSpeed, motorSpeeds, dp, st.Settings)
+	} else {
+		first = sched.Settings(l, pumpSpeed, motorSpeeds, dp, st.Settings)
+	}
 	if first != nil && !isLimit(first) {
 		return first
 	}
@@ -242,8 +247,8 @@ func (l Loop) at(sched Schedule, pumpSpeed units.AngularVelocity, motorSpeeds []
 
 // isLimit reports whether err is a *LimitError.
 func isLimit(err error) bool {
-	var le *LimitError
-	return errors.As(err, &le)
+	_, ok := errors.AsType[*LimitError](err)
+	return ok
 }
 
 // fill evaluates every unit at st.Settings and sums the loop.

@@ -94,11 +94,13 @@ func (m Wilson) Validate() error {
 
 // Losses implements LossModel.
 func (m Wilson) Losses(c Condition) (Losses, error) {
-	x := math.Abs(c.Setting)
-	dmax := float64(c.MaxDisplacement)
-	dp := math.Abs(float64(c.Pressure))
-	w := math.Abs(float64(c.Speed))
-	mu, rho, beta := float64(c.Viscosity), float64(c.Density), float64(c.BulkModulus)
+	return m.losses(c.Setting, float64(c.MaxDisplacement), float64(c.Speed), float64(c.Pressure),
+		float64(c.Viscosity), float64(c.Density), float64(c.BulkModulus))
+}
+
+// losses is Losses on plain numbers (Unit.eval calls it directly).
+func (m *Wilson) losses(x, dmax, w, dp, mu, rho, beta float64) (Losses, error) {
+	x, dp, w = math.Abs(x), math.Abs(dp), math.Abs(w)
 	if !(dmax > 0) || !(mu > 0) || !finite(dmax) || !finite(mu) || !finite(dp) || !finite(w) || !(x <= 1) {
 		return Losses{}, fmt.Errorf("%w: Wilson needs D_max > 0, viscosity > 0 and finite values", ErrInvalid)
 	}

@@ -63,13 +63,19 @@ func checkArgs(l *Loop, motorSpeeds []units.AngularVelocity, settings []float64)
 
 // Settings implements Schedule.
 func (s Sequential) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, settings []float64) error {
-	if err := checkArgs(&l, motorSpeeds, settings); err != nil {
+	return s.settings(&l, pumpSpeed, motorSpeeds, dp, settings)
+}
+
+// settings is Settings on a *Loop: Loop.At calls it directly (no interface
+// call, no copy of the loop).
+func (s Sequential) settings(l *Loop, pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, settings []float64) error {
+	if err := checkArgs(l, motorSpeeds, settings); err != nil {
 		return err
 	}
 	if err := validMin(s.MinMotorSetting); err != nil {
 		return err
 	}
-	xp, sm, err := sequential(&l, minSetting(s.MinMotorSetting), float64(pumpSpeed), motorSpeeds, float64(dp))
+	xp, sm, err := sequential(l, minSetting(s.MinMotorSetting), float64(pumpSpeed), motorSpeeds, float64(dp))
 	settings[0] = xp
 	for i := 1; i < len(settings); i++ {
 		settings[i] = sm
@@ -81,6 +87,10 @@ func (s Sequential) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeed
 // ok is false when no pump setting in [-1, 1] balances; xp is then the
 // nearer end.
 func pumpFor(l *Loop, sm, wp float64, wms []units.AngularVelocity, dp float64) (xp float64, ok bool, err error) {
+	if lin, lok := l.linear(wp, wms, dp); lok {
+		xp, ok = lin.pumpFor(sm)
+		return xp, ok, nil
+	}
 	var ferr error
 	g := func(x float64) float64 {
 		r, e := l.residual(x, nil, sm, true, wp, wms, dp)
@@ -115,8 +125,19 @@ func pumpFor(l *Loop, sm, wp float64, wms []units.AngularVelocity, dp float64) (
 
 // sequential returns the pump setting and the common motor setting of the
 // sequential schedule.
+//
+// Where every unit's leakage is affine in its setting (Wilson, lossless)
+// the settings are placed in closed form (see linLoop); otherwise by
+// Brent's method on the flow balance. Both give the zero of the same
+// residual, to rounding.
 func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float64) (xp, sm float64, err error) {
-	xp, ok, err := pumpFor(l, 1, wp, wms, dp)
+	lin, linear := l.linear(wp, wms, dp)
+	var ok bool
+	if linear {
+		xp, ok = lin.pumpFor(1)
+	} else {
+		xp, ok, err = pumpFor(l, 1, wp, wms, dp)
+	}
 	if err != nil || ok {
 		return xp, 1, err
 	}
@@ -130,11 +151,19 @@ func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float
 		}
 		return r
 	}
-	ha, hb := h(smin), h(1)
+	var ha, hb float64
+	if linear {
+		ha, hb = lin.residual(xp, smin), lin.residual(xp, 1)
+	} else {
+		ha, hb = h(smin), h(1)
+	}
 	if ferr != nil {
 		return 0, 0, ferr
 	}
 	if (ha > 0) != (hb > 0) || ha == 0 || hb == 0 {
+		if linear {
+			return xp, lin.motorFor(xp, smin, ha, hb), nil
+		}
 		s, e := numeric.Brent(h, smin, 1, 0, 200)
 		if ferr != nil {
 			return 0, 0, ferr

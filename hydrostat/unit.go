@@ -82,7 +82,9 @@ func GeometricDisplacement(k Kind, pistons int, piston, pitch units.Length, angl
 	return units.Displacement(perRev / (2 * math.Pi)), nil
 }
 
-func finite(x float64) bool { return !math.IsNaN(x) && !math.IsInf(x, 0) }
+// finite reports whether x is neither NaN nor infinite (x − x is NaN for
+// both).
+func finite(x float64) bool { return x-x == 0 }
 
 // NewUnit validates s and returns the unit.
 func NewUnit(s UnitSpec) (Unit, error) {
@@ -316,7 +318,17 @@ func (u *Unit) eval(x, w, dp float64, f fluid, p *Point) error {
 		}
 	}
 	var leak, tau float64
-	if u.spec.Loss != nil {
+	if wm, ok := u.spec.Loss.(Wilson); ok {
+		// The common model without the interface call and the Condition.
+		ls, err := wm.losses(x, u.dmax, w, math.Abs(dp), f.mu, f.rho, f.beta)
+		if err != nil {
+			return err
+		}
+		leak, tau = float64(ls.Leakage), float64(ls.Torque)
+		if !(leak >= 0) || !(tau >= 0) || math.IsInf(leak, 0) || math.IsInf(tau, 0) {
+			return fmt.Errorf("%w: leakage %v, loss torque %v", ErrModel, leak, tau)
+		}
+	} else if u.spec.Loss != nil {
 		ls, err := u.spec.Loss.Losses(Condition{
 			Setting: x, MaxDisplacement: units.Displacement(u.dmax), Speed: units.AngularVelocity(w),
 			Pressure: units.Pressure(math.Abs(dp)), Viscosity: units.DynamicViscosity(f.mu),

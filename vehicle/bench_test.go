@@ -47,3 +47,69 @@ func BenchmarkLayoutAt(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkDemoDay simulates the package's demo working day (field pass,
+// headland turn, road transfer, stationary PTO work) with the least-fuel
+// strategy: the demo duty cycle of the performance benchmarks.
+func BenchmarkDemoDay(b *testing.B) {
+	v := demoVehicle(b, true)
+	cycle := demoCycle()
+	b.ReportAllocs()
+	for b.Loop() {
+		day, err := vehicle.Simulate(v, vehicle.LeastFuel{}, cycle, vehicle.Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		if err := day.Err(); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkDemoDayLayout simulates the demo day with the transmission
+// solved point by point by the root package's solver (an output-coupled
+// split through LayoutDrive) with the least-fuel strategy, which solves
+// the split at many engine speeds per step.
+func BenchmarkDemoDayLayout(b *testing.B) {
+	drive, err := vehicle.FromLayout(demoLayout(b))
+	if err != nil {
+		b.Fatal(err)
+	}
+	v, err := vehicle.New(vehicle.Spec{Mass: units.Tonnes(9), Tyres: demoTyres(0.03), Transmission: drive,
+		FinalDrive: 20, Engine: demoEngine(b, true),
+		PTO: vehicle.PTO{Ratios: []float64{3.5, 1.9}, MaxPower: units.Kilowatts(130)}})
+	if err != nil {
+		b.Fatal(err)
+	}
+	cycle := demoCycle()
+	b.ReportAllocs()
+	for b.Loop() {
+		day, err := vehicle.Simulate(v, vehicle.LeastFuel{}, cycle, vehicle.Options{})
+		if err != nil {
+			b.Fatal(err)
+		}
+		if err := day.Err(); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// TestLayoutDriveAllocatesNothing: the adapter reuses its State, so an
+// operating point solved through it allocates nothing once the drive has
+// solved one point (points with flagged ratings excepted: their flags are
+// new strings).
+func TestLayoutDriveAllocatesNothing(t *testing.T) {
+	drive, err := vehicle.FromLayout(demoLayout(t))
+	if err != nil {
+		t.Fatal(err)
+	}
+	op := func() {
+		if _, err := drive.Operate(0, units.RPM(1800), units.RPM(900), units.NewtonMetres(400)); err != nil {
+			t.Fatal(err)
+		}
+	}
+	op()
+	if n := testing.AllocsPerRun(50, op); n != 0 {
+		t.Errorf("LayoutDrive.Operate allocates %v times per point", n)
+	}
+}

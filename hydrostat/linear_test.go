@@ -1,0 +1,152 @@
+package hydrostat
+
+import (
+	"errors"
+	"math"
+	"testing"
+
+	"pgregory.net/rapid"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// opaque hides a Wilson model behind a type the closed-form settings do not
+// know, so the schedules take the bracketed search.
+type opaque struct{ w Wilson }
+
+func (o opaque) Losses(c Condition) (Losses, error) { return o.w.Losses(c) }
+
+// TestPropertyClosedFormSettings: where the leakage is affine in the
+// setting, the schedules place the settings in closed form; the result is
+// the same, to rounding, as Brent's method on the flow balance, and so is
+// the outcome (error or not, and which error).
+func TestPropertyClosedFormSettings(t *testing.T) {
+	t.Parallel()
+	rapid.Check(t, func(t *rapid.T) {
+		w := Wilson{
+			Slip:            rapid.Float64Range(0, 5e-9).Draw(t, "slip"),
+			Viscous:         rapid.Float64Range(0, 4e5).Draw(t, "viscous"),
+			Friction:        rapid.Float64Range(0, 0.03).Draw(t, "friction"),
+			Compressibility: rapid.Bool().Draw(t, "compressibility"),
+			DeadVolume:      rapid.Float64Range(0, 1).Draw(t, "dead volume"),
+			LeakageSetting:  rapid.Float64Range(0, 1).Draw(t, "leakage setting share"),
+		}
+		if rapid.Bool().Draw(t, "lossless") {
+			w = Wilson{}
+		}
+		motors := rapid.IntRange(1, 2).Draw(t, "motors")
+		mk := func(lm LossModel, cc float64) Unit {
+			u, err := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(cc), Loss: lm})
+			if err != nil {
+				t.Fatal(err)
+			}
+			return u
+		}
+		pcc := rapid.Float64Range(20, 200).Draw(t, "pump cc")
+		mcc := rapid.Float64Range(20, 200).Draw(t, "motor cc")
+		var sched Schedule = Sequential{MinMotorSetting: rapid.Float64Range(0, 0.6).Draw(t, "min motor setting")}
+		if rapid.Bool().Draw(t, "min loss") {
+			sched = MinLoss{}
+		}
+		build := func(lm LossModel) Loop {
+			ms := make([]Unit, motors)
+			for i := range ms {
+				ms[i] = mk(lm, mcc)
+			}
+			l, err := NewLoop(LoopSpec{Pump: mk(lm, pcc), Motors: ms, Oil: VG46, Temperature: units.Celsius(50),
+				Charge: units.Bar(20), Relief: units.Bar(500), Schedule: sched})
+			if err != nil {
+				t.Fatal(err)
+			}
+			return l
+		}
+		closed, search := build(w), build(opaque{w})
+		if w == (Wilson{}) {
+			search = build(opaque{Wilson{}})
+		}
+		wp := units.RPM(rapid.Float64Range(-2500, 2500).Draw(t, "pump rpm"))
+		if rapid.Bool().Draw(t, "pump stopped") {
+			wp = 0
+		}
+		wm := make([]units.AngularVelocity, motors)
+		for i := range wm {
+			wm[i] = units.RPM(rapid.Float64Range(-4000, 4000).Draw(t, "motor rpm"))
+		}
+		dp := units.Bar(rapid.Float64Range(-450, 450).Draw(t, "Δp bar"))
+		xa, xb := make([]float64, motors+1), make([]float64, motors+1)
+		ea := closed.Settings(wp, wm, dp, xa)
+		eb := search.Settings(wp, wm, dp, xb)
+		if flatTie(ea, eb) || flatTie(eb, ea) {
+			return
+		}
+		// Where the balance is flat to rounding (a pump and motors whose
+		// flows cancel, a pressure of 1e-12 bar) rounding decides between
+		// settings that all balance the flows: accept both when each
+		// balances to 1e-12 of the flows that pass.
+		scale := math.Abs(float64(wp)) * float64(closed.spec.Pump.dmax)
+		for i, w := range wm {
+			scale += math.Abs(float64(w)) * closed.spec.Motors[i].dmax
+		}
+		ra, _ := search.Balance(wp, wm, dp, xa)
+		rb, _ := search.Balance(wp, wm, dp, xb)
+		flat := math.Abs(float64(ra)) <= 1e-12*scale && math.Abs(float64(rb)) <= 1e-12*scale
+		if ((ea == nil) != (eb == nil) || (ea != nil && !sameKind(ea, eb))) && !flat {
+			t.Fatalf("closed form: %v; search: %v", ea, eb)
+		}
+		if ea != nil && !errors.Is(ea, ErrSettingLimit) {
+			return
+		}
+		if math.Abs(xa[0]) == 1 && xa[0] == -xb[0] {
+			// The pump at opposite ends: only right when the ends tie (a
+			// pump that all but stands still, its flow lost in the
+			// leakage), so that rounding chooses the end.
+			xb[0] = -xb[0]
+			ra, _ := search.Balance(wp, wm, dp, xb)
+			xb[0] = -xb[0]
+			rb, _ := search.Balance(wp, wm, dp, xb)
+			if math.Abs(float64(ra-rb)) > 1e-9*math.Max(math.Abs(float64(ra)), math.Abs(float64(rb))) {
+				t.Fatalf("pump setting: closed form %v, search %v, and the ends do not tie (%g, %g)", xa[0], xb[0], ra, rb)
+			}
+			return
+		}
+		tol := 1e-9
+		if _, ok := sched.(MinLoss); ok {
+			tol = 1e-6 // the minimum-loss setting is itself found to 1e-9 by a search
+		}
+		for i := range xa {
+			if math.Abs(xa[i]-xb[i]) > tol && !flat {
+				t.Fatalf("setting %d: closed form %.17g, search %.17g", i, xa[i], xb[i])
+			}
+		}
+		// The needed setting is extrapolated through the two ends of the
+		// motor range, 1/(r(1) − r(smin)) amplifying the rounding of r: a
+		// looser tolerance for that extrapolated value, compared only where
+		// it means something (within ten times the full setting; beyond, the
+		// motors hardly respond to their setting and the value is only a
+		// direction).
+		var la, lb *LimitError
+		if errors.As(ea, &la) && errors.As(eb, &lb) && math.Abs(lb.Value) < 10 &&
+			math.Abs(la.Value-lb.Value) > 1e-6*math.Max(1, math.Abs(lb.Value)) {
+			t.Fatalf("needed setting: closed form %g, search %g", la.Value, lb.Value)
+		}
+	})
+}
+
+// flatTie reports the degenerate case of motors whose flow hardly depends
+// on their setting (all but stopped): one way finds the balance flat to
+// rounding (ErrNoSolution), the other extrapolates a needed setting through
+// two residuals equal to rounding, far beyond any setting. Both say that no
+// setting serves.
+func flatTie(a, b error) bool {
+	var le *LimitError
+	return errors.Is(a, ErrNoSolution) && errors.As(b, &le) && errors.Is(b, ErrSettingLimit) && math.Abs(le.Value) > 1e6
+}
+
+func sameKind(a, b error) bool {
+	for _, s := range []error{ErrSettingLimit, ErrNoSolution, ErrInvalid, ErrModel, ErrPressureLimit, ErrSpeedLimit} {
+		if errors.Is(a, s) != errors.Is(b, s) {
+			return false
+		}
+	}
+	return true
+}

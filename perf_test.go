@@ -1,0 +1,197 @@
+package powersplit
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"testing"
+
+	"gonum.org/v1/gonum/blas/blas64"
+	"gonum.org/v1/gonum/lapack"
+	"gonum.org/v1/gonum/lapack/lapack64"
+	"pgregory.net/rapid"
+
+	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/internal/testutil"
+)
+
+// TestPropertyFactoredMatchesFull: the solver with its factored reference
+// systems (factor.go) and the solver that factors every system in full
+// reach the same state, up to rounding, and the same outcome.
+func TestPropertyFactoredMatchesFull(t *testing.T) {
+	t.Parallel()
+	both := 0
+	defer func() {
+		t.Logf("%d points solved both ways", both)
+	}()
+	rapid.Check(t, func(t *rapid.T) {
+		c := rapid.Custom(genCase).Draw(t, "layout and point")
+		fast, full := NewSolver(c.l), NewSolver(c.l)
+		full.noFactor = true
+		var a, b State
+		ea, eb := fast.Solve(c.p, &a), full.Solve(c.p, &b)
+		if (ea == nil) != (eb == nil) {
+			t.Fatalf("%s: factored: %v; full: %v", c.kind, ea, eb)
+		}
+		if ea != nil {
+			return
+		}
+		both++
+		scale := math.Abs(float64(b.InputPower)) + math.Abs(float64(b.OutputPower+b.PTOPower)) + 1e-3*b.powerScale()
+		for _, q := range []struct {
+			name string
+			x, y float64
+		}{
+			{"input power", float64(a.InputPower), float64(b.InputPower)},
+			{"output power", float64(a.OutputPower), float64(b.OutputPower)},
+			{"loss", float64(a.Loss), float64(b.Loss)},
+		} {
+			if !testutil.Close(q.x, q.y, 1e-9, 1e-9*scale) {
+				t.Fatalf("%s: %s factored %g, full %g", c.kind, q.name, q.x, q.y)
+			}
+		}
+		for j := range a.Loops {
+			pa, pb := float64(a.Loops[j].Pressure), float64(b.Loops[j].Pressure)
+			if !testutil.Close(pa, pb, 1e-9, 1e-3) {
+				t.Fatalf("%s: loop %d pressure factored %g, full %g", c.kind, j, pa, pb)
+			}
+		}
+		for i := range a.ports {
+			ta, tb := float64(a.ports[i].Torque), float64(b.ports[i].Torque)
+			if !testutil.Close(ta, tb, 1e-9, 1e-9*math.Sqrt(b.powerScale())) {
+				t.Fatalf("%s: port %d torque factored %g, full %g", c.kind, i, ta, tb)
+			}
+		}
+	})
+}
+
+// TestLoopErrFinite: a loop error without a value (the schedule found no
+// settings) never puts NaN into the public *LimitError.
+func TestLoopErrFinite(t *testing.T) {
+	for _, c := range []struct {
+		name     string
+		settings []float64
+		want     float64
+	}{
+		{"no state", nil, 0},
+		{"all NaN", []float64{math.NaN(), math.NaN()}, 0},
+		{"last finite", []float64{math.NaN(), -0.4}, 0.4},
+		{"largest", []float64{0.3, 1.2}, 1.2},
+	} {
+		var st *hydrostat.LoopState
+		if c.settings != nil {
+			st = &hydrostat.LoopState{Settings: c.settings}
+		}
+		err := loopErr("hydrostat", fmt.Errorf("%w: test", hydrostat.ErrNoSolution), st)
+		var le *LimitError
+		if !errors.As(err, &le) {
+			t.Fatalf("%s: %v is no *LimitError", c.name, err)
+		}
+		if bad(le.Value) || bad(le.Limit) || le.Value != c.want {
+			t.Errorf("%s: value %v limit %v, want %v", c.name, le.Value, le.Limit, c.want)
+		}
+		if !errors.Is(err, ErrUnreachable) || !errors.Is(err, hydrostat.ErrNoSolution) {
+			t.Errorf("%s: %v should match ErrUnreachable and hydrostat.ErrNoSolution", c.name, err)
+		}
+	}
+}
+
+// TestFirstSolveAllocatesNothing: with the loop states' settings allocated
+// by NewSolver, the very first solve of a fresh solver, into a State already
+// sized for the layout, allocates nothing.
+func TestFirstSolveAllocatesNothing(t *testing.T) {
+	pts := benchPoints(t)
+	l := benchLayout(t, true)
+	const runs = 5
+	solvers := make([]*Solver, runs+1) // AllocsPerRun runs once more to warm up
+	states := make([]State, runs+1)
+	for i := range solvers {
+		solvers[i] = NewSolver(l)
+		states[i].size(l.l)
+	}
+	i := 0
+	a := testing.AllocsPerRun(runs, func() {
+		_ = solvers[i].Solve(pts[i%len(pts)], &states[i])
+		i++
+	})
+	if a != 0 {
+		t.Errorf("a fresh solver's first solve allocates %v times", a)
+	}
+}
+
+// TestLimitErrorText: the allocation-lean LimitError.Error gives the text
+// of the format it replaces.
+func TestLimitErrorText(t *testing.T) {
+	for _, e := range []*LimitError{
+		{Element: "hydrostat", Quantity: "relief pressure", Value: 5.3e7, Limit: 5e7, Unit: "Pa", Err: ErrInfeasible},
+		{Element: "range 1", Quantity: "output speed", Value: 123.456789, Limit: 100, Unit: "rad/s", Err: ErrInfeasible},
+		{Element: "hydrostat", Quantity: "motor setting", Value: -0.125, Limit: 0.2, Err: ErrUnreachable,
+			Cause: &hydrostat.LimitError{Quantity: "motor setting", Value: -0.125, Limit: 0.2, Err: hydrostat.ErrSettingLimit}},
+		{Element: "x", Quantity: "y", Value: math.Inf(1), Limit: 0},
+	} {
+		want := fmt.Sprintf("%v: %s: %s %s beyond limit %s", e.Err, e.Element, e.Quantity, fmtNum(e.Value, e.Unit), fmtNum(e.Limit, e.Unit))
+		if e.Cause != nil {
+			want += " (" + e.Cause.Error() + ")"
+		}
+		if got := e.Error(); got != want {
+			t.Errorf("got %q, want %q", got, want)
+		}
+	}
+}
+
+// TestLUBackwardStable: luFactor and luSolve solve random sparse systems
+// with a normwise backward error at rounding level, and find the same
+// systems singular as LAPACK's dgetrf (through gonum) where neither is
+// near a tie. (The pivots may differ from dgetrf's in near-ties: gonum's
+// dgetrf factors recursively, in another order of operations.)
+func TestLUBackwardStable(t *testing.T) {
+	rapid.Check(t, func(t *rapid.T) {
+		n := rapid.IntRange(1, 24).Draw(t, "n")
+		a := make([]float64, n*n)
+		for i := range n {
+			for j := range n {
+				if i == j || rapid.IntRange(0, 9).Draw(t, "sparsity") < 2 {
+					a[i*n+j] = rapid.Float64Range(-3, 3).Draw(t, "entry")
+				}
+			}
+		}
+		b := make([]float64, n)
+		for i := range b {
+			b[i] = rapid.Float64Range(-10, 10).Draw(t, "rhs")
+		}
+		mine := append([]float64(nil), a...)
+		piv, nz := make([]int, n), make([]int, n)
+		if !luFactor(mine, n, piv, nz) {
+			ref := append([]float64(nil), a...)
+			if lapack64.Getrf(blas64.General{Rows: n, Cols: n, Stride: n, Data: ref}, make([]int, n)) {
+				// dgetrf found no exact zero pivot: the matrix must at
+				// least be numerically singular for luFactor to stop.
+				cond := lapack64.Gecon(lapack.MaxColumnSum, blas64.General{Rows: n, Cols: n, Stride: n, Data: ref},
+					lapack64.Lange(lapack.MaxColumnSum, blas64.General{Rows: n, Cols: n, Stride: n, Data: a}, make([]float64, n)),
+					make([]float64, 4*n), make([]int, n))
+				if cond > 1e-12 {
+					t.Fatalf("luFactor finds singular a matrix with reciprocal condition %g", cond)
+				}
+			}
+			return
+		}
+		// The solution has a normwise backward error at rounding level.
+		x := append([]float64(nil), b...)
+		luSolve(mine, n, piv, x)
+		var an, xn, bn, rn float64
+		for i := range n {
+			r, row := -b[i], 0.0
+			for j := range n {
+				r += a[i*n+j] * x[j]
+				row += math.Abs(a[i*n+j])
+			}
+			an, xn, bn, rn = math.Max(an, row), math.Max(xn, math.Abs(x[i])), math.Max(bn, math.Abs(b[i])), math.Max(rn, math.Abs(r))
+		}
+		if bad(rn) || bad(xn) {
+			return // overflow on a numerically singular draw
+		}
+		if rn > 1e-13*float64(n)*(an*xn+bn) {
+			t.Fatalf("residual %g against ‖A‖‖x‖ + ‖b‖ = %g", rn, an*xn+bn)
+		}
+	})
+}
