@@ -205,8 +205,11 @@ func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
 	if err := checkAxis("Sweep speed", float64(spec.From), float64(spec.To), spec.Steps); err != nil {
 		return Sweep{}, err
 	}
-	if bad(float64(spec.Torque)) || bad(float64(spec.Power)) {
-		return Sweep{}, &InputError{Field: "Torque/Power", Value: math.NaN(), Reason: "not finite"}
+	if bad(float64(spec.Torque)) {
+		return Sweep{}, &InputError{Field: "Torque", Value: float64(spec.Torque), Reason: "not finite"}
+	}
+	if bad(float64(spec.Power)) {
+		return Sweep{}, &InputError{Field: "Power", Value: float64(spec.Power), Reason: "not finite"}
 	}
 	vs := axis(float64(spec.From), float64(spec.To), spec.Steps)
 	p := l.point(spec.Input, spec.PTO)

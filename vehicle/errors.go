@@ -54,12 +54,15 @@ func (e *LimitError) Unwrap() error { return e.Err }
 // An InputError records an invalid input field.
 type InputError struct {
 	Field  string  // the field or argument, e.g. "Spec.Mass"
-	Value  float64 // the offending value (NaN when the value is not a number)
+	Value  float64 // the offending value; NaN when the field is missing or not a number
 	Reason string  // what a valid value is, e.g. "must be positive"
 }
 
-// Error returns the message.
+// Error returns the message. A missing field (Value NaN) is named without a value.
 func (e *InputError) Error() string {
+	if e.Value != e.Value {
+		return fmt.Sprintf("%v: %s %s", ErrInvalid, e.Field, e.Reason)
+	}
 	return fmt.Sprintf("%v: %s = %.6g %s", ErrInvalid, e.Field, e.Value, e.Reason)
 }
 
