@@ -1,0 +1,324 @@
+// Command efficiency studies the demo transmission: its efficiency and the
+// share of power through the hydrostat against travel speed in each range,
+// and an efficiency map over travel speed × pull with the working day's
+// operating points on it.
+//
+//	go run ./examples/efficiency [-out folder] [-design file.json]
+//
+// It writes into the output folder: efficiency_ranges.svg/.png,
+// hydraulic_share.svg/.png, efficiency_map.svg/.png, sweep_<range>.csv and
+// efficiency_map.csv.
+package main
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"os"
+	"path/filepath"
+	"strings"
+
+	"github.com/powersplit-dev/powersplit"
+	"github.com/powersplit-dev/powersplit/examples/internal/demo"
+	"github.com/powersplit-dev/powersplit/examples/internal/figures"
+	"github.com/powersplit-dev/powersplit/units"
+	"github.com/powersplit-dev/powersplit/vehicle"
+)
+
+func main() {
+	demo.Main("efficiency", "efficiency of the demo transmission by range, and its efficiency map", run)
+}
+
+// study is the engine speed of the study.
+var study = units.RPM(1600)
+
+func run(r *demo.Run) error {
+	sc := r.Scenario
+	tr := sc.Transmission
+	layout, err := tr.Layout()
+	if err != nil {
+		return fmt.Errorf("transmission: %w", err)
+	}
+	eng, err := sc.BuildEngine()
+	if err != nil {
+		return err
+	}
+	full, err := eng.MaxTorque(study)
+	if err != nil {
+		return err
+	}
+	conv := newConverter(sc)
+	power := units.Power(0.75 * float64(units.PowerFromTorque(full, study)))
+
+	r.Printf("Transmission: %s (%s), %d ranges; engine held at %v (full-load torque %s there).\n",
+		tr.Name, tr.Kind, layout.Ranges(), study, demo.F(float64(full), 0, "N·m"))
+	r.Printf("Travel speed is the theoretical speed of the rear wheels (no slip) through the final drive\n")
+	r.Printf("%.3g:1; pull is the tractive force at the rear tyres' rolling radius, %v.\n", sc.Tractor.FinalDrive, sc.Tractor.Rear.Tyre.RollingRadius)
+
+	// 1. Sweeps per range at a constant engine power.
+	r.Heading(fmt.Sprintf("Efficiency and hydraulic share by range, at %s engine power", demo.F(power.Kilowatts(), 0, "kW")))
+	solver := powersplit.NewSolver(layout)
+	tb := demo.NewTable("range", "speed span", "best efficiency", "at speed", "mechanical point", "hydraulic share", "feasible points")
+	var effSeries, shareSeries []figures.Series
+	var csvs []string
+	for rg := range layout.Ranges() {
+		name := layout.RangeName(rg)
+		lo, hi, err := solver.Interval(powersplit.Point{Range: rg, Input: study, Outputs: []powersplit.OutputDemand{{Speed: 1}}})
+		if err != nil {
+			tb.Row(name, "unreachable: "+err.Error(), "", "", "", "", "")
+			continue
+		}
+		sw, err := layout.Sweep(powersplit.SweepSpec{Range: rg, Input: study, From: lo, To: hi, Steps: 80,
+			Power: power, Progress: demo.Progress("sweep " + name)})
+		if err != nil {
+			return fmt.Errorf("sweep of range %s: %w", name, err)
+		}
+		path := filepath.Join(r.Out, "sweep_"+fileName(name)+".csv")
+		if err := writeFile(path, sw.WriteCSV); err != nil {
+			return err
+		}
+		xs := make([]float64, len(sw.Cells))
+		eff := make([]float64, len(sw.Cells))
+		share := make([]float64, len(sw.Cells))
+		best, bestAt, ok := 0.0, math.NaN(), 0
+		mech, mechShare := math.NaN(), math.Inf(1)
+		shLo, shHi := math.Inf(1), math.Inf(-1)
+		for i, c := range sw.Cells {
+			xs[i] = conv.kmh(sw.Speeds[i])
+			eff[i], share[i] = math.NaN(), math.NaN()
+			if !c.OK {
+				continue
+			}
+			ok++
+			eff[i], share[i] = 100*c.Efficiency, 100*c.HydraulicShare
+			if c.Efficiency > best {
+				best, bestAt = c.Efficiency, xs[i]
+			}
+			if math.Abs(c.HydraulicShare) < mechShare {
+				mechShare, mech = math.Abs(c.HydraulicShare), xs[i]
+			}
+			shLo, shHi = math.Min(shLo, c.HydraulicShare), math.Max(shHi, c.HydraulicShare)
+		}
+		mechText := "none in span"
+		if mechShare < 0.03 {
+			mechText = demo.F(mech, 1, "km/h")
+		}
+		if ok == 0 {
+			tb.Row(name, demo.F(conv.kmh(lo), 1, "")+" to "+demo.F(conv.kmh(hi), 1, "km/h"), "no feasible point", "", "", "", "0 of 80")
+			continue
+		}
+		tb.Row(name, demo.F(conv.kmh(lo), 1, "")+" to "+demo.F(conv.kmh(hi), 1, "km/h"), demo.Pct(best, 1), demo.F(bestAt, 1, "km/h"),
+			mechText, demo.Pct(shLo, 0)+" to "+demo.Pct(shHi, 0), fmt.Sprintf("%d of %d", ok, len(sw.Cells)))
+		effSeries = append(effSeries, figures.Series{Name: name, X: xs, Y: eff})
+		shareSeries = append(shareSeries, figures.Series{Name: name, X: xs, Y: share})
+		csvs = append(csvs, path)
+	}
+	tb.Write(r.W)
+	r.Wrote(csvs...)
+	r.Note("A negative hydraulic share means power circulates back through the hydrostat. Points that " +
+		"cross a limit (relief pressure, unit speed) at this power are left out of the figures. " +
+		"Where the range gears follow the summing shaft, as in this layout, every range runs the same " +
+		"span of summing-shaft speeds, scaled by its gear: the ranges repeat the same efficiency and share " +
+		"at speeds in the ratio of their gears.")
+	if len(effSeries) == 0 {
+		return fmt.Errorf("no range has a feasible point at %v", study)
+	}
+	files, err := figures.Lines(r.Out, "efficiency_ranges", figures.Axes{
+		Title: fmt.Sprintf("%s: efficiency by range (engine %v, %.0f kW)", sc.Name, study, power.Kilowatts()),
+		X:     "travel speed (km/h, no slip)", Y: "transmission efficiency (%)",
+		YMin: 75, YMax: 97, LegendBottom: true}, effSeries...)
+	if err != nil {
+		return err
+	}
+	r.Wrote(files...)
+	files, err = figures.Lines(r.Out, "hydraulic_share", figures.Axes{
+		Title: fmt.Sprintf("%s: power through the hydrostat (engine %v)", sc.Name, study),
+		X:     "travel speed (km/h, no slip)", Y: "hydraulic power share (%, negative: circulating)",
+		LegendBottom: true}, shareSeries...)
+	if err != nil {
+		return err
+	}
+	r.Wrote(files...)
+
+	// 2. The efficiency map.
+	r.Heading(fmt.Sprintf("Efficiency map over travel speed × pull (engine %v, best range per point)", study))
+	maxKMH := 45.0
+	maxPull := 0.75 * float64(units.ForceFromMass(sc.Tractor.Mass, units.Gravity))
+	m, err := layout.Map(powersplit.MapSpec{Range: powersplit.Auto, Input: study,
+		SpeedFrom: conv.output(0.5), SpeedTo: conv.output(maxKMH), SpeedSteps: 90,
+		TorqueFrom: conv.torque(units.Kilonewtons(1)), TorqueTo: conv.torque(units.Force(maxPull)), TorqueSteps: 60,
+		Progress: demo.Progress("efficiency map")})
+	if err != nil {
+		return fmt.Errorf("map: %w", err)
+	}
+	path := filepath.Join(r.Out, "efficiency_map.csv")
+	if err := writeFile(path, m.WriteCSV); err != nil {
+		return err
+	}
+	g := figures.Grid{X: make([]float64, len(m.Speeds)), Y: make([]float64, len(m.Torques))}
+	for j, w := range m.Speeds {
+		g.X[j] = conv.kmh(w)
+	}
+	for i, t := range m.Torques {
+		g.Y[i] = conv.pull(t).Kilonewtons()
+	}
+	feasible, engineLimited := 0, 0
+	g.Z = make([][]float64, len(m.Torques))
+	g.Feasible = make([][]bool, len(m.Torques))
+	env := figures.Series{Name: "feasibility envelope (transmission and engine)"}
+	for i := range m.Torques {
+		g.Z[i] = make([]float64, len(m.Speeds))
+		g.Feasible[i] = make([]bool, len(m.Speeds))
+		for j := range m.Speeds {
+			c := m.Cells[i][j]
+			if c.OK && c.InputTorque > full {
+				engineLimited++
+				continue
+			}
+			if c.OK {
+				g.Z[i][j], g.Feasible[i][j] = 100*c.Efficiency, true
+				feasible++
+			}
+		}
+	}
+	for j := range m.Speeds {
+		top := -1
+		for i := range m.Torques {
+			if g.Feasible[i][j] {
+				top = i
+			}
+		}
+		y := math.NaN()
+		if top >= 0 {
+			y = g.Y[top]
+		}
+		env.X, env.Y = append(env.X, g.X[j]), append(env.Y, y)
+	}
+	points, table, err := dayPoints(sc, conv)
+	if err != nil {
+		return err
+	}
+	files, err = figures.HeatMap(r.Out, "efficiency_map", figures.Axes{
+		Title: "Transmission efficiency at engine " + study.String() + ", best range",
+		X:     "travel speed (km/h, no slip)", Y: "pull at the tyres (kN)"}, g,
+		figures.MapOptions{Levels: []float64{70, 75, 80, 85, 88, 90, 92}, ZLabel: "efficiency %", ZMin: 60, ZMax: 95,
+			Envelope: &env, Points: []figures.Series{points}})
+	if err != nil {
+		return err
+	}
+	r.Printf("  %d of %d points feasible; %d more the transmission could run but the engine cannot\n",
+		feasible, len(m.Speeds)*len(m.Torques), engineLimited)
+	r.Printf("  (input torque above its full-load %s at %v).\n", demo.F(float64(full), 0, "N·m"), study)
+	r.Printf("\n  The day's driving points (marked on the map, at their own engine speeds):\n")
+	table.Write(r.W)
+	r.Printf("\n")
+	r.Wrote(path)
+	r.Wrote(files...)
+	return nil
+}
+
+// converter turns output shaft quantities into travel speed and pull.
+type converter struct {
+	fd, eta float64
+	radius  units.Length
+}
+
+func newConverter(sc *demo.Scenario) converter {
+	eta := sc.Tractor.FinalDriveEfficiency
+	if eta == 0 {
+		eta = vehicle.DefaultFinalDriveEfficiency
+	}
+	return converter{fd: sc.Tractor.FinalDrive, eta: eta, radius: sc.Tractor.Rear.Tyre.RollingRadius}
+}
+
+func (c converter) kmh(w units.AngularVelocity) float64 {
+	return units.SpeedFromAngular(w/units.AngularVelocity(c.fd), c.radius).KMH()
+}
+
+func (c converter) output(kmh float64) units.AngularVelocity {
+	return units.AngularVelocity(c.fd) * units.AngularFromSpeed(units.KMH(kmh), c.radius)
+}
+
+func (c converter) pull(t units.Torque) units.Force {
+	return units.ForceFromTorque(units.Torque(float64(t)*c.fd*c.eta), c.radius)
+}
+
+func (c converter) torque(f units.Force) units.Torque {
+	return units.Torque(float64(units.TorqueFromForce(f, c.radius)) / (c.fd * c.eta))
+}
+
+// dayPoints solves one operating point per driving segment (and per road
+// stretch) of the day with the least-fuel strategy and returns them in map
+// coordinates, with a table.
+func dayPoints(sc *demo.Scenario, conv converter) (figures.Series, *demo.Table, error) {
+	pts := figures.Series{Name: "the day's driving points", Points: true}
+	tb := demo.NewTable("segment", "speed", "pull", "engine", "range", "efficiency", "hydraulic share")
+	v, err := sc.Vehicle(sc.Transmission)
+	if err != nil {
+		return pts, tb, err
+	}
+	cycle, err := sc.Cycle()
+	if err != nil {
+		return pts, tb, err
+	}
+	for _, g := range cycle {
+		var demands []vehicle.Demand
+		switch g.Kind {
+		case vehicle.FieldPass:
+			d := vehicle.Demand{Speed: g.Speed, Grade: g.Grade, Ground: g.Ground}
+			if g.Implement != nil {
+				dr, err := g.Implement.Draft(g.Speed)
+				if err != nil {
+					return pts, tb, err
+				}
+				d.Draft = dr
+			}
+			demands = append(demands, d)
+		case vehicle.HeadlandTurn:
+			demands = append(demands, vehicle.Demand{Speed: g.Speed, Grade: g.Grade, Ground: g.Ground})
+		case vehicle.RoadTransfer:
+			for _, s := range g.Profile {
+				demands = append(demands, vehicle.Demand{Speed: g.Speed, Grade: s.Grade, Trailer: g.Trailer, Ground: g.Ground})
+			}
+		}
+		for _, d := range demands {
+			p, err := vehicle.LeastFuel{}.Operate(v, d)
+			if err != nil {
+				tb.Row(g.Name, demo.F(d.Speed.KMH(), 1, "km/h"), "cannot run: "+firstLine(err), "", "", "", "")
+				continue
+			}
+			x := conv.kmh(p.Drive.OutputSpeed)
+			y := conv.pull(p.Drive.OutputTorque).Kilonewtons()
+			pts.X, pts.Y = append(pts.X, x), append(pts.Y, y)
+			tb.Row(g.Name, demo.F(d.Speed.KMH(), 1, "km/h"), demo.F(y, 1, "kN"), demo.F(p.EngineSpeed.RPM(), 0, "rpm"),
+				sc.Transmission.RangeNames()[p.Range], demo.Pct(p.TransmissionEfficiency(), 1), demo.Pct(p.Drive.HydrostaticShare, 0))
+		}
+	}
+	return pts, tb, nil
+}
+
+func firstLine(err error) string {
+	s, _, _ := strings.Cut(err.Error(), "\n")
+	return s
+}
+
+func fileName(s string) string {
+	return strings.Map(func(r rune) rune {
+		if r >= 'a' && r <= 'z' || r >= '0' && r <= '9' || r >= 'A' && r <= 'Z' {
+			return r
+		}
+		return '_'
+	}, s)
+}
+
+func writeFile(path string, write func(io.Writer) error) error {
+	f, err := os.Create(path)
+	if err != nil {
+		return err
+	}
+	if err := write(f); err != nil {
+		f.Close()
+		return err
+	}
+	return f.Close()
+}
