@@ -6,7 +6,10 @@ import (
 	"math"
 	"testing"
 
+	"github.com/google/go-cmp/cmp"
 	"pgregory.net/rapid"
+
+	"github.com/powersplit-dev/powersplit/internal/testutil"
 )
 
 func TestParse(t *testing.T) {
@@ -127,9 +130,9 @@ func TestJSON(t *testing.T) {
 	if err := json.Unmarshal([]byte(in), &c); err != nil {
 		t.Fatal(err)
 	}
-	if c.Relief.Bar() != 420 || math.Abs(c.Rated.RPM()-2100) > 1e-9 || math.Abs(c.Road.KMH()-40) > 1e-12 ||
-		math.Abs(c.Oil.Celsius()-60) > 1e-12 {
-		t.Errorf("decoded %+v", c)
+	want := config{Bar(420), RPM(2100), KMH(40), Celsius(60)}
+	if d := cmp.Diff(want, c, testutil.EquateApprox(1e-15, 0)); d != "" {
+		t.Errorf("decoded config differs (-want +got):\n%s", d)
 	}
 	out, err := json.Marshal(c)
 	if err != nil {

@@ -36,6 +36,9 @@ func Close(got, want, fraction, margin float64) bool {
 	if got == want {
 		return true
 	}
+	if math.IsInf(got, 0) || math.IsInf(want, 0) {
+		return false
+	}
 	d := math.Abs(got - want)
 	return d <= margin || d <= fraction*math.Min(math.Abs(got), math.Abs(want))
 }
