@@ -5,6 +5,8 @@ import (
 	"fmt"
 	"strconv"
 	"strings"
+
+	"github.com/powersplit-dev/powersplit/units"
 )
 
 // Sentinel errors. Every error the package returns wraps one of them, so
@@ -131,7 +133,15 @@ func (e *LimitError) Error() string {
 	return string(b)
 }
 
+// appendNum appends v and its unit. Values are stored in SI; the text shows
+// pressures in bar and speeds in rpm, the units engineers read them in.
 func appendNum(b []byte, v float64, unit string) []byte {
+	switch unit {
+	case "Pa":
+		v, unit = units.Pressure(v).Bar(), "bar"
+	case "rad/s":
+		v, unit = units.AngularVelocity(v).RPM(), "rpm"
+	}
 	b = strconv.AppendFloat(b, v, 'g', 6, 64)
 	if unit != "" {
 		b = append(b, ' ')
@@ -197,10 +207,4 @@ func (e *InputError) Error() string {
 // Unwrap returns ErrInput.
 func (e *InputError) Unwrap() error { return ErrInput }
 
-func fmtNum(v float64, unit string) string {
-	s := strconv.FormatFloat(v, 'g', 6, 64)
-	if unit != "" {
-		s += " " + unit
-	}
-	return s
-}
+func fmtNum(v float64, unit string) string { return string(appendNum(nil, v, unit)) }
