@@ -189,8 +189,10 @@ func TestPropertyConservation(t *testing.T) {
 	solved, skipped := 0, 0
 	defer func() {
 		t.Logf("%d points solved and checked, %d infeasible skipped", solved, skipped)
-		if solved < 50 {
-			t.Errorf("only %d points solved", solved)
+		// Most generated points lie inside their range's interval and must solve;
+		// rapid runs fewer cases in -short mode, so the bar is a share, not a count.
+		if solved < 10 || solved < 2*skipped {
+			t.Errorf("only %d points solved, %d skipped as infeasible", solved, skipped)
 		}
 	}()
 	rapid.Check(t, func(t *rapid.T) {
