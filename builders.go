@@ -143,6 +143,34 @@ func geared(b *Builder, name string, from Shaft, ratio, eta float64) Shaft {
 	return s
 }
 
+// motorOn returns the motor's shaft: to itself when ratio is zero (the motor
+// sits on it), else a shaft "motor" geared to to with ω_to = ratio·ω_motor.
+func motorOn(b *Builder, to Shaft, ratio, eta float64) Shaft {
+	if ratio == 0 {
+		return to
+	}
+	motor := b.Shaft("motor")
+	b.Gear("motor gear", motor, to, ratio, eta)
+	return motor
+}
+
+// splitSet adds the planetary set of a split: the input member geared from
+// the engine, the member on the hydrostat's side (side, named sideField in
+// the spec) on a shaft of its own and the summing member on the shaft "sum".
+// It returns the members' shafts.
+func splitSet(b *Builder, set planetary.Set, engine Shaft, in, side, sum planetary.Member, inputRatio, eta float64, sideField string) (map[planetary.Member]Shaft, error) {
+	sh := map[planetary.Member]Shaft{}
+	sh[in] = geared(b, "planetary input", engine, inputRatio, eta)
+	sh[side] = b.Shaft("planetary " + side.String())
+	sh[sum] = b.Shaft("sum")
+	if len(sh) != 3 {
+		return nil, &LayoutError{Element: "planetary", Reason: "a member on two shafts: Input, " + sideField + " and Output must differ", Err: ErrLayout}
+	}
+	sun, ring, carrier := members(sh)
+	b.Planetary("planetary", set, sun, ring, carrier)
+	return sh, nil
+}
+
 func members(sh map[planetary.Member]Shaft) (sun, ring, carrier Shaft) {
 	return sh[planetary.Sun], sh[planetary.Ring], sh[planetary.Carrier]
 }
@@ -232,24 +260,12 @@ func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
 	b := NewBuilder()
 	engine := b.Shaft("engine")
 	b.Input("engine", engine)
-	sh := map[planetary.Member]Shaft{}
-	sh[in] = geared(b, "planetary input", engine, spec.InputRatio, eta)
-	sh[pm] = b.Shaft("planetary " + pm.String())
-	sh[om] = b.Shaft("sum")
-	if len(sh) != 3 {
-		return Layout{}, &LayoutError{Element: "planetary", Reason: "a member on two shafts: Input, Pump and Output must differ", Err: ErrLayout}
+	sh, err := splitSet(b, spec.Set, engine, in, pm, om, spec.InputRatio, eta, "Pump")
+	if err != nil {
+		return Layout{}, err
 	}
-	sun, ring, carrier := members(sh)
-	b.Planetary("planetary", spec.Set, sun, ring, carrier)
 	pump := geared(b, "pump", sh[pm], spec.PumpRatio, eta)
-	var motor Shaft
-	if spec.MotorRatio == 0 {
-		motor = sh[om]
-	} else {
-		motor = b.Shaft("motor")
-		b.Gear("motor gear", motor, sh[om], spec.MotorRatio, eta)
-	}
-	b.Loop("hydrostat", spec.Loop, pump, motor)
+	b.Loop("hydrostat", spec.Loop, pump, motorOn(b, sh[om], spec.MotorRatio, eta))
 	finish(b, &c, engine, sh[om], sh[pm], true, spec.Ranges, spec.PTOs, eta)
 	if c.err != nil {
 		return Layout{}, c.err
@@ -277,23 +293,11 @@ func InputCoupled(spec InputCoupledSpec) (Layout, error) {
 	engine := b.Shaft("engine")
 	b.Input("engine", engine)
 	pump := geared(b, "pump", engine, spec.PumpRatio, eta)
-	sh := map[planetary.Member]Shaft{}
-	sh[in] = geared(b, "planetary input", engine, spec.InputRatio, eta)
-	sh[mm] = b.Shaft("planetary " + mm.String())
-	sh[om] = b.Shaft("sum")
-	if len(sh) != 3 {
-		return Layout{}, &LayoutError{Element: "planetary", Reason: "a member on two shafts: Input, Motor and Output must differ", Err: ErrLayout}
+	sh, err := splitSet(b, spec.Set, engine, in, mm, om, spec.InputRatio, eta, "Motor")
+	if err != nil {
+		return Layout{}, err
 	}
-	sun, ring, carrier := members(sh)
-	b.Planetary("planetary", spec.Set, sun, ring, carrier)
-	var motor Shaft
-	if spec.MotorRatio == 0 {
-		motor = sh[mm]
-	} else {
-		motor = b.Shaft("motor")
-		b.Gear("motor gear", motor, sh[mm], spec.MotorRatio, eta)
-	}
-	b.Loop("hydrostat", spec.Loop, pump, motor)
+	b.Loop("hydrostat", spec.Loop, pump, motorOn(b, sh[mm], spec.MotorRatio, eta))
 	finish(b, &c, engine, sh[om], sh[mm], false, spec.Ranges, spec.PTOs, eta)
 	if c.err != nil {
 		return Layout{}, c.err
