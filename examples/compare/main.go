@@ -13,9 +13,7 @@ package main
 
 import (
 	"fmt"
-	"io"
 	"math"
-	"os"
 	"path/filepath"
 	"strings"
 	"sync"
@@ -225,7 +223,7 @@ func run(r *demo.Run) error {
 	for _, res := range results {
 		for _, s := range res.day.Segments {
 			if s.Err != nil {
-				r.Note(fmt.Sprintf("%s, %s: %s", res.t.Name, s.Name, firstLine(s.Err)))
+				r.Note(fmt.Sprintf("%s, %s: %s", res.t.Name, s.Name, demo.FirstLine(s.Err)))
 			}
 		}
 	}
@@ -250,8 +248,8 @@ func run(r *demo.Run) error {
 	}
 	r.Wrote(files...)
 	for _, res := range results {
-		path := filepath.Join(r.Out, "compare_"+fileName(res.t.Kind)+".csv")
-		if err := writeFile(path, res.day.WriteCSV); err != nil {
+		path := filepath.Join(r.Out, "compare_"+demo.FileName(res.t.Kind)+".csv")
+		if err := demo.WriteFile(path, res.day.WriteCSV); err != nil {
 			return err
 		}
 		r.Wrote(path)
@@ -292,30 +290,4 @@ func valueAt(s figures.Series, x float64) string {
 		return "—"
 	}
 	return demo.F(s.Y[bi], 1, "%")
-}
-
-func firstLine(err error) string {
-	s, _, _ := strings.Cut(err.Error(), "\n")
-	return s
-}
-
-func fileName(s string) string {
-	return strings.Map(func(r rune) rune {
-		if r >= 'a' && r <= 'z' || r >= '0' && r <= '9' || r >= 'A' && r <= 'Z' {
-			return r
-		}
-		return '_'
-	}, s)
-}
-
-func writeFile(path string, write func(io.Writer) error) error {
-	f, err := os.Create(path)
-	if err != nil {
-		return err
-	}
-	if err := write(f); err != nil {
-		f.Close()
-		return err
-	}
-	return f.Close()
 }

@@ -179,7 +179,7 @@ func run(r *demo.Run) error {
 		write func(io.Writer) error
 	}{{"day_steps.csv", day.WriteCSV}, {"day_audit.csv", day.WriteAuditCSV}} {
 		path := filepath.Join(r.Out, f.name)
-		if err := writeFile(path, f.write); err != nil {
+		if err := demo.WriteFile(path, f.write); err != nil {
 			return err
 		}
 		r.Wrote(path)
@@ -474,18 +474,5 @@ func firstLine(err error) string {
 	if errors.As(err, &se) {
 		err = se.Err
 	}
-	s, _, _ := strings.Cut(err.Error(), "\n")
-	return s
-}
-
-func writeFile(path string, write func(io.Writer) error) error {
-	f, err := os.Create(path)
-	if err != nil {
-		return err
-	}
-	if err := write(f); err != nil {
-		f.Close()
-		return err
-	}
-	return f.Close()
+	return demo.FirstLine(err)
 }

@@ -12,11 +12,8 @@ package main
 
 import (
 	"fmt"
-	"io"
 	"math"
-	"os"
 	"path/filepath"
-	"strings"
 
 	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/examples/internal/demo"
@@ -73,8 +70,8 @@ func run(r *demo.Run) error {
 		if err != nil {
 			return fmt.Errorf("sweep of range %s: %w", name, err)
 		}
-		path := filepath.Join(r.Out, "sweep_"+fileName(name)+".csv")
-		if err := writeFile(path, sw.WriteCSV); err != nil {
+		path := filepath.Join(r.Out, "sweep_"+demo.FileName(name)+".csv")
+		if err := demo.WriteFile(path, sw.WriteCSV); err != nil {
 			return err
 		}
 		xs := make([]float64, len(sw.Cells))
@@ -152,7 +149,7 @@ func run(r *demo.Run) error {
 		return fmt.Errorf("map: %w", err)
 	}
 	path := filepath.Join(r.Out, "efficiency_map.csv")
-	if err := writeFile(path, m.WriteCSV); err != nil {
+	if err := demo.WriteFile(path, m.WriteCSV); err != nil {
 		return err
 	}
 	g := figures.Grid{X: make([]float64, len(m.Speeds)), Y: make([]float64, len(m.Torques))}
@@ -284,7 +281,7 @@ func dayPoints(sc *demo.Scenario, conv converter) (figures.Series, *demo.Table, 
 		for _, d := range demands {
 			p, err := vehicle.LeastFuel{}.Operate(v, d)
 			if err != nil {
-				tb.Row(g.Name, demo.F(d.Speed.KMH(), 1, "km/h"), "cannot run: "+firstLine(err), "", "", "", "")
+				tb.Row(g.Name, demo.F(d.Speed.KMH(), 1, "km/h"), "cannot run: "+demo.FirstLine(err), "", "", "", "")
 				continue
 			}
 			x := conv.kmh(p.Drive.OutputSpeed)
@@ -295,30 +292,4 @@ func dayPoints(sc *demo.Scenario, conv converter) (figures.Series, *demo.Table, 
 		}
 	}
 	return pts, tb, nil
-}
-
-func firstLine(err error) string {
-	s, _, _ := strings.Cut(err.Error(), "\n")
-	return s
-}
-
-func fileName(s string) string {
-	return strings.Map(func(r rune) rune {
-		if r >= 'a' && r <= 'z' || r >= '0' && r <= '9' || r >= 'A' && r <= 'Z' {
-			return r
-		}
-		return '_'
-	}, s)
-}
-
-func writeFile(path string, write func(io.Writer) error) error {
-	f, err := os.Create(path)
-	if err != nil {
-		return err
-	}
-	if err := write(f); err != nil {
-		f.Close()
-		return err
-	}
-	return f.Close()
 }
