@@ -418,7 +418,7 @@ func TestMapWorkersIdentical(t *testing.T) {
 			if a.OK {
 				ok++
 			}
-			if a.OK != c.OK || a.Reason != c.Reason || a.Range != c.Range ||
+			if a.OK != c.OK || a.Reason() != c.Reason() || a.Range != c.Range ||
 				!same(float64(a.OutputSpeed), float64(c.OutputSpeed)) || !same(float64(a.OutputTorque), float64(c.OutputTorque)) ||
 				!same(float64(a.InputTorque), float64(c.InputTorque)) || !same(float64(a.InputPower), float64(c.InputPower)) ||
 				!same(float64(a.OutputPower), float64(c.OutputPower)) || !same(float64(a.Loss), float64(c.Loss)) ||

@@ -115,7 +115,7 @@ func FuzzSweep(f *testing.F) {
 				if c.OK && (bad(c.Efficiency) || bad(float64(c.InputPower)) || bad(c.HydraulicShare)) {
 					t.Fatalf("non-finite feasible cell %+v", c)
 				}
-				if !c.OK && c.Reason == "" {
+				if !c.OK && c.Reason() == "" {
 					t.Fatalf("infeasible cell without reason")
 				}
 			}

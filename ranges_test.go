@@ -204,7 +204,7 @@ func TestSweepAndMap(t *testing.T) {
 				ok++
 			} else {
 				bad++
-				if c.Reason == "" || c.Err == nil {
+				if c.Reason() == "" || c.Err == nil {
 					t.Errorf("infeasible cell without reason: %+v", c)
 				}
 			}

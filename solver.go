@@ -16,23 +16,33 @@ import (
 // repeated solves allocate nothing. A Solver is not safe for concurrent use;
 // use one per goroutine (they may share the Layout).
 type Solver struct {
-	l        *layout
-	n        int
-	a        *mat.Dense
-	rhs      *mat.VecDense
-	piv      []int
-	w        []float64
-	t        []float64
-	gearK    []float64 // per gear: η (a drives), 1/η (b drives) or 1 (lossless/none)
-	flip     []int
-	pflow    []int8 // per planetary: -1 lossless, 0 sun drives, 1 ring drives
-	pflip    []int
-	dp       []float64
-	loopA    []hydrostat.LoopState
-	loopB    []hydrostat.LoopState
-	mw       [][]units.AngularVelocity
-	outW     []float64
-	over     []int // per loop: iterations in a row beyond the relief pressure
+	l     *layout
+	n     int
+	a     *mat.Dense
+	rhs   *mat.VecDense
+	piv   []int
+	w     []float64
+	t     []float64
+	gearK []float64 // per gear: η (a drives), 1/η (b drives) or 1 (lossless/none)
+	flip  []int
+	pflow []int8 // per planetary: -1 lossless, 0 sun drives, 1 ring drives
+	pflip []int
+	dp    []float64
+	loopA []hydrostat.LoopState
+	loopB []hydrostat.LoopState
+	mw    [][]units.AngularVelocity
+	outW  []float64
+	over  []int // per loop: iterations in a row beyond the relief pressure
+
+	// Slopes of the unit torques over the loop pressure. In the main
+	// iteration (secant set) they come from the last two iterates where
+	// those are far enough apart, and from a finite difference (a second
+	// loop evaluation) only at the start; elsewhere always from the finite
+	// difference.
+	secant   bool
+	havePrev []bool    // per loop: prevDp and prevT hold an earlier iterate
+	prevDp   []float64 // per loop
+	prevT    []float64 // per unit
 	alpha    float64
 	lastStep float64
 	scratch  State
@@ -97,7 +107,9 @@ func NewSolver(l Layout) *Solver {
 		s.mw[j] = make([]units.AngularVelocity, m)
 	}
 	s.dpPrev = make([]float64, len(ly.loops))
+	s.havePrev, s.prevDp = make([]bool, len(ly.loops)), make([]float64, len(ly.loops))
 	s.initCache()
+	s.prevT = make([]float64, s.nU)
 	return s
 }
 
@@ -236,7 +248,10 @@ func (s *Solver) iterate(r *rangeDef, p *Point, update bool, it0 int) (bool, int
 	s.alpha, s.lastStep = 1, math.Inf(1)
 	for j := range s.over {
 		s.over[j] = 0
+		s.havePrev[j] = false
 	}
+	s.secant = update
+	defer func() { s.secant = false }()
 	for ; it < it0+maxIter; it++ {
 		if err := s.evalLoops(false); err != nil {
 			return false, it, err
@@ -579,10 +594,12 @@ func (s *Solver) unitSpeeds() error {
 	return nil
 }
 
-// evalLoops evaluates every loop at its pressure (state A) and at a slightly
-// different pressure (state B) for the derivative of the unit torques. Limit
-// errors are ignored while iterating (the hydrostat fills the state even
-// then) and returned when final is set.
+// evalLoops evaluates every loop at its pressure (state A) and sets the
+// slopes of the unit torques over the pressure (ld): from the last two
+// iterates in the main iteration (a secant), or by a finite difference
+// from a second evaluation at a slightly different pressure (state B).
+// Limit errors are ignored while iterating (the hydrostat fills the state
+// even then) and returned when final is set; final sets no slopes.
 func (s *Solver) evalLoops(final bool) error {
 	l := s.l
 	for j, e := range l.loops {
@@ -591,27 +608,77 @@ func (s *Solver) evalLoops(final bool) error {
 			s.mw[j][k] = units.AngularVelocity(s.w[el.shafts[k+1]])
 		}
 		wp := units.AngularVelocity(s.w[el.shafts[0]])
-		err := el.loop.At(wp, s.mw[j], units.Pressure(s.dp[j]), &s.loopA[j])
+		dp := s.dp[j]
+		var err error
+		if final {
+			err = el.loop.At(wp, s.mw[j], units.Pressure(dp), &s.loopA[j])
+		} else {
+			err = el.loop.Trial(wp, s.mw[j], units.Pressure(dp), &s.loopA[j])
+		}
 		if err != nil && (final || !isLimit(err)) {
 			return loopErr(el.name, err, &s.loopA[j])
 		}
 		if final {
 			continue
 		}
-		h := dStep(s.dp[j])
-		if s.dp[j] < 0 {
+		u0, nk := s.unit0[j], len(el.shafts)
+		if s.secant && s.havePrev[j] && s.secantSlopes(j, u0, nk, dp) {
+			continue
+		}
+		h := dStep(dp)
+		if dp < 0 {
 			h = -h // step away from zero, where the loss terms change sign
 		}
-		if err := el.loop.At(wp, s.mw[j], units.Pressure(s.dp[j]+h), &s.loopB[j]); err != nil && !isLimit(err) {
+		if err := el.loop.Trial(wp, s.mw[j], units.Pressure(dp+h), &s.loopB[j]); err != nil && !isLimit(err) {
 			return loopErr(el.name, err, &s.loopB[j])
 		}
+		for k := range nk {
+			s.ld[u0+k] = (unitTorque(&s.loopB[j], k) - unitTorque(&s.loopA[j], k)) / h
+		}
+		s.remember(j, u0, nk, dp)
 	}
 	return nil
 }
 
+// secantSlopes sets the slopes of loop j's units from the last iterate and
+// this one, and reports whether it did. The slopes stay as they are when
+// the iterates are too close for a secant (near convergence the slope only
+// sets the rate); a secant that differs from the slope before by more than
+// a factor of two in any unit (a kink of the loss model between the
+// iterates) is refused, and the caller takes the finite difference.
+func (s *Solver) secantSlopes(j, u0, nk int, dp float64) bool {
+	step := dp - s.prevDp[j]
+	if math.Abs(step) <= dStep(dp) {
+		return true
+	}
+	for k := range nk {
+		d := (unitTorque(&s.loopA[j], k) - s.prevT[u0+k]) / step
+		if old := s.ld[u0+k]; bad(d) || d*old <= 0 || math.Abs(d) > 2*math.Abs(old) || 2*math.Abs(d) < math.Abs(old) {
+			return false
+		}
+	}
+	for k := range nk {
+		s.ld[u0+k] = (unitTorque(&s.loopA[j], k) - s.prevT[u0+k]) / step
+	}
+	s.remember(j, u0, nk, dp)
+	return true
+}
+
+// remember keeps loop j's pressure and unit torques for the next secant.
+func (s *Solver) remember(j, u0, nk int, dp float64) {
+	s.havePrev[j], s.prevDp[j] = true, dp
+	for k := range nk {
+		s.prevT[u0+k] = unitTorque(&s.loopA[j], k)
+	}
+}
+
 // isLimit reports whether err is a *hydrostat.LimitError (errors.AsType:
-// no allocation, unlike errors.As with a target that escapes).
+// no allocation, unlike errors.As with a target that escapes) or one of
+// the bare limit sentinels that hydrostat.Loop.Trial reports.
 func isLimit(err error) bool {
+	if err == hydrostat.ErrSettingLimit || err == hydrostat.ErrPressureLimit || err == hydrostat.ErrSpeedLimit {
+		return true
+	}
 	_, ok := errors.AsType[*hydrostat.LimitError](err)
 	return ok
 }
@@ -773,23 +840,17 @@ func (s *Solver) assembleInto(r *rangeDef, p *Point, a, rhs []float64, e *sysEnt
 	return nil
 }
 
-// linearise computes the torque t0 of every unit of loop j at the loop's
-// pressure and its derivative d = ∂T/∂Δp from the two loop states.
+// linearise takes the torque t0 of every unit of loop j at the loop's
+// pressure from its state; the slopes d = ∂T/∂Δp were set by evalLoops.
 func (s *Solver) linearise(j int) error {
 	el := &s.l.elems[s.l.loops[j]]
-	A, B := &s.loopA[j], &s.loopB[j]
-	h := dStep(s.dp[j])
-	if s.dp[j] < 0 {
-		h = -h
-	}
 	for k := range el.shafts {
-		t0 := unitTorque(A, k)
-		d := (unitTorque(B, k) - t0) / h
-		if bad(t0) || bad(d) {
+		u := s.unit0[j] + k
+		t0 := unitTorque(&s.loopA[j], k)
+		if bad(t0) || bad(s.ld[u]) {
 			return &LimitError{Element: el.name, Quantity: "unit torque", Value: finiteOr(t0, 0), Err: ErrInfeasible}
 		}
-		u := s.unit0[j] + k
-		s.lt0[u], s.ld[u] = t0, d
+		s.lt0[u] = t0
 	}
 	return nil
 }

@@ -3,6 +3,7 @@ package powersplit
 import (
 	"encoding/csv"
 	"errors"
+	"fmt"
 	"io"
 	"math"
 	"runtime"
@@ -15,10 +16,9 @@ import (
 
 // Cell is the result at one grid point of a sweep or map.
 type Cell struct {
-	OK     bool   // the point solved and is feasible
-	Reason string // why not, when !OK
-	Err    error  // the error, when !OK
-	Range  int    // the range solved in (the best one when the spec's Range is Auto)
+	OK    bool  // the point solved and is feasible
+	Err   error // why not, when !OK
+	Range int   // the range solved in (the best one when the spec's Range is Auto)
 
 	OutputSpeed    units.AngularVelocity
 	OutputTorque   units.Torque
@@ -164,6 +164,15 @@ func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) []C
 }
 
 // solveCell solves q in range rg (or Auto) and summarises it.
+// Reason is why the cell failed (its error's text), or "" when it solved.
+// The text is built on call, so a map of infeasible cells costs no strings.
+func (c Cell) Reason() string {
+	if c.Err == nil {
+		return ""
+	}
+	return c.Err.Error()
+}
+
 func solveCell(s *Solver, st *State, q *Point, rg int, pol Policy) Cell {
 	var err error
 	if rg == Auto {
@@ -175,7 +184,6 @@ func solveCell(s *Solver, st *State, q *Point, rg int, pol Policy) Cell {
 	c := Cell{OK: err == nil, Err: err, Range: st.Range, OutputTorque: q.Outputs[0].Torque,
 		OutputSpeed: q.Outputs[0].Speed}
 	if err != nil {
-		c.Reason = err.Error()
 		return c
 	}
 	c.InputTorque, c.InputPower, c.OutputPower = st.InputTorque, st.InputPower, st.OutputPower
@@ -267,9 +275,8 @@ func powerCell(s *Solver, st *State, q *Point, rg int, pol Policy, P float64) Ce
 			break
 		}
 	}
-	c := Cell{OutputSpeed: q.Outputs[0].Speed, Err: ErrUnreachable,
-		Reason: "input power " + strconv.FormatFloat(P, 'g', 6, 64) + " W not reached at this speed"}
-	return c
+	return Cell{OutputSpeed: q.Outputs[0].Speed,
+		Err: fmt.Errorf("%w: input power %s W not reached at this speed", ErrUnreachable, strconv.FormatFloat(P, 'g', 6, 64))}
 }
 
 // Map solves the layout over the grid output speed × output torque at the
@@ -329,7 +336,7 @@ var csvHeader = []string{"output_speed_rpm", "output_torque_Nm", "feasible", "ra
 func (c Cell) record() []string {
 	f := func(v float64) string { return strconv.FormatFloat(v, 'g', 10, 64) }
 	if !c.OK {
-		return []string{f(c.OutputSpeed.RPM()), f(float64(c.OutputTorque)), "false", "", "", "", "", "", "", "", "", "", "", c.Reason}
+		return []string{f(c.OutputSpeed.RPM()), f(float64(c.OutputTorque)), "false", "", "", "", "", "", "", "", "", "", "", c.Reason()}
 	}
 	return []string{f(c.OutputSpeed.RPM()), f(float64(c.OutputTorque)), "true", strconv.Itoa(c.Range),
 		f(float64(c.InputTorque)), f(c.InputPower.Kilowatts()), f(c.OutputPower.Kilowatts()), f(c.Loss.Kilowatts()),

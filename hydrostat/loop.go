@@ -210,7 +210,20 @@ func (l Loop) At(pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVel
 	return l.at(l.sched, pumpSpeed, motorSpeeds, dp, st)
 }
 
+// Trial is At for the inner loop of an iteration: it fills st exactly as
+// At does, but reports a crossed limit by the bare sentinel
+// (ErrPressureLimit, ErrSpeedLimit or ErrSettingLimit) instead of a
+// *LimitError, so that with the Sequential schedule it never allocates.
+// Call At at the converged point for the error that names the limit.
+func (l Loop) Trial(pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, st *LoopState) error {
+	return l.atQ(l.sched, pumpSpeed, motorSpeeds, dp, st, true)
+}
+
 func (l Loop) at(sched Schedule, pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, st *LoopState) error {
+	return l.atQ(sched, pumpSpeed, motorSpeeds, dp, st, false)
+}
+
+func (l Loop) atQ(sched Schedule, pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, st *LoopState, quiet bool) error {
 	n := len(l.spec.Motors)
 	if st == nil || n == 0 {
 		return fmt.Errorf("%w: nil state or zero Loop", ErrInvalid)
@@ -229,11 +242,11 @@ func (l Loop) at(sched Schedule, pumpSpeed units.AngularVelocity, motorSpeeds []
 	st.size(n)
 	var first error
 	if sq, ok := sched.(Sequential); ok {
-		first = sq.settings(&l, pumpSpeed, motorSpeeds, dp, st.Settings)
+		first = sq.settingsQ(&l, pumpSpeed, motorSpeeds, dp, st.Settings, quiet)
 	} else {
 		first = sched.Settings(l, pumpSpeed, motorSpeeds, dp, st.Settings)
 	}
-	if first != nil && !isLimit(first) {
+	if first != nil && !isLimit(first) && first != ErrSettingLimit {
 		return first
 	}
 	if err := l.fill(pumpSpeed, motorSpeeds, dp, st); err != nil {
@@ -242,7 +255,26 @@ func (l Loop) at(sched Schedule, pumpSpeed units.AngularVelocity, motorSpeeds []
 	if first != nil {
 		return first
 	}
+	if quiet {
+		return l.limitsQuiet(st)
+	}
 	return l.limits(st)
+}
+
+// limitsQuiet is limits reporting the bare sentinel.
+func (l *Loop) limitsQuiet(st *LoopState) error {
+	if st.High > l.spec.Relief {
+		return ErrPressureLimit
+	}
+	if err := l.spec.Pump.limitQuiet(&st.Pump); err != nil {
+		return err
+	}
+	for i := range l.spec.Motors {
+		if err := l.spec.Motors[i].limitQuiet(&st.Motors[i]); err != nil {
+			return err
+		}
+	}
+	return nil
 }
 
 // isLimit reports whether err is a *LimitError.
@@ -411,7 +443,7 @@ func (l Loop) Solve(in LoopInput) (LoopState, error) {
 		} else if need > 0 {
 			dp = pmax
 		}
-		if err := l.at(sched, in.PumpSpeed, in.MotorSpeeds, units.Pressure(dp), &st); err != nil && !isLimit(err) {
+		if err := l.atQ(sched, in.PumpSpeed, in.MotorSpeeds, units.Pressure(dp), &st, true); err != nil && !isLimit(err) && !isBareLimit(err) {
 			return LoopState{}, err
 		}
 		v := float64(l.spec.Charge) + math.Abs(need)

@@ -95,11 +95,12 @@ func (m Wilson) Validate() error {
 // Losses implements LossModel.
 func (m Wilson) Losses(c Condition) (Losses, error) {
 	return m.losses(c.Setting, float64(c.MaxDisplacement), float64(c.Speed), float64(c.Pressure),
-		float64(c.Viscosity), float64(c.Density), float64(c.BulkModulus))
+		float64(c.Viscosity), float64(c.Density), float64(c.BulkModulus), 0)
 }
 
-// losses is Losses on plain numbers (Unit.eval calls it directly).
-func (m *Wilson) losses(x, dmax, w, dp, mu, rho, beta float64) (Losses, error) {
+// losses is Losses on plain numbers (Unit.eval calls it directly); d53,
+// when positive, is dmax^(5/3), known to the unit.
+func (m *Wilson) losses(x, dmax, w, dp, mu, rho, beta, d53 float64) (Losses, error) {
 	x, dp, w = math.Abs(x), math.Abs(dp), math.Abs(w)
 	if !(dmax > 0) || !(mu > 0) || !finite(dmax) || !finite(mu) || !finite(dp) || !finite(w) || !(x <= 1) {
 		return Losses{}, fmt.Errorf("%w: Wilson needs D_max > 0, viscosity > 0 and finite values", ErrInvalid)
@@ -118,7 +119,11 @@ func (m *Wilson) losses(x, dmax, w, dp, mu, rho, beta float64) (Losses, error) {
 		if !(rho > 0) || !finite(rho) {
 			return Losses{}, fmt.Errorf("%w: hydrodynamic torque needs a positive density", ErrInvalid)
 		}
-		tau += m.Hydrodynamic * rho * w * w * math.Pow(dt, 5.0/3)
+		if m.TorqueSetting != 0 || !(d53 > 0) {
+			c := math.Cbrt(dt) // dt^(5/3) = dt·∛dt², a third of the cost of math.Pow
+			d53 = dt * c * c
+		}
+		tau += m.Hydrodynamic * rho * w * w * d53
 	}
 	return Losses{Leakage: units.VolumeFlow(leak), Torque: units.Torque(tau)}, nil
 }

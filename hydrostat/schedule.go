@@ -69,16 +69,28 @@ func (s Sequential) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeed
 // settings is Settings on a *Loop: Loop.At calls it directly (no interface
 // call, no copy of the loop).
 func (s Sequential) settings(l *Loop, pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, settings []float64) error {
+	return s.settingsQ(l, pumpSpeed, motorSpeeds, dp, settings, false)
+}
+
+// settingsQ is settings; with quiet set a setting limit is reported by the
+// bare ErrSettingLimit (no allocation).
+func (s Sequential) settingsQ(l *Loop, pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, settings []float64, quiet bool) error {
 	if err := checkArgs(l, motorSpeeds, settings); err != nil {
 		return err
 	}
 	if err := validMin(s.MinMotorSetting); err != nil {
 		return err
 	}
-	xp, sm, err := sequential(l, minSetting(s.MinMotorSetting), float64(pumpSpeed), motorSpeeds, float64(dp))
+	xp, sm, lim, err := sequential(l, minSetting(s.MinMotorSetting), float64(pumpSpeed), motorSpeeds, float64(dp))
 	settings[0] = xp
 	for i := 1; i < len(settings); i++ {
 		settings[i] = sm
+	}
+	if err == nil && lim.hit {
+		if quiet {
+			return ErrSettingLimit
+		}
+		return lim.err()
 	}
 	return err
 }
@@ -130,7 +142,18 @@ func pumpFor(l *Loop, sm, wp float64, wms []units.AngularVelocity, dp float64) (
 // the settings are placed in closed form (see linLoop); otherwise by
 // Brent's method on the flow balance. Both give the zero of the same
 // residual, to rounding.
-func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float64) (xp, sm float64, err error) {
+// setLimit is a motor setting the sequential schedule would need beyond its
+// range, as a value (the *LimitError is built only when reported).
+type setLimit struct {
+	hit       bool
+	need, lim float64
+}
+
+func (s setLimit) err() error {
+	return &LimitError{Quantity: "motor setting", Value: s.need, Limit: s.lim, Err: ErrSettingLimit}
+}
+
+func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float64) (xp, sm float64, sl setLimit, err error) {
 	lin, linear := l.linear(wp, wms, dp)
 	var ok bool
 	if linear {
@@ -139,7 +162,7 @@ func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float
 		xp, ok, err = pumpFor(l, 1, wp, wms, dp)
 	}
 	if err != nil || ok {
-		return xp, 1, err
+		return xp, 1, setLimit{}, err
 	}
 	// The pump is at full (xp = ±1): swing the motors back.
 	var ferr error
@@ -158,20 +181,20 @@ func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float
 		ha, hb = h(smin), h(1)
 	}
 	if ferr != nil {
-		return 0, 0, ferr
+		return 0, 0, setLimit{}, ferr
 	}
 	if (ha > 0) != (hb > 0) || ha == 0 || hb == 0 {
 		if linear {
-			return xp, lin.motorFor(xp, smin, ha, hb), nil
+			return xp, lin.motorFor(xp, smin, ha, hb), setLimit{}, nil
 		}
 		s, e := numeric.Brent(h, smin, 1, 0, 200)
 		if ferr != nil {
-			return 0, 0, ferr
+			return 0, 0, setLimit{}, ferr
 		}
 		if e != nil {
-			return 0, 0, fmt.Errorf("%w: motor setting: %v", ErrNoSolution, e)
+			return 0, 0, setLimit{}, fmt.Errorf("%w: motor setting: %v", ErrNoSolution, e)
 		}
-		return xp, s, nil
+		return xp, s, setLimit{}, nil
 	}
 	// No motor setting in range: report the setting that would be needed
 	// (linear in s to good accuracy) against the limit.
@@ -180,7 +203,7 @@ func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float
 		sm = 1
 	}
 	if hb == ha {
-		return xp, sm, fmt.Errorf("%w: no settings give flow continuity at these speeds (all shafts idle under pressure?)", ErrNoSolution)
+		return xp, sm, setLimit{}, fmt.Errorf("%w: no settings give flow continuity at these speeds (all shafts idle under pressure?)", ErrNoSolution)
 	}
 	need := smin - ha*(1-smin)/(hb-ha)
 	lim := smin
@@ -188,9 +211,9 @@ func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float
 		lim = 1
 	}
 	if !finite(need) {
-		return xp, sm, fmt.Errorf("%w: no motor setting gives flow continuity", ErrNoSolution)
+		return xp, sm, setLimit{}, fmt.Errorf("%w: no motor setting gives flow continuity", ErrNoSolution)
 	}
-	return xp, sm, &LimitError{Quantity: "motor setting", Value: need, Limit: lim, Err: ErrSettingLimit}
+	return xp, sm, setLimit{hit: true, need: need, lim: lim}, nil
 }
 
 // MinLoss is the minimum-loss schedule. Among the settings that give the
@@ -233,7 +256,10 @@ func (m MinLoss) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeeds [
 	}
 	smin := minSetting(m.MinMotorSetting)
 	wp, d := float64(pumpSpeed), float64(dp)
-	xp, shi, err := sequential(&l, smin, wp, motorSpeeds, d)
+	xp, shi, sl, err := sequential(&l, smin, wp, motorSpeeds, d)
+	if err == nil && sl.hit {
+		err = sl.err()
+	}
 	fill := func(xp, sm float64) {
 		settings[0] = xp
 		for i := 1; i < len(settings); i++ {

@@ -58,6 +58,8 @@ type UnitSpec struct {
 type Unit struct {
 	spec UnitSpec
 	dmax float64 // m³/rad
+	wil  *Wilson // a copy of spec.Loss when it is a Wilson value (no interface call in eval)
+	d53  float64 // dmax^(5/3), for the hydrodynamic term
 }
 
 // GeometricDisplacement returns the displacement of z pistons of diameter d
@@ -138,7 +140,11 @@ func NewUnit(s UnitSpec) (Unit, error) {
 			return Unit{}, err
 		}
 	}
-	return Unit{spec: s, dmax: d}, nil
+	u := Unit{spec: s, dmax: d, d53: math.Pow(d, 5.0/3)}
+	if w, ok := s.Loss.(Wilson); ok {
+		u.wil = &w
+	}
+	return u, nil
 }
 
 // Spec returns the specification the unit was built from, with
@@ -318,9 +324,9 @@ func (u *Unit) eval(x, w, dp float64, f fluid, p *Point) error {
 		}
 	}
 	var leak, tau float64
-	if wm, ok := u.spec.Loss.(Wilson); ok {
+	if wm := u.wil; wm != nil {
 		// The common model without the interface call and the Condition.
-		ls, err := wm.losses(x, u.dmax, w, math.Abs(dp), f.mu, f.rho, f.beta)
+		ls, err := wm.losses(x, u.dmax, w, math.Abs(dp), f.mu, f.rho, f.beta, u.d53)
 		if err != nil {
 			return err
 		}
@@ -399,6 +405,23 @@ func (u *Unit) limits(p *Point, who string, idx int) error {
 		return &LimitError{Quantity: name("speed"), Value: math.Abs(p.Speed.RPM()), Limit: u.spec.MaxSpeed.RPM(), Unit: "rpm", Err: ErrSpeedLimit}
 	}
 	return nil
+}
+
+// limitQuiet is limits reporting the bare sentinel.
+func (u *Unit) limitQuiet(p *Point) error {
+	if pk := float64(u.spec.PeakPressure); pk > 0 && math.Abs(float64(p.Pressure)) > pk {
+		return ErrPressureLimit
+	}
+	if ms := float64(u.spec.MaxSpeed); ms > 0 && math.Abs(float64(p.Speed)) > ms {
+		return ErrSpeedLimit
+	}
+	return nil
+}
+
+// isBareLimit reports whether err is one of the limit sentinels themselves
+// (as Loop.Trial reports them).
+func isBareLimit(err error) bool {
+	return err == ErrPressureLimit || err == ErrSpeedLimit || err == ErrSettingLimit
 }
 
 // PressureFor is At the other way round: it finds the pressure difference
