@@ -300,12 +300,17 @@ func (s *Solver) iterate(r *rangeDef, p *Point, update bool, it0 int) (bool, int
 		if it-it0 > 5 && step > 0.7*s.lastStep {
 			s.alpha = math.Max(s.alpha/2, 1.0/8)
 		}
+		// A step below 1e-9 of the pressure and a thousand times smaller
+		// than the one before shows a contraction that leaves the next step
+		// below dpTolRel: the iterate is settled without one more
+		// evaluation of the loops to confirm it.
+		settled := delta == 0 || (s.alpha == 1 && step <= 1e-9 && step <= 1e-3*s.lastStep)
 		s.lastStep = step
 		changed := false
 		if update {
 			changed = s.directions(it - it0)
 		}
-		if !changed && delta == 0 && it > it0 {
+		if !changed && settled && it > it0 {
 			if s.full {
 				return true, it, nil
 			}

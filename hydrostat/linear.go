@@ -56,6 +56,9 @@ func wilsonLeak(m *Wilson, dmax, w, dp float64, f *fluid) (a, b float64, ok bool
 // leakLinear returns the affine leakage of unit u, and false when its loss
 // model is not known to be affine in |x|.
 func (u *Unit) leakLinear(w, dp float64, f *fluid) (a, b float64, ok bool) {
+	if u.wil != nil {
+		return wilsonLeak(u.wil, u.dmax, w, dp, f)
+	}
 	switch m := u.spec.Loss.(type) {
 	case nil:
 		return 0, 0, u.dmax > 0
