@@ -50,6 +50,24 @@
 // peak adhesion μ: NT = μ·(1 − e^(−k·s)), MR = f, GT = NT + f. The
 // exponential form and k = 15 are common practice, not a published fit.
 //
+// # Gee-Clough model
+//
+// GeeClough is the model of Gee-Clough et al. (1978), with the mobility
+// number after Dwyer et al. It needs the tyre deflection δ > 0:
+//
+//	M     = (CI·b·d/W)·√(δ/h)/(1 + b/(2d))       mobility number
+//	CTmax = 0.796 − 0.92/M,   k·CTmax = 4.838 + 0.061·M
+//	NT    = CTmax·(1 − e^(−k·s)),   MR = 0.049 + 0.287/M,   GT = NT + MR
+//
+// GeeClough.Coefficients gives M, CTmax, the initial slope k·CTmax and
+// MR. A mobility number at or below 0.92/0.796 ≈ 1.156
+// (GeeCloughMinMobility) is outside the model's range and an error wrapping
+// ErrLoad. The equations were fitted for field conditions (stubble,
+// ploughed and cultivated ground); they do not apply to hard dry surfaces
+// or to very slippery conditions. The tests reproduce a published table of
+// CTmax, k·CTmax, MR and the best tractive efficiency for a small drive
+// tyre.
+//
 // # Surfaces
 //
 // HardSoil, FirmSoil, TilledSoil and SoftSoil carry the cone index of the
@@ -135,6 +153,9 @@
 //     tires, ASAE paper 87-1622.
 //   - Wismer, R. D. and Luth, H. J. (1974), Off-road traction prediction
 //     for wheeled vehicles, Transactions of the ASAE 17(1).
+//   - Gee-Clough, D., McAllister, M., Pearson, G. and Evernden, D. W.
+//     (1978), The empirical prediction of tractor-implement field
+//     performance, Journal of Terramechanics 15(2): 81–94.
 //   - ASABE EP496 (agricultural machinery management): recommended weight
 //     distributions.
 package traction

@@ -16,7 +16,9 @@ var (
 	// ErrSurface means a surface has no usable cone index or rolling
 	// coefficient for the model asked, or a value is NaN or infinite.
 	ErrSurface = errors.New("traction: invalid surface")
-	// ErrLoad means a wheel or axle load is zero, negative, NaN or infinite.
+	// ErrLoad means a wheel or axle load is zero, negative, NaN or
+	// infinite, or too large for a model on the given soil (the mobility
+	// number it leaves is below the model's range).
 	ErrLoad = errors.New("traction: invalid load")
 	// ErrSlip means a slip outside the range an entry accepts: [0, 1) for a
 	// driving wheel, [MinSlip, 1) for the traction models themselves.

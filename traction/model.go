@@ -148,7 +148,12 @@ func (WismerLuth) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull,
 	cn := float64(s.ConeIndex) * float64(t.Width) * float64(t.Diameter) / float64(load)
 	gt := 0.75 * (1 - math.Exp(-0.3*cn*slip))
 	mr := 1.2/cn + 0.04
-	return makePull(load, slip, gt, mr), nil
+	p := makePull(load, slip, gt, mr)
+	if !finite(float64(p.Gross)) || !finite(float64(p.Net)) {
+		// An overrun slip on very strong soil makes e^(−0.3·Cn·s) overflow.
+		return Pull{}, rangeErr(ErrSlip, "slip", slip, "closer to 0 for the Wismer–Luth model on this soil (the pull overflows)")
+	}
+	return p, nil
 }
 
 // Road is a model for tyres on a hard road, with the surface's rolling

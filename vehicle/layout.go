@@ -2,6 +2,7 @@ package vehicle
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"sync"
 
@@ -56,12 +57,11 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 	d.outs[0] = powersplit.OutputDemand{Speed: out, Torque: outTorque}
 	err := d.solver.Solve(powersplit.Point{Range: rng, Input: engine, Outputs: d.outs}, &d.st)
 	if err != nil {
-		switch {
-		case errors.Is(err, powersplit.ErrInput):
-			return DrivePoint{}, errors.Join(ErrInvalid, err)
-		default:
-			return DrivePoint{}, errors.Join(ErrTransmission, err)
+		// One line, the cause after the kind: "%w: %w" keeps both for errors.Is.
+		if errors.Is(err, powersplit.ErrInput) {
+			return DrivePoint{}, fmt.Errorf("%w: %w", ErrInvalid, err)
 		}
+		return DrivePoint{}, fmt.Errorf("%w: %w", ErrTransmission, err)
 	}
 	st := &d.st
 	var hydro float64

@@ -2,6 +2,7 @@ package vehicle
 
 import (
 	"errors"
+	"fmt"
 	"math"
 
 	"github.com/powersplit-dev/powersplit/internal/numeric"
@@ -66,7 +67,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 	for r := range v.s.Transmission.Ranges() {
 		p, err := refine(v, d, r, e.speeds(lo, hi, n), tol)
 		if err != nil {
-			errs = append(errs, err)
+			errs = append(errs, fmt.Errorf("range %d: %w", r, err))
 			continue
 		}
 		if !found || p.FuelRate < best.FuelRate {
@@ -155,7 +156,7 @@ func bestRange(v *Vehicle, d Demand, ws []units.AngularVelocity) (Point, error) 
 		for r := range ranges {
 			p, err := v.At(d, w, r)
 			if err != nil {
-				errs = append(errs, err)
+				errs = append(errs, fmt.Errorf("range %d at %.0f rpm: %w", r, w.RPM(), err))
 				continue
 			}
 			if !found || p.FuelRate < best.FuelRate {
