@@ -62,6 +62,9 @@ type Solver struct {
 	dpPrev    []float64 // loop pressures of the system last solved
 	full      bool      // solve by full LU (after converging on the factored systems)
 	noFactor  bool      // tests: always solve by full LU
+
+	slab  []LimitError           // fresh errors (limitErr)
+	hslab []hydrostat.LimitError // fresh causes (loopLimit)
 }
 
 // Settings of the iteration.
@@ -176,8 +179,8 @@ func (s *Solver) Solve(p Point, st *State) error {
 	}
 	if r.maxOut > 0 && math.Abs(s.outW[0]) > r.maxOut*(1+1e-12) {
 		s.fill(st, p, r, 0, 0)
-		return &LimitError{Element: r.name, Quantity: "output speed", Value: math.Abs(s.outW[0]),
-			Limit: r.maxOut, Unit: "rad/s", Err: ErrInfeasible}
+		return s.limitErr(LimitError{Element: r.name, Quantity: "output speed", Value: math.Abs(s.outW[0]),
+			Limit: r.maxOut, Unit: "rad/s", Err: ErrInfeasible})
 	}
 	// Speed limits of the units do not depend on the torques.
 	if err := s.unitSpeeds(); err != nil {
@@ -286,8 +289,8 @@ func (s *Solver) iterate(r *rangeDef, p *Point, update bool, it0 int) (bool, int
 			if lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge); lim > 0 && math.Abs(nd) > lim {
 				s.over[j]++
 				if s.over[j] >= 3 {
-					return false, it, &LimitError{Element: el.name, Quantity: "relief pressure",
-						Value: math.Abs(nd) + float64(el.lspec.Charge), Limit: float64(el.lspec.Relief), Unit: "Pa", Err: ErrInfeasible}
+					return false, it, s.limitErr(LimitError{Element: el.name, Quantity: "relief pressure",
+						Value: math.Abs(nd) + float64(el.lspec.Charge), Limit: float64(el.lspec.Relief), Unit: "Pa", Err: ErrInfeasible})
 				}
 				nd = math.Copysign(lim, nd)
 			} else {
@@ -443,23 +446,25 @@ func (s *Solver) bracket(r *rangeDef, p *Point) (bool, error) {
 			px, pf = x, fx
 		}
 	}
-	noBalance := &LimitError{Element: el.name, Quantity: "loop pressure (no torque balance up to 1.5 × relief)", Value: lim + float64(el.lspec.Charge),
-		Limit: float64(el.lspec.Relief), Unit: "Pa", Err: ErrInfeasible}
+	noBalance := func() error {
+		return s.limitErr(LimitError{Element: el.name, Quantity: "loop pressure (no torque balance up to 1.5 × relief)", Value: lim + float64(el.lspec.Charge),
+			Limit: float64(el.lspec.Relief), Unit: "Pa", Err: ErrInfeasible})
+	}
 	if best < 0 {
-		return false, noBalance
+		return false, noBalance()
 	}
 	dp, err := numeric.Brent(f, lo, hi, 0, 200)
 	if ferr != nil {
 		return false, ferr
 	}
 	if err != nil {
-		return false, noBalance
+		return false, noBalance()
 	}
 	// A sign change through a pole of F (the linearised system turning
 	// singular where a unit's torque peaks) is no balance: the loop cannot
 	// give the torque the point needs at any pressure.
 	if fx := f(dp); ferr != nil || bad(fx) || math.Abs(fx) > 1e-6*math.Max(math.Abs(dp), pScale) {
-		return false, noBalance
+		return false, noBalance()
 	}
 	s.dp[0] = dp
 	return true, nil
@@ -591,8 +596,8 @@ func (s *Solver) unitSpeeds() error {
 		for k, sh := range el.shafts {
 			ms := float64(el.uspec[k].MaxSpeed)
 			if ms > 0 && math.Abs(s.w[sh]) > ms*(1+1e-12) {
-				return &LimitError{Element: el.name, Quantity: el.unames[k][1], Value: math.Abs(s.w[sh]), Limit: ms,
-					Unit: "rad/s", Err: ErrInfeasible}
+				return s.limitErr(LimitError{Element: el.name, Quantity: el.unames[k][1], Value: math.Abs(s.w[sh]), Limit: ms,
+					Unit: "rad/s", Err: ErrInfeasible})
 			}
 		}
 	}
@@ -614,11 +619,9 @@ func (s *Solver) evalLoops(final bool) error {
 		}
 		wp := units.AngularVelocity(s.w[el.shafts[0]])
 		dp := s.dp[j]
-		var err error
-		if final {
-			err = el.loop.At(wp, s.mw[j], units.Pressure(dp), &s.loopA[j])
-		} else {
-			err = el.loop.Trial(wp, s.mw[j], units.Pressure(dp), &s.loopA[j])
+		err := el.loop.Trial(wp, s.mw[j], units.Pressure(dp), &s.loopA[j])
+		if final && isLimit(err) && s.loopA[j].Limit.Err != nil {
+			return s.loopLimit(el.name, &s.loopA[j].Limit)
 		}
 		if err != nil && (final || !isLimit(err)) {
 			return loopErr(el.name, err, &s.loopA[j])
@@ -675,6 +678,48 @@ func (s *Solver) remember(j, u0, nk int, dp float64) {
 	for k := range nk {
 		s.prevT[u0+k] = unitTorque(&s.loopA[j], k)
 	}
+}
+
+// loopLimit is the error of a crossed limit of loop name, from the value
+// the loop state holds: what loopErr makes of the *hydrostat.LimitError
+// that Loop.At would return, both errors taken from the solver's slabs.
+func (s *Solver) loopLimit(name string, hl *hydrostat.LimitError) error {
+	cause := s.newHydroLimit()
+	*cause = *hl
+	sent := ErrInfeasible
+	if errors.Is(cause, hydrostat.ErrSettingLimit) {
+		sent = ErrUnreachable
+	}
+	return s.limitErr(LimitError{Element: name, Quantity: cause.Quantity, Value: finiteOr(cause.Value, 0),
+		Limit: finiteOr(cause.Limit, 0), Unit: cause.Unit, Err: sent, Cause: cause})
+}
+
+// slabSize is the number of errors a slab holds.
+const slabSize = 64
+
+// limitErr returns a copy of e from the solver's slab of errors. A map
+// whose cells cross limits would otherwise allocate an error per cell, and
+// the garbage collector's work on those (tens of thousands per map) costs
+// more of the parallel speed-up than anything else. An error from a slab
+// is never reused: the slab lives as long as any of its errors.
+func (s *Solver) limitErr(e LimitError) *LimitError {
+	if len(s.slab) == 0 {
+		s.slab = make([]LimitError, slabSize)
+	}
+	p := &s.slab[0]
+	s.slab = s.slab[1:]
+	*p = e
+	return p
+}
+
+// newHydroLimit returns a fresh *hydrostat.LimitError from the solver's slab.
+func (s *Solver) newHydroLimit() *hydrostat.LimitError {
+	if len(s.hslab) == 0 {
+		s.hslab = make([]hydrostat.LimitError, slabSize)
+	}
+	p := &s.hslab[0]
+	s.hslab = s.hslab[1:]
+	return p
 }
 
 // isLimit reports whether err is a *hydrostat.LimitError (errors.AsType:

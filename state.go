@@ -379,7 +379,7 @@ func (s *Solver) limits(st *State) error {
 		if len(m.Quantity) > 7 && m.Quantity[len(m.Quantity)-7:] == "setting" {
 			sent = ErrUnreachable
 		}
-		return &LimitError{Element: m.Element, Quantity: m.Quantity, Value: m.Value, Limit: m.Limit, Unit: m.Unit, Err: sent}
+		return s.limitErr(LimitError{Element: m.Element, Quantity: m.Quantity, Value: m.Value, Limit: m.Limit, Unit: m.Unit, Err: sent})
 	}
 	return nil
 }

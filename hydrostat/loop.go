@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"strconv"
 
 	"github.com/powersplit-dev/powersplit/internal/numeric"
 	"github.com/powersplit-dev/powersplit/units"
@@ -30,6 +31,7 @@ type Loop struct {
 	spec  LoopSpec
 	fl    fluid
 	sched Schedule
+	names [][2]string // per unit (pump first): the names of its pressure and speed limits
 }
 
 // NewLoop validates s and returns the loop. The Motors slice is copied.
@@ -62,7 +64,13 @@ func NewLoop(s LoopSpec) (Loop, error) {
 			return Loop{}, err
 		}
 	}
-	return Loop{spec: s, fl: fl, sched: s.Schedule}, nil
+	names := make([][2]string, 1+len(s.Motors))
+	names[0] = [2]string{"pump pressure", "pump speed"}
+	for i := range s.Motors {
+		m := "motor " + strconv.Itoa(i)
+		names[i+1] = [2]string{m + " pressure", m + " speed"}
+	}
+	return Loop{spec: s, fl: fl, sched: s.Schedule, names: names}, nil
 }
 
 // Spec returns the specification (with a copy of the motors and the
@@ -164,7 +172,11 @@ type LoopState struct {
 	Pump      Point          // in the pump's frame (its Pressure = p_A − p_B)
 	Motors    []Point        // in each motor's frame (its Pressure = p_B − p_A); storage reused by At
 	Settings  []float64      // Settings[0] the pump, Settings[1:] the motors; storage reused by At
-	Leakage   units.VolumeFlow
+	// Limit is the first rated limit the state crosses, as At reports it
+	// (settings, relief pressure, then each unit's peak pressure and
+	// speed); Limit.Err is nil when none is crossed.
+	Limit   LimitError
+	Leakage units.VolumeFlow
 	// ChargeFlow is the flow the charge pump must supply if all leakage
 	// drains to the cases: equal to Leakage.
 	ChargeFlow units.VolumeFlow
@@ -240,41 +252,56 @@ func (l Loop) atQ(sched Schedule, pumpSpeed units.AngularVelocity, motorSpeeds [
 		}
 	}
 	st.size(n)
-	var first error
+	st.Limit = LimitError{}
+	var schedErr error // the schedule's own limit error, as it gave it
 	if sq, ok := sched.(Sequential); ok {
-		first = sq.settingsQ(&l, pumpSpeed, motorSpeeds, dp, st.Settings, quiet)
-	} else {
-		first = sched.Settings(l, pumpSpeed, motorSpeeds, dp, st.Settings)
-	}
-	if first != nil && !isLimit(first) && first != ErrSettingLimit {
-		return first
+		sl, err := sq.settingsV(&l, pumpSpeed, motorSpeeds, dp, st.Settings)
+		if err != nil {
+			return err
+		}
+		if sl.hit {
+			st.Limit = sl.value()
+		}
+	} else if err := sched.Settings(l, pumpSpeed, motorSpeeds, dp, st.Settings); err != nil {
+		le, ok := errors.AsType[*LimitError](err)
+		if !ok {
+			return err
+		}
+		st.Limit, schedErr = *le, err
 	}
 	if err := l.fill(pumpSpeed, motorSpeeds, dp, st); err != nil {
 		return err
 	}
-	if first != nil {
-		return first
+	if st.Limit.Err == nil {
+		l.crossed(st)
 	}
-	if quiet {
-		return l.limitsQuiet(st)
+	switch {
+	case st.Limit.Err == nil:
+		return nil
+	case quiet:
+		return st.Limit.Err
+	case schedErr != nil:
+		return schedErr
 	}
-	return l.limits(st)
+	out := st.Limit
+	return &out
 }
 
-// limitsQuiet is limits reporting the bare sentinel.
-func (l *Loop) limitsQuiet(st *LoopState) error {
+// crossed records in st.Limit the first rated limit of the loop's pressure
+// and its units that st crosses, if any.
+func (l *Loop) crossed(st *LoopState) {
 	if st.High > l.spec.Relief {
-		return ErrPressureLimit
+		st.Limit = LimitError{Quantity: "relief pressure", Value: st.High.Bar(), Limit: l.spec.Relief.Bar(), Unit: "bar", Err: ErrPressureLimit}
+		return
 	}
-	if err := l.spec.Pump.limitQuiet(&st.Pump); err != nil {
-		return err
+	if l.spec.Pump.crossed(&st.Pump, &l.names[0], &st.Limit) {
+		return
 	}
-	for i := range l.spec.Motors {
-		if err := l.spec.Motors[i].limitQuiet(&st.Motors[i]); err != nil {
-			return err
+	for i := range st.Motors {
+		if l.spec.Motors[i].crossed(&st.Motors[i], &l.names[i+1], &st.Limit) {
+			return
 		}
 	}
-	return nil
 }
 
 // isLimit reports whether err is a *LimitError.
@@ -320,21 +347,6 @@ func (l *Loop) fill(wp units.AngularVelocity, wms []units.AngularVelocity, dp un
 	st.Efficiency = 1
 	if in > 0 {
 		st.Efficiency = math.Max(0, math.Min(1, out/in))
-	}
-	return nil
-}
-
-func (l *Loop) limits(st *LoopState) error {
-	if st.High > l.spec.Relief {
-		return &LimitError{Quantity: "relief pressure", Value: st.High.Bar(), Limit: l.spec.Relief.Bar(), Unit: "bar", Err: ErrPressureLimit}
-	}
-	if err := l.spec.Pump.limits(&st.Pump, "pump", -1); err != nil {
-		return err
-	}
-	for i := range st.Motors {
-		if err := l.spec.Motors[i].limits(&st.Motors[i], "motor", i); err != nil {
-			return err
-		}
 	}
 	return nil
 }

@@ -69,30 +69,28 @@ func (s Sequential) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeed
 // settings is Settings on a *Loop: Loop.At calls it directly (no interface
 // call, no copy of the loop).
 func (s Sequential) settings(l *Loop, pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, settings []float64) error {
-	return s.settingsQ(l, pumpSpeed, motorSpeeds, dp, settings, false)
+	sl, err := s.settingsV(l, pumpSpeed, motorSpeeds, dp, settings)
+	if err == nil && sl.hit {
+		return sl.err()
+	}
+	return err
 }
 
-// settingsQ is settings; with quiet set a setting limit is reported by the
-// bare ErrSettingLimit (no allocation).
-func (s Sequential) settingsQ(l *Loop, pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, settings []float64, quiet bool) error {
+// settingsV is settings with a setting limit returned as a value (no
+// allocation): err is nil then and sl.hit is set.
+func (s Sequential) settingsV(l *Loop, pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, dp units.Pressure, settings []float64) (sl setLimit, err error) {
 	if err := checkArgs(l, motorSpeeds, settings); err != nil {
-		return err
+		return setLimit{}, err
 	}
 	if err := validMin(s.MinMotorSetting); err != nil {
-		return err
+		return setLimit{}, err
 	}
-	xp, sm, lim, err := sequential(l, minSetting(s.MinMotorSetting), float64(pumpSpeed), motorSpeeds, float64(dp))
+	xp, sm, sl, err := sequential(l, minSetting(s.MinMotorSetting), float64(pumpSpeed), motorSpeeds, float64(dp))
 	settings[0] = xp
 	for i := 1; i < len(settings); i++ {
 		settings[i] = sm
 	}
-	if err == nil && lim.hit {
-		if quiet {
-			return ErrSettingLimit
-		}
-		return lim.err()
-	}
-	return err
+	return sl, err
 }
 
 // pumpFor solves the pump setting for the motors at the common setting sm.
@@ -149,8 +147,13 @@ type setLimit struct {
 	need, lim float64
 }
 
+func (s setLimit) value() LimitError {
+	return LimitError{Quantity: "motor setting", Value: s.need, Limit: s.lim, Err: ErrSettingLimit}
+}
+
 func (s setLimit) err() error {
-	return &LimitError{Quantity: "motor setting", Value: s.need, Limit: s.lim, Err: ErrSettingLimit}
+	e := s.value()
+	return &e
 }
 
 func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float64) (xp, sm float64, sl setLimit, err error) {

@@ -3,7 +3,6 @@ package hydrostat
 import (
 	"fmt"
 	"math"
-	"strconv"
 
 	"github.com/powersplit-dev/powersplit/internal/numeric"
 	"github.com/powersplit-dev/powersplit/units"
@@ -287,7 +286,7 @@ func (u Unit) At(setting float64, w units.AngularVelocity, dp units.Pressure, oi
 	if err := u.eval(setting, float64(w), float64(dp), f, &p); err != nil {
 		return Point{}, err
 	}
-	return p, u.limits(&p, "unit", -1)
+	return p, u.limits(&p)
 }
 
 func sgn(x float64) float64 {
@@ -389,33 +388,32 @@ func clamp01(v float64) float64 {
 	return v
 }
 
+// unitNames names the limits of a unit evaluated on its own.
+var unitNames = [2]string{"unit pressure", "unit speed"}
+
 // limits returns a *LimitError for the first rated limit p crosses.
-// who names the unit; idx ≥ 0 is appended ("motor 1"), built only on error.
-func (u *Unit) limits(p *Point, who string, idx int) error {
-	name := func(q string) string {
-		if idx >= 0 {
-			who += " " + strconv.Itoa(idx)
-		}
-		return who + " " + q
+func (u *Unit) limits(p *Point) error {
+	var e LimitError
+	if !u.crossed(p, &unitNames, &e) {
+		return nil
 	}
-	if pk := float64(u.spec.PeakPressure); pk > 0 && math.Abs(float64(p.Pressure)) > pk {
-		return &LimitError{Quantity: name("pressure"), Value: math.Abs(p.Pressure.Bar()), Limit: u.spec.PeakPressure.Bar(), Unit: "bar", Err: ErrPressureLimit}
-	}
-	if ms := float64(u.spec.MaxSpeed); ms > 0 && math.Abs(float64(p.Speed)) > ms {
-		return &LimitError{Quantity: name("speed"), Value: math.Abs(p.Speed.RPM()), Limit: u.spec.MaxSpeed.RPM(), Unit: "rpm", Err: ErrSpeedLimit}
-	}
-	return nil
+	out := e // on the heap only when a limit is crossed
+	return &out
 }
 
-// limitQuiet is limits reporting the bare sentinel.
-func (u *Unit) limitQuiet(p *Point) error {
+// crossed reports whether p crosses a rated limit of u (peak pressure, then
+// maximum speed) and, if so, writes it into e; names are the quantities'
+// names (pressure, speed).
+func (u *Unit) crossed(p *Point, names *[2]string, e *LimitError) bool {
 	if pk := float64(u.spec.PeakPressure); pk > 0 && math.Abs(float64(p.Pressure)) > pk {
-		return ErrPressureLimit
+		*e = LimitError{Quantity: names[0], Value: math.Abs(p.Pressure.Bar()), Limit: u.spec.PeakPressure.Bar(), Unit: "bar", Err: ErrPressureLimit}
+		return true
 	}
 	if ms := float64(u.spec.MaxSpeed); ms > 0 && math.Abs(float64(p.Speed)) > ms {
-		return ErrSpeedLimit
+		*e = LimitError{Quantity: names[1], Value: math.Abs(p.Speed.RPM()), Limit: u.spec.MaxSpeed.RPM(), Unit: "rpm", Err: ErrSpeedLimit}
+		return true
 	}
-	return nil
+	return false
 }
 
 // isBareLimit reports whether err is one of the limit sentinels themselves
@@ -479,5 +477,5 @@ func (u Unit) PressureFor(setting float64, w units.AngularVelocity, t units.Torq
 	if e := u.eval(setting, float64(w), dp, f, &p); e != nil {
 		return Point{}, e
 	}
-	return p, u.limits(&p, "unit", -1)
+	return p, u.limits(&p)
 }
