@@ -62,12 +62,12 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 	var (
 		best  Point
 		found bool
-		errs  []error
+		tries []try
 	)
 	for r := range v.s.Transmission.Ranges() {
 		p, err := refine(v, d, r, e.speeds(lo, hi, n), tol)
 		if err != nil {
-			errs = append(errs, fmt.Errorf("range %d: %w", r, err))
+			tries = append(tries, try{rng: r, err: err})
 			continue
 		}
 		if !found || p.FuelRate < best.FuelRate {
@@ -75,7 +75,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 		}
 	}
 	if !found {
-		return Point{}, infeasible(errs...)
+		return Point{}, infeasibleTries(tries)
 	}
 	return best, nil
 }
@@ -150,13 +150,13 @@ func bestRange(v *Vehicle, d Demand, ws []units.AngularVelocity) (Point, error) 
 	var (
 		best  Point
 		found bool
-		errs  []error
+		tries []try
 	)
 	for _, w := range ws {
 		for r := range ranges {
 			p, err := v.At(d, w, r)
 			if err != nil {
-				errs = append(errs, fmt.Errorf("range %d at %.0f rpm: %w", r, w.RPM(), err))
+				tries = append(tries, try{rng: r, engine: w, err: err})
 				continue
 			}
 			if !found || p.FuelRate < best.FuelRate {
@@ -165,7 +165,7 @@ func bestRange(v *Vehicle, d Demand, ws []units.AngularVelocity) (Point, error) 
 		}
 	}
 	if !found {
-		return Point{}, infeasible(errs...)
+		return Point{}, infeasibleTries(tries)
 	}
 	return best, nil
 }
@@ -177,6 +177,27 @@ func ptoEngineSpeeds(v *Vehicle, d Demand) ([]units.AngularVelocity, error) {
 		return nil, nil
 	}
 	return v.s.PTO.EngineSpeeds(d.PTOSpeed)
+}
+
+// try is one range (and engine speed, if fixed) a strategy tried in vain.
+type try struct {
+	rng    int
+	engine units.AngularVelocity // 0: the strategy searched the engine speed
+	err    error
+}
+
+// infeasibleTries is infeasible with each try's error named by its range
+// (and engine speed); the names are built only when every try failed.
+func infeasibleTries(tries []try) error {
+	errs := make([]error, len(tries))
+	for i, t := range tries {
+		if t.engine != 0 {
+			errs[i] = fmt.Errorf("range %d at %.0f rpm: %w", t.rng, t.engine.RPM(), t.err)
+		} else {
+			errs[i] = fmt.Errorf("range %d: %w", t.rng, t.err)
+		}
+	}
+	return infeasible(errs...)
 }
 
 // infeasible joins ErrInfeasible with the limits met (one per range).
