@@ -290,7 +290,8 @@ func BenchmarkMap(b *testing.B) {
 // BenchmarkMapSpeedup solves the 200 × 200 map (50 × 50 in -short mode)
 // on 1 core (GOMAXPROCS 1, 1 worker) and on 2 (GOMAXPROCS 2, 2 workers) in
 // turn, each loop iteration both, and reports the parallel speed-up
-// t(1 core)/t(2 cores) as "x-speedup"; ns/op is for the pair. It needs
+// t(1 core)/t(2 cores) as "x-speedup" (best time of each over the
+// iterations) and "x-speedup-mean" (mean times); ns/op is for the pair. It needs
 // GOMAXPROCS ≥ 2 at the start and sets GOMAXPROCS itself, so one run on a
 // 2-core machine measures both side by side. On 1 core the garbage
 // collector and the runtime share the worker's core, as they would for a
@@ -306,6 +307,7 @@ func BenchmarkMapSpeedup(b *testing.B) {
 	}
 	one, two := benchMapSpec(n, 1), benchMapSpec(n, 2)
 	var t1, t2 time.Duration
+	best1, best2 := time.Duration(math.MaxInt64), time.Duration(math.MaxInt64)
 	b.ReportAllocs()
 	procs := runtime.GOMAXPROCS(0)
 	defer runtime.GOMAXPROCS(procs)
@@ -320,10 +322,14 @@ func BenchmarkMapSpeedup(b *testing.B) {
 		if _, err := l.Map(two); err != nil {
 			b.Fatal(err)
 		}
-		t1 += mid.Sub(start)
-		t2 += time.Since(mid)
+		d1, d2 := mid.Sub(start), time.Since(mid)
+		t1, t2 = t1+d1, t2+d2
+		best1, best2 = min(best1, d1), min(best2, d2)
 	}
-	b.ReportMetric(float64(t1)/float64(t2), "x-speedup")
+	// On a shared machine other load only ever adds time: the best of each
+	// is the cleaner measure; the mean is reported beside it.
+	b.ReportMetric(float64(best1)/float64(best2), "x-speedup")
+	b.ReportMetric(float64(t1)/float64(t2), "x-speedup-mean")
 	b.ReportMetric(float64(t1.Nanoseconds())/float64(b.N*n*n), "ns/point-1w")
 	b.ReportMetric(float64(t2.Nanoseconds())/float64(b.N*n*n), "ns/point-2w")
 	b.ReportMetric(cpuCeiling(testing.Short()), "x-cpu-ceiling")
@@ -402,21 +408,35 @@ func TestSolveAllocatesNothingOverPoints(t *testing.T) {
 }
 
 // TestMapWorkersIdentical checks that a map solved by 1 and by 4 workers
-// is bit-identical, cell by cell.
+// is bit-identical, cell by cell: a square map (the workers take rows) and
+// a wide one of 3 rows (the workers take chunks of cells).
 func TestMapWorkersIdentical(t *testing.T) {
 	l := benchLayout(t, true)
 	n := 40
 	if testing.Short() {
 		n = 16
 	}
-	m1, err := l.Map(benchMapSpec(n, 1))
-	if err != nil {
-		t.Fatal(err)
+	for _, rows := range []int{n, 3} {
+		spec1, spec4 := benchMapSpec(n, 1), benchMapSpec(n, 4)
+		spec1.TorqueSteps, spec4.TorqueSteps = rows, rows
+		m1, err := l.Map(spec1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		m4, err := l.Map(spec4)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if len(m1.Cells) != rows || len(m4.Cells) != rows {
+			t.Fatalf("%d rows: maps have %d and %d rows", rows, len(m1.Cells), len(m4.Cells))
+		}
+		compareMaps(t, m1, m4, n*rows)
 	}
-	m4, err := l.Map(benchMapSpec(n, 4))
-	if err != nil {
-		t.Fatal(err)
-	}
+}
+
+// compareMaps fails t unless m1 and m4 agree bit for bit.
+func compareMaps(t *testing.T, m1, m4 Map, cells int) {
+	t.Helper()
 	same := func(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
 	ok := 0
 	for i := range m1.Cells {
@@ -436,7 +456,7 @@ func TestMapWorkersIdentical(t *testing.T) {
 			}
 		}
 	}
-	if ok < n*n/4 {
-		t.Errorf("only %d of %d cells feasible; the map should exercise the solver", ok, n*n)
+	if ok < cells/4 {
+		t.Errorf("only %d of %d cells feasible; the map should exercise the solver", ok, cells)
 	}
 }

@@ -116,39 +116,43 @@ func checkAxis(field string, from, to float64, n int) error {
 // job solves one cell.
 type job func(s *Solver, st *State, p *Point, i int) Cell
 
-// runChunk is the number of consecutive cells a worker takes at a time:
-// large enough that the workers rarely meet on the shared counter or on
-// neighbouring cells, small enough to balance the load.
+// runChunk is the number of consecutive cells a worker takes at a time in
+// a sweep: large enough that the workers rarely meet on the shared counter
+// or on neighbouring cells, small enough to balance the load.
 const runChunk = 16
 
-// run solves n cells on workers goroutines, each with its own Solver.
-// Results depend only on the cell, never on the order or the worker, so
-// they are deterministic (and identical for any number of workers).
-func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) []Cell {
-	cells := make([]Cell, n)
+// run solves n cells in rows of cols (the last row may be shorter) on
+// workers goroutines, each with its own Solver. A worker takes a whole row
+// at a time and allocates it itself, so that the zeroing of a large result
+// (5 MB for a 200 × 200 map) is shared by the workers instead of preceding
+// them. Results depend only on the cell, never on the order or the worker,
+// so they are deterministic (and identical for any number of workers).
+func (l Layout) run(n, cols, workers int, progress func(int, int), p Point, f job) [][]Cell {
+	nrows := (n + cols - 1) / cols
+	rows := make([][]Cell, nrows)
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	workers = min(workers, n)
+	workers = min(workers, nrows)
 	var next atomic.Int64
 	var mu sync.Mutex
 	done := 0
 	var wg sync.WaitGroup
 	for range workers {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
+		wg.Go(func() {
 			s := NewSolver(l)
 			var st State
 			q := p
 			q.Outputs = append([]OutputDemand(nil), p.Outputs...)
 			for {
-				i0 := int(next.Add(runChunk)) - runChunk
-				if i0 >= n {
+				r := int(next.Add(1)) - 1
+				if r >= nrows {
 					return
 				}
-				for i := i0; i < min(i0+runChunk, n); i++ {
-					cells[i] = f(s, &st, &q, i)
+				i0, i1 := r*cols, min((r+1)*cols, n)
+				row := make([]Cell, i1-i0)
+				for i := i0; i < i1; i++ {
+					row[i-i0] = f(s, &st, &q, i)
 					if progress != nil {
 						mu.Lock()
 						done++
@@ -156,11 +160,12 @@ func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) []C
 						mu.Unlock()
 					}
 				}
+				rows[r] = row
 			}
-		}()
+		})
 	}
 	wg.Wait()
-	return cells
+	return rows
 }
 
 // solveCell solves q in range rg (or Auto) and summarises it.
@@ -221,7 +226,7 @@ func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
 	}
 	vs := axis(float64(spec.From), float64(spec.To), spec.Steps)
 	p := l.point(spec.Input, spec.PTO)
-	cells := l.run(len(vs), spec.Workers, spec.Progress, p, func(s *Solver, st *State, q *Point, i int) Cell {
+	rows := l.run(len(vs), runChunk, spec.Workers, spec.Progress, p, func(s *Solver, st *State, q *Point, i int) Cell {
 		for k := range q.Outputs {
 			q.Outputs[k] = OutputDemand{Speed: units.AngularVelocity(vs[i])}
 		}
@@ -231,6 +236,10 @@ func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
 		}
 		return powerCell(s, st, q, spec.Range, spec.Policy, float64(spec.Power))
 	})
+	cells := make([]Cell, 0, len(vs))
+	for _, r := range rows {
+		cells = append(cells, r...)
+	}
 	out := Sweep{Speeds: make([]units.AngularVelocity, len(vs)), Cells: cells}
 	for i, v := range vs {
 		out.Speeds[i] = units.AngularVelocity(v)
@@ -295,20 +304,38 @@ func (l Layout) Map(spec MapSpec) (Map, error) {
 	ts := axis(float64(spec.TorqueFrom), float64(spec.TorqueTo), spec.TorqueSteps)
 	nv := len(vs)
 	p := l.point(spec.Input, spec.PTO)
-	flat := l.run(nv*len(ts), spec.Workers, spec.Progress, p, func(s *Solver, st *State, q *Point, i int) Cell {
+	// A worker takes a row of the map at a time, unless there are too few
+	// rows to share among the workers: then chunks, joined afterwards.
+	cols, workers := nv, spec.Workers
+	if workers <= 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	if len(ts) < 4*workers {
+		cols = runChunk
+	}
+	rows := l.run(nv*len(ts), cols, spec.Workers, spec.Progress, p, func(s *Solver, st *State, q *Point, i int) Cell {
 		for k := range q.Outputs {
 			q.Outputs[k] = OutputDemand{Speed: units.AngularVelocity(vs[i%nv])}
 		}
 		q.Outputs[0].Torque = units.Torque(ts[i/nv])
 		return solveCell(s, st, q, spec.Range, spec.Policy)
 	})
-	m := Map{Speeds: make([]units.AngularVelocity, nv), Torques: make([]units.Torque, len(ts)), Cells: make([][]Cell, len(ts))}
+	if cols != nv {
+		flat := make([]Cell, 0, nv*len(ts))
+		for _, r := range rows {
+			flat = append(flat, r...)
+		}
+		rows = make([][]Cell, len(ts))
+		for i := range rows {
+			rows[i] = flat[i*nv : (i+1)*nv : (i+1)*nv]
+		}
+	}
+	m := Map{Speeds: make([]units.AngularVelocity, nv), Torques: make([]units.Torque, len(ts)), Cells: rows}
 	for j, v := range vs {
 		m.Speeds[j] = units.AngularVelocity(v)
 	}
 	for i, t := range ts {
 		m.Torques[i] = units.Torque(t)
-		m.Cells[i] = flat[i*nv : (i+1)*nv : (i+1)*nv]
 	}
 	return m, nil
 }
