@@ -236,6 +236,18 @@ func addRanges(b *Builder, c *specCheck, from, alt Shaft, reverseAlt bool, out S
 	}
 }
 
+// checkSplit checks the gear ratios, gear efficiency and loop of a
+// single-set split and returns the check and the gear efficiency to use.
+func checkSplit(input, pump, motor, eff float64, loop hydrostat.Loop) (specCheck, float64) {
+	var c specCheck
+	c.ratio("InputRatio", input, true)
+	c.ratio("PumpRatio", pump, true)
+	c.ratio("MotorRatio", motor, true)
+	c.eff("GearEfficiency", eff)
+	c.loop(loop, 1)
+	return c, orDefault(eff, DefaultGearEfficiency)
+}
+
 // OutputCoupled builds an output-coupled split from spec. The motor may turn
 // either way, so the hydrostat gives reverse without a reverse gear. At the
 // mechanical point the pump shaft stands still and the motor must swing back
@@ -243,16 +255,10 @@ func addRanges(b *Builder, c *specCheck, from, alt Shaft, reverseAlt bool, out S
 // (hydrostat.Sequential: 0.2 by default) a band of output speeds around it
 // is unreachable (ErrUnreachable).
 func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
-	var c specCheck
-	c.ratio("InputRatio", spec.InputRatio, true)
-	c.ratio("PumpRatio", spec.PumpRatio, true)
-	c.ratio("MotorRatio", spec.MotorRatio, true)
-	c.eff("GearEfficiency", spec.GearEfficiency)
-	c.loop(spec.Loop, 1)
+	c, eta := checkSplit(spec.InputRatio, spec.PumpRatio, spec.MotorRatio, spec.GearEfficiency, spec.Loop)
 	if c.err != nil {
 		return Layout{}, c.err
 	}
-	eta := orDefault(spec.GearEfficiency, DefaultGearEfficiency)
 	in, pm, om := spec.Input, spec.Pump, spec.Output
 	if in == 0 && pm == 0 && om == 0 {
 		in, pm, om = planetary.Carrier, planetary.Sun, planetary.Ring
@@ -275,16 +281,10 @@ func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
 
 // InputCoupled builds an input-coupled split from spec.
 func InputCoupled(spec InputCoupledSpec) (Layout, error) {
-	var c specCheck
-	c.ratio("InputRatio", spec.InputRatio, true)
-	c.ratio("PumpRatio", spec.PumpRatio, true)
-	c.ratio("MotorRatio", spec.MotorRatio, true)
-	c.eff("GearEfficiency", spec.GearEfficiency)
-	c.loop(spec.Loop, 1)
+	c, eta := checkSplit(spec.InputRatio, spec.PumpRatio, spec.MotorRatio, spec.GearEfficiency, spec.Loop)
 	if c.err != nil {
 		return Layout{}, c.err
 	}
-	eta := orDefault(spec.GearEfficiency, DefaultGearEfficiency)
 	in, mm, om := spec.Input, spec.Motor, spec.Output
 	if in == 0 && mm == 0 && om == 0 {
 		in, mm, om = planetary.Ring, planetary.Sun, planetary.Carrier
