@@ -102,9 +102,13 @@
 // the motors at full; then the motors swing back with the pump at full) or
 // MinLoss (the free motor setting at which the loop loss is least for the
 // torque the motors carry). Loop.Solve takes torque demands and finds Δp;
-// with MinLoss its result minimises the loss for that demand. Reaching the relief pressure, a unit's
-// speed or peak pressure, or a setting limit returns a *LimitError with the
-// value and the limit (errors.Is(err, ErrLimit)), together with the state.
+// with MinLoss its result minimises the loss for that demand. Reaching the
+// relief pressure, a unit's speed or peak pressure, or a setting limit
+// returns a *LimitError with the value and the limit (errors.Is(err,
+// ErrLimit)), together with the state, which holds the same limit as a
+// value (LoopState.Limit). Loop.Trial is At for the inner loop of a
+// caller's iteration: the same state, the crossed limit reported by its
+// bare sentinel, and no allocation.
 //
 // # Usage
 //
