@@ -5,6 +5,8 @@ import (
 	"math"
 	"testing"
 
+	"github.com/google/go-cmp/cmp"
+	"github.com/google/go-cmp/cmp/cmpopts"
 	"github.com/powersplit-dev/powersplit/internal/testutil"
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -335,5 +337,47 @@ func TestLoopFourQuadrants(t *testing.T) {
 			t.Errorf("%s: pump setting %v", c.name, st.Settings[0])
 		}
 		checkLoopState(t, &st)
+	}
+}
+
+// TestLoopTrial checks that Trial fills the same state as At, reports a
+// crossed limit by its bare sentinel (the limit itself in st.Limit, equal
+// to At's *LimitError) and allocates nothing, at limits too.
+func TestLoopTrial(t *testing.T) {
+	// Not parallel: testing.AllocsPerRun.
+	l := demoLoop(t, 1, nil)
+	cases := []struct {
+		name   string
+		wp, wm float64 // rpm
+		bar    float64
+		want   error
+	}{
+		{"inside", 2000, 1000, 200, nil},
+		{"relief", 2000, 1000, 440, ErrPressureLimit},
+		{"pump speed", 3500, 1000, 100, ErrSpeedLimit},
+		{"motor speed", 2000, 4200, 100, ErrSpeedLimit},
+		{"motor setting", 500, 3000, 100, ErrSettingLimit},
+	}
+	for _, c := range cases {
+		ms := []units.AngularVelocity{units.RPM(c.wm)}
+		var a, b LoopState
+		errA := l.At(units.RPM(c.wp), ms, units.Bar(c.bar), &a)
+		errB := l.Trial(units.RPM(c.wp), ms, units.Bar(c.bar), &b)
+		if errB != c.want || (c.want == nil) != (errA == nil) || (c.want != nil && !errors.Is(errA, c.want)) {
+			t.Errorf("%s: At %v, Trial %v; want %v", c.name, errA, errB, c.want)
+			continue
+		}
+		if !cmp.Equal(a, b, cmpopts.EquateErrors()) {
+			t.Errorf("%s: states differ:\n%s", c.name, cmp.Diff(a, b, cmpopts.EquateErrors()))
+		}
+		if le, ok := errors.AsType[*LimitError](errA); ok && *le != b.Limit {
+			t.Errorf("%s: At's error %+v, Trial's state.Limit %+v", c.name, *le, b.Limit)
+		}
+		if c.want == nil && b.Limit.Err != nil {
+			t.Errorf("%s: Limit %+v without an error", c.name, b.Limit)
+		}
+		if n := testing.AllocsPerRun(20, func() { _ = l.Trial(units.RPM(c.wp), ms, units.Bar(c.bar), &b) }); n != 0 {
+			t.Errorf("%s: Trial allocates %v times", c.name, n)
+		}
 	}
 }
