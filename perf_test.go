@@ -13,6 +13,7 @@ import (
 
 	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/internal/testutil"
+	"github.com/powersplit-dev/powersplit/units"
 )
 
 // TestPropertyFactoredMatchesFull: the solver with its factored reference
@@ -194,4 +195,59 @@ func TestLUBackwardStable(t *testing.T) {
 			t.Fatalf("residual %g against ‖A‖‖x‖ + ‖b‖ = %g", rn, an*xn+bn)
 		}
 	})
+}
+
+// TestSlabErrorsKept checks that the errors a Solver returns from its slabs
+// stay as they were returned: the infeasible points of a map-like sweep in
+// a row (unit speed, relief and setting limits), each error kept, none
+// changed by the later ones.
+func TestSlabErrorsKept(t *testing.T) {
+	t.Parallel()
+	s := NewSolver(benchLayout(t, true))
+	var st State
+	type kept struct {
+		err  error
+		copy LimitError
+		hl   hydrostat.LimitError // the cause's copy, if a loop limit
+	}
+	var all []kept
+	settings := 0
+	for k := range 1000 {
+		p := Point{Range: 1, Input: units.RPM(2000),
+			Outputs: []OutputDemand{{Speed: units.RPM(300 + 24*float64(k%50)), Torque: units.NewtonMetres(-1500 + 90*float64(k/50))}},
+			PTO:     []units.Torque{0}}
+		err := s.Solve(p, &st)
+		if err == nil {
+			continue
+		}
+		le, ok := errors.AsType[*LimitError](err)
+		if !ok {
+			t.Fatalf("point %d: %v, want a *LimitError", k, err)
+		}
+		c := kept{err: err, copy: *le}
+		if hl, ok := errors.AsType[*hydrostat.LimitError](le.Cause); ok {
+			c.hl = *hl
+			if errors.Is(hl, hydrostat.ErrSettingLimit) {
+				settings++
+			}
+		}
+		all = append(all, c)
+	}
+	if len(all) < 3*slabSize || settings < slabSize+1 {
+		t.Fatalf("%d errors, %d setting limits: too few to fill several slabs", len(all), settings)
+	}
+	seen := map[*LimitError]bool{}
+	for k, c := range all {
+		le, _ := errors.AsType[*LimitError](c.err)
+		if seen[le] {
+			t.Fatalf("error %d: %p returned twice", k, le)
+		}
+		seen[le] = true
+		if *le != c.copy {
+			t.Errorf("error %d changed after it was returned: %+v, was %+v", k, *le, c.copy)
+		}
+		if hl, ok := errors.AsType[*hydrostat.LimitError](le.Cause); ok && *hl != c.hl {
+			t.Errorf("cause of error %d changed: %+v, was %+v", k, *hl, c.hl)
+		}
+	}
 }
