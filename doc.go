@@ -80,9 +80,10 @@
 // on Δp through their loss models, so the solver iterates: a lossless first
 // pass, then loss directions from the powers of the last solution and each
 // loop linearised about its last Δp (a quasi-Newton method: the slope
-// ∂T/∂Δp of each unit from a finite step at the first iterate, then from the
-// last two iterates, a secant), until Δp stops changing and no direction
-// changes. Iterates beyond
+// ∂T/∂Δp of each unit is that of its ideal torque at the first iterate,
+// then a secant through the last two iterates, and a finite step where
+// neither serves), until Δp stops changing and no direction changes.
+// Iterates beyond
 // 1.5 times the relief pressure are held there, and a point that keeps
 // asking for more is infeasible. Where Newton's method does not settle (loss
 // models with kinks, a unit near zero displacement) the pressure of a single

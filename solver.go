@@ -633,6 +633,9 @@ func (s *Solver) evalLoops(final bool) error {
 		if s.secant && s.havePrev[j] && s.secantSlopes(j, u0, nk, dp) {
 			continue
 		}
+		if s.secant && !s.havePrev[j] && s.idealSlopes(j, u0, nk, dp) {
+			continue
+		}
 		h := dStep(dp)
 		if dp < 0 {
 			h = -h // step away from zero, where the loss terms change sign
@@ -667,6 +670,30 @@ func (s *Solver) secantSlopes(j, u0, nk int, dp float64) bool {
 	}
 	for k := range nk {
 		s.ld[u0+k] = (unitTorque(&s.loopA[j], k) - s.prevT[u0+k]) / step
+	}
+	s.remember(j, u0, nk, dp)
+	return true
+}
+
+// idealSlopes sets the slopes of loop j's units at the start of the main
+// iteration to those of the ideal torques at the settings of this iterate,
+// ∂T/∂Δp = x·D for the pump and −x·D for each motor (whose pressure is
+// −Δp), and reports whether it did: not when a setting is zero or not
+// finite, where the finite difference is needed. The loss torques' share
+// of the slope enters with the first secant.
+func (s *Solver) idealSlopes(j, u0, nk int, dp float64) bool {
+	st := &s.loopA[j]
+	sp := &s.l.elems[s.l.loops[j]].lspec
+	for k := range nk {
+		x := st.Settings[k]
+		if x == 0 || bad(x) {
+			return false
+		}
+		d := x * float64(sp.Pump.Displacement(1))
+		if k > 0 {
+			d = -x * float64(sp.Motors[k-1].Displacement(1))
+		}
+		s.ld[u0+k] = d
 	}
 	s.remember(j, u0, nk, dp)
 	return true
