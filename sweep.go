@@ -168,7 +168,6 @@ func (l Layout) run(n, cols, workers int, progress func(int, int), p Point, f jo
 	return rows
 }
 
-// solveCell solves q in range rg (or Auto) and summarises it.
 // Reason is why the cell failed (its error's text), or "" when it solved.
 // The text is built on call, so a map of infeasible cells costs no strings.
 func (c Cell) Reason() string {
@@ -178,6 +177,7 @@ func (c Cell) Reason() string {
 	return c.Err.Error()
 }
 
+// solveCell solves q in range rg (or Auto) and summarises it.
 func solveCell(s *Solver, st *State, q *Point, rg int, pol Policy) Cell {
 	var err error
 	if rg == Auto {
