@@ -53,6 +53,12 @@ func BenchmarkLayoutAt(b *testing.B) {
 // strategy: the demo duty cycle of the performance benchmarks.
 func BenchmarkDemoDay(b *testing.B) {
 	v := demoVehicle(b, true)
+	benchDay(b, v)
+}
+
+// benchDay simulates the demo cycle with v and the least-fuel strategy,
+// once per benchmark iteration.
+func benchDay(b *testing.B, v *vehicle.Vehicle) {
 	cycle := demoCycle()
 	b.ReportAllocs()
 	for b.Loop() {
@@ -81,17 +87,7 @@ func BenchmarkDemoDayLayout(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
-	cycle := demoCycle()
-	b.ReportAllocs()
-	for b.Loop() {
-		day, err := vehicle.Simulate(v, vehicle.LeastFuel{}, cycle, vehicle.Options{})
-		if err != nil {
-			b.Fatal(err)
-		}
-		if err := day.Err(); err != nil {
-			b.Fatal(err)
-		}
-	}
+	benchDay(b, v)
 }
 
 // TestLayoutDriveAllocatesNothing: the adapter reuses its State, so an
