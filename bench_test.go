@@ -199,7 +199,8 @@ func floorNsPerPoint(pts []Point, minDur time.Duration) float64 {
 // BenchmarkSolveVsFloor solves the points of benchPoints with the general
 // solver, lossless and with all losses (ns/op is per point), and reports
 // the ratio of its time per point to the closed-form floor's, measured in
-// the same run ("x-floor").
+// the same run ("x-floor"), and for the lossy solve also the ratio to the
+// hand-written lossy evaluation of lossyfloor_test.go ("x-lossy-floor").
 func BenchmarkSolveVsFloor(b *testing.B) {
 	pts := benchPoints(b)
 	for _, lossy := range []bool{false, true} {
@@ -231,6 +232,9 @@ func BenchmarkSolveVsFloor(b *testing.B) {
 				minDur = time.Millisecond
 			}
 			b.ReportMetric(per/floorNsPerPoint(pts, minDur), "x-floor")
+			if lossy {
+				b.ReportMetric(per/lossyFloorNsPerPoint(pts, minDur), "x-lossy-floor")
+			}
 		})
 	}
 }
