@@ -183,15 +183,22 @@ func BenchmarkFloor(b *testing.B) {
 func floorNsPerPoint(pts []Point, minDur time.Duration) float64 {
 	d := float64(units.CCPerRev(100))
 	var f floorPoint
+	return nsPerPoint(len(pts), minDur, func() { sinkFloor += floorPoints(pts, d, &f) })
+}
+
+// nsPerPoint runs pass (one evaluation of each of n points) until at least
+// minDur has passed and returns the time per point. The call of pass is
+// once per n points, so it hardly weighs on a floor of a few nanoseconds.
+func nsPerPoint(n int, minDur time.Duration, pass func()) float64 {
 	reps := 0
 	start := time.Now()
 	for {
 		for range 100 {
-			sinkFloor += floorPoints(pts, d, &f)
+			pass()
 		}
 		reps += 100
 		if el := time.Since(start); el >= minDur {
-			return float64(el.Nanoseconds()) / float64(reps*len(pts))
+			return float64(el.Nanoseconds()) / float64(reps*n)
 		}
 	}
 }

@@ -239,20 +239,12 @@ func BenchmarkLossyFloor(b *testing.B) {
 func lossyFloorNsPerPoint(pts []Point, minDur time.Duration) float64 {
 	lp := benchLossyParams()
 	var f lossyPoint
-	reps := 0
-	start := time.Now()
-	for {
-		for range 100 {
-			for i := range pts {
-				p := &pts[i]
-				lossyFloor(&lp, benchRanges[1].Ratio, float64(p.Input), float64(p.Outputs[0].Speed),
-					float64(p.Outputs[0].Torque), float64(p.PTO[0]), &f)
-				sinkLossy += f.inputT
-			}
+	return nsPerPoint(len(pts), minDur, func() {
+		for i := range pts {
+			p := &pts[i]
+			lossyFloor(&lp, benchRanges[1].Ratio, float64(p.Input), float64(p.Outputs[0].Speed),
+				float64(p.Outputs[0].Torque), float64(p.PTO[0]), &f)
+			sinkLossy += f.inputT
 		}
-		reps += 100
-		if el := time.Since(start); el >= minDur {
-			return float64(el.Nanoseconds()) / float64(reps*len(pts))
-		}
-	}
+	})
 }
