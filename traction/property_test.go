@@ -37,6 +37,11 @@ var genSoil = rapid.Custom(func(t *rapid.T) traction.Surface {
 
 var genModel = rapid.SampledFrom([]traction.Model{traction.Brixius{}, traction.WismerLuth{}, traction.Road{}})
 
+// drawCase draws a tyre, a surface and a traction model.
+func drawCase(t *rapid.T) (traction.Tyre, traction.Surface, traction.Model) {
+	return genTyre("tyre").Draw(t, "tyre"), genSoil.Draw(t, "soil"), genModel.Draw(t, "model")
+}
+
 // genLoad draws a wheel load that keeps the mobility number in a sensible
 // range for the tyre and soil (Cn between 8 and 120).
 func genLoad(t *rapid.T, ty traction.Tyre, s traction.Surface) units.Force {
@@ -53,9 +58,7 @@ func relClose(got, want, rel float64) bool {
 func TestPropNetRisesWithSlip(t *testing.T) {
 	t.Parallel()
 	rapid.Check(t, func(t *rapid.T) {
-		ty := genTyre("tyre").Draw(t, "tyre")
-		s := genSoil.Draw(t, "soil")
-		m := genModel.Draw(t, "model")
+		ty, s, m := drawCase(t)
 		w, err := traction.NewWheel(ty, s, m)
 		if err != nil {
 			t.Fatal(err)
@@ -85,9 +88,7 @@ func TestPropNetRisesWithSlip(t *testing.T) {
 func TestPropEfficiencyRange(t *testing.T) {
 	t.Parallel()
 	rapid.Check(t, func(t *rapid.T) {
-		ty := genTyre("tyre").Draw(t, "tyre")
-		s := genSoil.Draw(t, "soil")
-		m := genModel.Draw(t, "model")
+		ty, s, m := drawCase(t)
 		load := genLoad(t, ty, s)
 		slip := rapid.Float64Range(0, 0.999).Draw(t, "slip")
 		p, err := m.Pull(ty, s, load, slip)
@@ -104,9 +105,7 @@ func TestPropEfficiencyRange(t *testing.T) {
 func TestPropWheelPowerBalance(t *testing.T) {
 	t.Parallel()
 	rapid.Check(t, func(t *rapid.T) {
-		ty := genTyre("tyre").Draw(t, "tyre")
-		s := genSoil.Draw(t, "soil")
-		m := genModel.Draw(t, "model")
+		ty, s, m := drawCase(t)
 		load := genLoad(t, ty, s)
 		slip := rapid.Float64Range(traction.MinSlip, 0.95).Draw(t, "slip")
 		om := units.RadPerSec(rapid.Float64Range(0.1, 30).Draw(t, "wheel speed rad/s"))
@@ -209,9 +208,7 @@ func TestPropZeroLeadNoCirculation(t *testing.T) {
 func TestPropSlipForPullInverts(t *testing.T) {
 	t.Parallel()
 	rapid.Check(t, func(t *rapid.T) {
-		ty := genTyre("tyre").Draw(t, "tyre")
-		s := genSoil.Draw(t, "soil")
-		m := genModel.Draw(t, "model")
+		ty, s, m := drawCase(t)
 		w, _ := traction.NewWheel(ty, s, m)
 		load := genLoad(t, ty, s)
 		mx, _ := w.MaxPull(load)
