@@ -13,6 +13,7 @@ import (
 	"unicode/utf8"
 
 	"github.com/powersplit-dev/powersplit/vehicle"
+	"github.com/powersplit-dev/powersplit/vehicle/design"
 )
 
 // Run is what every example program starts with: the scenario (built in,
@@ -31,7 +32,7 @@ type Run struct {
 func Start(program, about string) (*Run, error) {
 	fs := flag.NewFlagSet(program, flag.ContinueOnError)
 	out := fs.String("out", "", "folder for the figures and CSV files (default: a fresh temporary folder)")
-	design := fs.String("design", "", "scenario file (JSON) to use instead of the built-in demo tractor")
+	designPath := fs.String("design", "", "scenario file (JSON) to use instead of the built-in demo tractor")
 	print := fs.Bool("print-design", false, "print the built-in scenario file, to copy and edit, and exit")
 	fs.Usage = func() {
 		fmt.Fprintf(fs.Output(), "%s: %s\n\nUsage: go run ./examples/%s [flags]\n\n", program, about, program)
@@ -48,8 +49,8 @@ func Start(program, about string) (*Run, error) {
 		sc  *Scenario
 		err error
 	)
-	if *design != "" {
-		sc, err = Load(*design)
+	if *designPath != "" {
+		sc, err = design.Load(*designPath)
 	} else {
 		sc, err = Default()
 	}

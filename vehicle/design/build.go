@@ -1,4 +1,4 @@
-package demo
+package design
 
 import (
 	"errors"
@@ -15,111 +15,139 @@ import (
 	"github.com/powersplit-dev/powersplit/vehicle"
 )
 
-// fieldError names a field of the file and what is wrong with it.
-func fieldError(field, format string, args ...any) error {
-	return fmt.Errorf("field %s: %s", field, fmt.Sprintf(format, args...))
+// checker gathers the mistakes Validate finds.
+type checker struct {
+	f    *File
+	errs []error
 }
 
-// positive checks that v is finite and > 0.
-func positive(errs *[]error, field string, v float64) {
-	if !(v > 0) || math.IsInf(v, 0) {
-		*errs = append(*errs, fieldError(field, "missing, zero or negative (got %g in SI units)", v))
+func (c *checker) add(path string, format string, args ...any) {
+	c.errs = append(c.errs, c.f.fieldError(path, fmt.Errorf("%w: %s", ErrValue, fmt.Sprintf(format, args...))))
+}
+
+// positive checks that a quantity (or a count) is finite and > 0. A value
+// not from a file is shown in its display unit.
+func (c *checker) positive(path string, v float64, show fmt.Stringer) {
+	if v > 0 && !math.IsInf(v, 0) {
+		return
 	}
+	if _, ok := c.f.index[path]; ok || v == 0 {
+		if v == 0 && !ok {
+			c.add(path, "missing (must be greater than zero)")
+			return
+		}
+		c.add(path, "must be greater than zero")
+		return
+	}
+	e := c.f.fieldError(path, fmt.Errorf("%w: must be greater than zero", ErrValue))
+	if show != nil {
+		e.Value = show.String()
+	} else {
+		e.Value = fmt.Sprint(v)
+	}
+	c.errs = append(c.errs, e)
 }
 
-// validate checks what the decoder cannot: required fields present,
-// references to named surfaces, implements and trailers resolvable.
-func (s *Scenario) validate() error {
-	var errs []error
-	t := s.Tractor
-	positive(&errs, "tractor.mass", float64(t.Mass))
-	positive(&errs, "tractor.wheelbase", float64(t.Wheelbase))
-	positive(&errs, "tractor.centreOfMass", float64(t.CentreOfMass))
-	positive(&errs, "tractor.finalDrive", t.FinalDrive)
+// Validate checks what decoding cannot: required values present and
+// positive, words from their lists, names of surfaces, implements and
+// trailers that exist, and that each transmission builds. Errors are
+// *FieldError values, joined.
+func (f *File) Validate() error {
+	c := &checker{f: f}
+	t := f.Tractor
+	c.positive("tractor.mass", float64(t.Mass), t.Mass)
+	c.positive("tractor.wheelbase", float64(t.Wheelbase), t.Wheelbase)
+	c.positive("tractor.centreOfMass", float64(t.CentreOfMass), t.CentreOfMass)
+	c.positive("tractor.finalDrive", t.FinalDrive, nil)
 	for _, a := range []struct {
 		name string
 		axle Axle
 	}{{"tractor.front", t.Front}, {"tractor.rear", t.Rear}} {
-		positive(&errs, a.name+".tyre.diameter", float64(a.axle.Tyre.Diameter))
-		positive(&errs, a.name+".tyre.width", float64(a.axle.Tyre.Width))
-		positive(&errs, a.name+".tyre.sectionHeight", float64(a.axle.Tyre.SectionHeight))
-		positive(&errs, a.name+".tyre.rollingRadius", float64(a.axle.Tyre.RollingRadius))
-		positive(&errs, a.name+".wheels", float64(a.axle.Wheels))
+		y := a.axle.Tyre
+		c.positive(a.name+".tyre.diameter", float64(y.Diameter), y.Diameter)
+		c.positive(a.name+".tyre.width", float64(y.Width), y.Width)
+		c.positive(a.name+".tyre.sectionHeight", float64(y.SectionHeight), y.SectionHeight)
+		c.positive(a.name+".tyre.rollingRadius", float64(y.RollingRadius), y.RollingRadius)
+		c.positive(a.name+".wheels", float64(a.axle.Wheels), nil)
 	}
 	if math.IsNaN(t.FrontLead) || math.Abs(t.FrontLead) > 0.2 {
-		errs = append(errs, fieldError("tractor.frontLead", "must lie within ±0.2 (got %g)", t.FrontLead))
+		c.add("tractor.frontLead", "must lie within ±0.2")
 	}
-	positive(&errs, "engine.rated", float64(s.Engine.Rated))
-	if len(s.Engine.Curve) < 2 {
-		errs = append(errs, fieldError("engine.curve", "needs at least two points"))
+	c.positive("engine.rated", float64(f.Engine.Rated), f.Engine.Rated)
+	if len(f.Engine.Curve) < 2 {
+		c.add("engine.curve", "needs at least two points")
 	}
-	if err := s.Transmission.validate("transmission"); err != nil {
-		errs = append(errs, err)
+	f.Transmission.validate(c, "transmission")
+	for i, a := range f.Alternatives {
+		a.validate(c, fmt.Sprintf("alternatives[%d]", i))
 	}
-	for i, a := range s.Alternatives {
-		if err := a.validate(fmt.Sprintf("alternatives[%d]", i)); err != nil {
-			errs = append(errs, err)
+	for _, name := range sortedKeys(f.Surfaces) {
+		if _, _, err := f.Surfaces[name].build(); err != nil {
+			c.errs = append(c.errs, f.fieldError(join("surfaces", name), err))
 		}
 	}
-	for name, sf := range s.Surfaces {
-		if _, _, err := sf.build(); err != nil {
-			errs = append(errs, fmt.Errorf("field surfaces[%q]: %w", name, err))
+	for _, name := range sortedKeys(f.Implements) {
+		if _, err := f.Implements[name].build(); err != nil {
+			c.errs = append(c.errs, f.fieldError(join("implements", name), err))
 		}
 	}
-	for name, im := range s.Implements {
-		if _, err := im.build(); err != nil {
-			errs = append(errs, fmt.Errorf("field implements[%q]: %w", name, err))
-		}
+	if len(f.Day.Segments) == 0 {
+		c.add("day.segments", "the day has no segments")
 	}
-	if len(s.Day.Segments) == 0 {
-		errs = append(errs, fieldError("day.segments", "the day has no segments"))
-	}
-	for i, g := range s.Day.Segments {
-		f := fmt.Sprintf("day.segments[%d] (%q)", i, g.Name)
+	for i, g := range f.Day.Segments {
+		p := fmt.Sprintf("day.segments[%d]", i)
 		if !slices.Contains([]string{"field", "turn", "road", "pto"}, g.Kind) {
-			errs = append(errs, fieldError(f+".kind", "%q is not one of field, turn, road, pto", g.Kind))
+			c.add(p+".kind", "not one of field, turn, road, pto")
 		}
-		if _, ok := s.Surfaces[g.Surface]; g.Surface != "" && !ok {
-			errs = append(errs, fieldError(f+".surface", "no surface named %q in \"surfaces\"", g.Surface))
+		if _, ok := f.Surfaces[g.Surface]; g.Surface != "" && !ok {
+			c.add(p+".surface", "no surface of that name in \"surfaces\"")
 		}
-		if _, ok := s.Implements[g.Implement]; g.Implement != "" && !ok {
-			errs = append(errs, fieldError(f+".implement", "no implement named %q in \"implements\"", g.Implement))
+		if _, ok := f.Implements[g.Implement]; g.Implement != "" && !ok {
+			c.add(p+".implement", "no implement of that name in \"implements\"")
 		}
-		if _, ok := s.Trailers[g.Trailer]; g.Trailer != "" && !ok {
-			errs = append(errs, fieldError(f+".trailer", "no trailer named %q in \"trailers\"", g.Trailer))
+		if _, ok := f.Trailers[g.Trailer]; g.Trailer != "" && !ok {
+			c.add(p+".trailer", "no trailer of that name in \"trailers\"")
 		}
 		if g.Kind == "field" && g.Implement == "" {
-			errs = append(errs, fieldError(f+".implement", "a field segment needs an implement"))
+			c.add(p+".implement", "a field segment needs an implement")
 		}
 	}
-	return errors.Join(errs...)
+	return errors.Join(c.errs...)
 }
 
-func (t Transmission) validate(field string) error {
-	var errs []error
+func sortedKeys[V any](m map[string]V) []string {
+	keys := make([]string, 0, len(m))
+	for k := range m {
+		keys = append(keys, k)
+	}
+	slices.Sort(keys)
+	return keys
+}
+
+func (t Transmission) validate(c *checker, field string) {
+	n := len(c.errs)
 	if !slices.Contains([]string{"input-coupled", "output-coupled", "compound"}, t.Kind) {
-		errs = append(errs, fieldError(field+".kind", "%q is not one of input-coupled, output-coupled, compound", t.Kind))
+		c.add(field+".kind", "not one of input-coupled, output-coupled, compound")
 	}
 	if t.Kind == "compound" && t.Set2 == nil {
-		errs = append(errs, fieldError(field+".set2", "a compound split needs a second set"))
+		c.add(field+".set2", "a compound split needs a second set")
 	}
-	positive(&errs, field+".pump.displacement", float64(t.Pump.Displacement))
-	positive(&errs, field+".motor.displacement", float64(t.Motor.Displacement))
-	positive(&errs, field+".relief", float64(t.Relief))
+	c.positive(field+".pump.displacement", float64(t.Pump.Displacement), t.Pump.Displacement)
+	c.positive(field+".motor.displacement", float64(t.Motor.Displacement), t.Motor.Displacement)
+	c.positive(field+".relief", float64(t.Relief), t.Relief)
 	if len(t.Ranges) == 0 {
-		errs = append(errs, fieldError(field+".ranges", "needs at least one range gear"))
+		c.add(field+".ranges", "needs at least one range gear")
 	}
-	if err := errors.Join(errs...); err != nil {
-		return err
+	if len(c.errs) > n {
+		return
 	}
 	if _, err := t.Layout(); err != nil {
-		return fmt.Errorf("field %s: %w", field, err)
+		c.errs = append(c.errs, c.f.fieldError(field, err))
 	}
-	return nil
 }
 
-// Engine builds the engine.
-func (s *Scenario) BuildEngine() (*vehicle.Engine, error) {
+// BuildEngine builds the engine.
+func (s *File) BuildEngine() (*vehicle.Engine, error) {
 	spec := vehicle.EngineSpec{Idle: s.Engine.Idle, Rated: s.Engine.Rated}
 	for _, p := range s.Engine.Curve {
 		spec.CurveSpeeds = append(spec.CurveSpeeds, p.Speed)
@@ -226,8 +254,8 @@ func (t Transmission) loop() (hydrostat.Loop, error) {
 		return hydrostat.Loop{}, fmt.Errorf("oil: %q is not one of VG32, VG46, VG68", t.Oil)
 	}
 	temp := units.Celsius(50)
-	if t.OilTemperature.Set {
-		temp = t.OilTemperature.Temperature
+	if t.OilTemperature != nil {
+		temp = *t.OilTemperature
 	}
 	l, err := hydrostat.NewLoop(hydrostat.LoopSpec{Pump: pump, Motors: []hydrostat.Unit{motor}, Oil: oil,
 		Temperature: temp, Charge: t.Charge, Relief: t.Relief,
@@ -300,7 +328,7 @@ func (im Implement) build() (vehicle.Implement, error) {
 }
 
 // Implement returns the named implement.
-func (s *Scenario) Implement(name string) (vehicle.Implement, error) {
+func (s *File) Implement(name string) (vehicle.Implement, error) {
 	im, ok := s.Implements[name]
 	if !ok {
 		return vehicle.Implement{}, fmt.Errorf("%s: no implement named %q", s.source, name)
@@ -309,7 +337,7 @@ func (s *Scenario) Implement(name string) (vehicle.Implement, error) {
 }
 
 // Surface returns the named surface and its traction model.
-func (s *Scenario) Surface(name string) (traction.Surface, traction.Model, error) {
+func (s *File) Surface(name string) (traction.Surface, traction.Model, error) {
 	sf, ok := s.Surfaces[name]
 	if !ok {
 		return traction.Surface{}, nil, fmt.Errorf("%s: no surface named %q", s.source, name)
@@ -322,7 +350,7 @@ func (s *Scenario) Surface(name string) (traction.Surface, traction.Model, error
 }
 
 // TractionVehicle returns the tractor as the traction package sees it.
-func (s *Scenario) TractionVehicle() traction.Vehicle {
+func (s *File) TractionVehicle() traction.Vehicle {
 	t := s.Tractor
 	tyre := func(y Tyre) traction.Tyre {
 		return traction.Tyre{Diameter: y.Diameter, Width: y.Width, SectionHeight: y.SectionHeight,
@@ -338,7 +366,7 @@ func (s *Scenario) TractionVehicle() traction.Vehicle {
 // them: on soil the front axle is driven with the tractor's lead; on a road
 // (the road model) the front drive is disengaged and the front wheels roll
 // free, as is usual to avoid wind-up on a hard surface.
-func (s *Scenario) Ground(surface string) (vehicle.Tyres, error) {
+func (s *File) Ground(surface string) (vehicle.Tyres, error) {
 	sf, m, err := s.Surface(surface)
 	if err != nil {
 		return vehicle.Tyres{}, err
@@ -349,7 +377,7 @@ func (s *Scenario) Ground(surface string) (vehicle.Tyres, error) {
 
 // Vehicle builds the tractor with transmission t. Its default ground is
 // the surface of the day's first segment that names one.
-func (s *Scenario) Vehicle(t Transmission) (*vehicle.Vehicle, error) {
+func (s *File) Vehicle(t Transmission) (*vehicle.Vehicle, error) {
 	l, err := t.Layout()
 	if err != nil {
 		return nil, fmt.Errorf("%s: transmission %q: %w", s.source, t.Name, err)
@@ -395,7 +423,7 @@ func (s *Scenario) Vehicle(t Transmission) (*vehicle.Vehicle, error) {
 }
 
 // Cycle returns the working day as the vehicle package's segments.
-func (s *Scenario) Cycle() ([]vehicle.Segment, error) {
+func (s *File) Cycle() ([]vehicle.Segment, error) {
 	out := make([]vehicle.Segment, 0, len(s.Day.Segments))
 	for i, g := range s.Day.Segments {
 		seg := vehicle.Segment{Name: g.Name, Speed: g.Speed, Distance: g.Distance, Duration: g.Duration.Std(),
@@ -437,7 +465,7 @@ func (s *Scenario) Cycle() ([]vehicle.Segment, error) {
 }
 
 // Step returns the day's simulation time step (default 1 s).
-func (s *Scenario) Step() Duration {
+func (s *File) Step() Duration {
 	if s.Day.Step == 0 {
 		return Duration(1e9)
 	}

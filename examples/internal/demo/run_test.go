@@ -1,0 +1,54 @@
+package demo
+
+import (
+	"strings"
+	"testing"
+)
+
+func TestBuiltinLoads(t *testing.T) {
+	t.Parallel()
+	s, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := s.Vehicle(s.Transmission); err != nil {
+		t.Fatal(err)
+	}
+	for _, a := range s.Alternatives {
+		if _, err := s.Vehicle(a); err != nil {
+			t.Errorf("alternative %q: %v", a.Name, err)
+		}
+	}
+	if _, err := s.Cycle(); err != nil {
+		t.Fatal(err)
+	}
+}
+
+func TestFormat(t *testing.T) {
+	t.Parallel()
+	cases := []struct {
+		v    float64
+		prec int
+		unit string
+		want string
+	}{
+		{12.345, 1, "kg", "12.3 kg"},
+		{-0.0001, 1, "kW", "0.0 kW"},
+		{0, 0, "", "0"},
+	}
+	for _, c := range cases {
+		if got := F(c.v, c.prec, c.unit); got != c.want {
+			t.Errorf("F(%v, %d, %q) = %q, want %q", c.v, c.prec, c.unit, got, c.want)
+		}
+	}
+	for _, v := range []float64{nanValue(), 1 / zero()} {
+		if got := F(v, 1, "kg"); strings.Contains(got, "NaN") || strings.Contains(got, "Inf") {
+			t.Errorf("F(%v) = %q, want no NaN or Inf", v, got)
+		}
+	}
+}
+
+var zeroValue float64
+
+func zero() float64     { return zeroValue }
+func nanValue() float64 { return zero() / zero() }
