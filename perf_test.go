@@ -6,9 +6,6 @@ import (
 	"math"
 	"testing"
 
-	"gonum.org/v1/gonum/blas/blas64"
-	"gonum.org/v1/gonum/lapack"
-	"gonum.org/v1/gonum/lapack/lapack64"
 	"pgregory.net/rapid"
 
 	"github.com/powersplit-dev/powersplit/hydrostat"
@@ -138,63 +135,6 @@ func TestLimitErrorText(t *testing.T) {
 			t.Errorf("got %q, want %q", got, want)
 		}
 	}
-}
-
-// TestLUBackwardStable: luFactor and luSolve solve random sparse systems
-// with a normwise backward error at rounding level, and find the same
-// systems singular as LAPACK's dgetrf (through gonum) where neither is
-// near a tie. (The pivots may differ from dgetrf's in near-ties: gonum's
-// dgetrf factors recursively, in another order of operations.)
-func TestLUBackwardStable(t *testing.T) {
-	rapid.Check(t, func(t *rapid.T) {
-		n := rapid.IntRange(1, 24).Draw(t, "n")
-		a := make([]float64, n*n)
-		for i := range n {
-			for j := range n {
-				if i == j || rapid.IntRange(0, 9).Draw(t, "sparsity") < 2 {
-					a[i*n+j] = rapid.Float64Range(-3, 3).Draw(t, "entry")
-				}
-			}
-		}
-		b := make([]float64, n)
-		for i := range b {
-			b[i] = rapid.Float64Range(-10, 10).Draw(t, "rhs")
-		}
-		mine := append([]float64(nil), a...)
-		piv, nz := make([]int, n), make([]int, n)
-		if !luFactor(mine, n, piv, nz) {
-			ref := append([]float64(nil), a...)
-			if lapack64.Getrf(blas64.General{Rows: n, Cols: n, Stride: n, Data: ref}, make([]int, n)) {
-				// dgetrf found no exact zero pivot: the matrix must at
-				// least be numerically singular for luFactor to stop.
-				cond := lapack64.Gecon(lapack.MaxColumnSum, blas64.General{Rows: n, Cols: n, Stride: n, Data: ref},
-					lapack64.Lange(lapack.MaxColumnSum, blas64.General{Rows: n, Cols: n, Stride: n, Data: a}, make([]float64, n)),
-					make([]float64, 4*n), make([]int, n))
-				if cond > 1e-12 {
-					t.Fatalf("luFactor finds singular a matrix with reciprocal condition %g", cond)
-				}
-			}
-			return
-		}
-		// The solution has a normwise backward error at rounding level.
-		x := append([]float64(nil), b...)
-		luSolve(mine, n, piv, x)
-		var an, xn, bn, rn float64
-		for i := range n {
-			r, row := -b[i], 0.0
-			for j := range n {
-				r += a[i*n+j] * x[j]
-				row += math.Abs(a[i*n+j])
-			}
-			an, xn, bn, rn = math.Max(an, row), math.Max(xn, math.Abs(x[i])), math.Max(bn, math.Abs(b[i])), math.Max(rn, math.Abs(r))
-		}
-		if bad(rn) || bad(xn) {
-			return // overflow on a numerically singular draw
-		}
-		if rn > 1e-13*float64(n)*(an*xn+bn) {
-			t.Fatalf("residual %g against ‖A‖‖x‖ + ‖b‖ = %g", rn, an*xn+bn)
-		}
-	})
 }
 
 // TestSlabErrorsKept checks that the errors a Solver returns from its slabs

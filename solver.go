@@ -8,6 +8,7 @@ import (
 
 	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/internal/numeric"
+	"github.com/powersplit-dev/powersplit/internal/sparse"
 	"github.com/powersplit-dev/powersplit/planetary"
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -55,6 +56,8 @@ type Solver struct {
 	x, y, dx  []float64
 	last      *sysEntry // the factored system of the last solve; nil after a full LU
 	small, sg []float64
+	vcol      []int     // per unit: the column of its loop's pressure
+	delta     []float64 // per unit: the Woodbury update of its slope
 	work      []float64
 	iwork     []int
 	cache     []sysEntry
@@ -377,11 +380,11 @@ func (s *Solver) exactLU(r *rangeDef, p *Point) {
 		return
 	}
 	am := s.a.RawMatrix().Data
-	if !luFactor(am, s.n, s.piv, s.iwork) {
+	if !sparse.Factor(am, s.n, s.piv, s.iwork) {
 		return
 	}
 	x := s.rhs.RawVector().Data
-	luSolve(am, s.n, s.piv, x)
+	sparse.Solve(am, s.n, s.piv, x)
 	for _, v := range x {
 		if bad(v) {
 			return
