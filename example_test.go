@@ -63,15 +63,22 @@ func ExampleOutputCoupled() {
 		st.InputPower.Kilowatts(), st.OutputPower.Kilowatts(), st.PTOPower.Kilowatts(), st.PTOs[0].Speed.RPM())
 	fmt.Printf("efficiency %.3f, hydraulic share %.3f, loop %.0f bar\n",
 		st.Efficiency, st.HydraulicShare, st.Loops[0].Pressure.Bar())
-	lo, hi, err := s.Interval(p)
+	ivs, err := s.Interval(p)
 	if err != nil {
 		log.Fatal(err)
 	}
-	fmt.Printf("field range reaches %.0f to %.0f rpm at the output\n", lo.RPM(), hi.RPM())
+	// Between the two intervals the motor would have to swivel below its
+	// minimum setting (0.2) as the pump slows towards standstill; in the
+	// second the pump turns backwards at full stroke and the motor is back
+	// within its settings.
+	for _, iv := range ivs {
+		fmt.Printf("field range reaches %.0f to %.0f rpm at the output\n", iv.Lo.RPM(), iv.Hi.RPM())
+	}
 	// Output:
 	// input 108.5 kW, output 78.5 kW, PTO 20.9 kW at 1000 rpm
 	// efficiency 0.917, hydraulic share 0.334, loop 115 bar
 	// field range reaches -40 to 480 rpm at the output
+	// field range reaches 672 to 720 rpm at the output
 }
 
 func ExampleInputCoupled() {

@@ -133,10 +133,12 @@ func genPoint(t *rapid.T, l Layout) Point {
 	if len(l.l.ptos) > 0 {
 		p.PTO = []units.Torque{units.NewtonMetres(rapid.Float64Range(0, 400).Draw(t, "PTO N·m"))}
 	}
-	lo, hi, err := s.Interval(p)
+	ivs, err := s.Interval(p)
 	if err != nil {
 		t.Skipf("range reaches nothing: %v", err)
 	}
+	iv := ivs[rapid.IntRange(0, len(ivs)-1).Draw(t, "interval")]
+	lo, hi := iv.Lo, iv.Hi
 	v := float64(lo) + (float64(hi)-float64(lo))*rapid.Float64Range(0.02, 0.98).Draw(t, "place in interval")
 	for i := range p.Outputs {
 		p.Outputs[i].Speed = units.AngularVelocity(v)

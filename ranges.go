@@ -3,6 +3,8 @@ package powersplit
 import (
 	"errors"
 	"math"
+	"strconv"
+	"strings"
 
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -47,15 +49,23 @@ func (s *Solver) reachable(p *Point, rg int, v float64) bool {
 	return s.evalLoops(true) == nil
 }
 
-// Interval returns the interval of first-output speeds that range p.Range
-// reaches at input speed p.Input: the widest connected set of speeds at
-// which every unit is within its speed limit and the schedule finds settings
-// within range (evaluated at zero load). Other outputs follow the first in
-// the proportion of p's output speeds. It returns ErrUnreachable when the
-// range reaches no speed.
-func (s *Solver) Interval(p Point) (lo, hi units.AngularVelocity, err error) {
+// SpeedInterval is a connected interval [Lo, Hi] of first-output speeds.
+type SpeedInterval struct {
+	Lo, Hi units.AngularVelocity
+}
+
+// Interval returns every interval of first-output speeds that range p.Range
+// reaches at input speed p.Input, in increasing order of speed: the
+// connected sets of speeds at which every unit is within its speed limit
+// and the schedule finds settings within range (evaluated at zero load). A
+// range whose motor reaches its speed limit near standstill, for example,
+// reaches one interval in reverse and one forward. Other outputs follow the
+// first in the proportion of p's output speeds. Intervals narrower than
+// 1/200 of the searched span may be missed. It returns ErrUnreachable when
+// the range reaches no speed.
+func (s *Solver) Interval(p Point) ([]SpeedInterval, error) {
 	if err := s.check(&p); err != nil {
-		return 0, 0, err
+		return nil, err
 	}
 	l := s.l
 	r := &l.ranges[p.Range]
@@ -87,26 +97,9 @@ func (s *Solver) Interval(p Point) (lo, hi units.AngularVelocity, err error) {
 		V = math.Min(V, r.maxOut)
 	}
 	if V == 0 || math.IsInf(V, 0) {
-		return 0, 0, &LimitError{Element: r.name, Quantity: "output speed", Err: ErrUnreachable}
+		return nil, &LimitError{Element: r.name, Quantity: "output speed", Err: ErrUnreachable}
 	}
 	const n = 200
-	bestLo, bestHi, runLo := -1, -1, -1
-	for i := 0; i <= n; i++ {
-		v := -V + 2*V*float64(i)/n
-		if s.reachable(&p, p.Range, v) {
-			if runLo < 0 {
-				runLo = i
-			}
-			if bestLo < 0 || i-runLo > bestHi-bestLo {
-				bestLo, bestHi = runLo, i
-			}
-		} else {
-			runLo = -1
-		}
-	}
-	if bestLo < 0 {
-		return 0, 0, &LimitError{Element: r.name, Quantity: "output speed", Err: ErrUnreachable}
-	}
 	at := func(i int) float64 { return -V + 2*V*float64(i)/n }
 	edge := func(in, out float64) float64 {
 		for k := 0; k < 50; k++ {
@@ -119,14 +112,29 @@ func (s *Solver) Interval(p Point) (lo, hi units.AngularVelocity, err error) {
 		}
 		return in
 	}
-	lv, hv := at(bestLo), at(bestHi)
-	if bestLo > 0 {
-		lv = edge(lv, at(bestLo-1))
+	var out []SpeedInterval
+	runLo := -1
+	for i := 0; i <= n+1; i++ {
+		ok := i <= n && s.reachable(&p, p.Range, at(i))
+		switch {
+		case ok && runLo < 0:
+			runLo = i
+		case !ok && runLo >= 0:
+			lv, hv := at(runLo), at(i-1)
+			if runLo > 0 {
+				lv = edge(lv, at(runLo-1))
+			}
+			if i <= n {
+				hv = edge(hv, at(i))
+			}
+			out = append(out, SpeedInterval{Lo: units.AngularVelocity(lv), Hi: units.AngularVelocity(hv)})
+			runLo = -1
+		}
 	}
-	if bestHi < n {
-		hv = edge(hv, at(bestHi+1))
+	if len(out) == 0 {
+		return nil, &LimitError{Element: r.name, Quantity: "output speed", Err: ErrUnreachable}
 	}
-	return units.AngularVelocity(lv), units.AngularVelocity(hv), nil
+	return out, nil
 }
 
 // ShiftPoint is a synchronous shift point between two ranges: the output
@@ -227,22 +235,29 @@ func (s *Solver) Feasible(p Point, dst []int) []int {
 
 // Best solves p in every range (its Range ignored), writes the state of the
 // best feasible range by policy pol (nil means HighestEfficiency) into st
-// and returns nil; with no feasible range it returns the error of the last
-// range tried, st then holding that range's state.
+// and returns nil. With no feasible range it returns a *RangesError with
+// each range's reason (the range's own error when the layout has one
+// range), and st.Range is Auto: no range was chosen.
 func (s *Solver) Best(p Point, pol Policy, st *State) error {
 	if pol == nil {
 		pol = HighestEfficiency{}
 	}
 	found := false
-	var last error
-	for i := range s.l.ranges {
+	nr := len(s.l.ranges)
+	var errs []error
+	for i := range nr {
 		p.Range = i
 		err := s.Solve(p, &s.scratch)
 		if err != nil {
 			if errors.Is(err, ErrInput) {
 				return err
 			}
-			last = err
+			if !found {
+				if errs == nil {
+					errs = make([]error, nr)
+				}
+				errs[i] = err
+			}
 			continue
 		}
 		if !found || pol.Better(&s.scratch, st) {
@@ -254,8 +269,46 @@ func (s *Solver) Best(p Point, pol Policy, st *State) error {
 		return nil
 	}
 	st.copyFrom(&s.scratch)
-	return last
+	st.Range, st.RangeName = Auto, ""
+	if nr == 1 {
+		return errs[0]
+	}
+	names := make([]string, nr)
+	for i := range names {
+		names[i] = s.l.ranges[i].name
+	}
+	return &RangesError{Ranges: names, Errs: errs}
 }
+
+// RangesError reports why no range solved an operating point: one error per
+// range, in range order, with the range's name. errors.Is matches a
+// sentinel when any range's error matches it.
+type RangesError struct {
+	Ranges []string // range names
+	Errs   []error  // Errs[i] is why range Ranges[i] failed
+}
+
+// Error returns "no range solves the point: <range>: <reason>; ...".
+func (e *RangesError) Error() string {
+	var b strings.Builder
+	b.WriteString("powersplit: no range solves the point")
+	for i, err := range e.Errs {
+		if i == 0 {
+			b.WriteString(": ")
+		} else {
+			b.WriteString("; ")
+		}
+		b.WriteString(strconv.Quote(e.Ranges[i]))
+		b.WriteString(": ")
+		if err != nil {
+			b.WriteString(err.Error())
+		}
+	}
+	return b.String()
+}
+
+// Unwrap returns every range's error.
+func (e *RangesError) Unwrap() []error { return e.Errs }
 
 // copyFrom copies src into st, reusing st's storage when it fits.
 func (st *State) copyFrom(src *State) {

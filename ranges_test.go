@@ -97,10 +97,14 @@ func TestInterval(t *testing.T) {
 		t.Fatal(err)
 	}
 	s := NewSolver(l)
-	lo, hi, err := s.Interval(Point{Input: units.RPM(2000), Outputs: []OutputDemand{{}}})
+	ivs, err := s.Interval(Point{Input: units.RPM(2000), Outputs: []OutputDemand{{}}})
 	if err != nil {
 		t.Fatal(err)
 	}
+	if len(ivs) != 1 {
+		t.Fatalf("Interval = %v, want one interval", ivs)
+	}
+	lo, hi := ivs[0].Lo, ivs[0].Hi
 	// Hand calculation: motor speed limit 6000 rpm binds before the setting
 	// limit (100/(0.2·80)·2200 = 13750 rpm): output ±600 rpm.
 	want := units.RPM(600)

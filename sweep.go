@@ -3,7 +3,6 @@ package powersplit
 import (
 	"encoding/csv"
 	"errors"
-	"fmt"
 	"io"
 	"math"
 	"runtime"
@@ -16,9 +15,11 @@ import (
 
 // Cell is the result at one grid point of a sweep or map.
 type Cell struct {
-	OK    bool  // the point solved and is feasible
-	Err   error // why not, when !OK
-	Range int   // the range solved in (the best one when the spec's Range is Auto)
+	OK  bool  // the point solved and is feasible
+	Err error // why not, when !OK (a *RangesError when the spec's Range is Auto and every range failed)
+	// Range is the range solved in (the best one when the spec's Range is
+	// Auto); Auto when Auto found no feasible range.
+	Range int
 
 	OutputSpeed    units.AngularVelocity
 	OutputTorque   units.Torque
@@ -28,9 +29,17 @@ type Cell struct {
 	Loss           units.Power
 	Efficiency     float64
 	HydraulicShare float64
-	Pressure       units.Pressure // first loop
-	PumpSetting    float64        // first loop
-	MotorSetting   float64        // first loop, first motor
+	// The first loop's state: its pressure difference, high-line pressure,
+	// pump and first motor speeds and settings.
+	Pressure     units.Pressure
+	HighPressure units.Pressure
+	PumpSpeed    units.AngularVelocity
+	MotorSpeed   units.AngularVelocity
+	PumpSetting  float64
+	MotorSetting float64
+	// Binding is the margin with the least room left relative to its
+	// limit (the limit nearest to being crossed); zero without a loop.
+	Binding Margin
 }
 
 // Auto as a spec's Range means: the best feasible range by the spec's Policy.
@@ -38,6 +47,7 @@ const Auto = -1
 
 // SweepSpec describes a sweep over output speed.
 type SweepSpec struct {
+	Design string // the design's name, written in every CSV row; may be empty
 	Range  int    // range index, or Auto
 	Policy Policy // for Auto; nil means HighestEfficiency
 	Input  units.AngularVelocity
@@ -57,12 +67,16 @@ type SweepSpec struct {
 
 // Sweep is the result of Layout.Sweep: one Cell per output speed.
 type Sweep struct {
-	Speeds []units.AngularVelocity
-	Cells  []Cell
+	Design     string                // the spec's Design
+	Input      units.AngularVelocity // the spec's input speed
+	RangeNames []string              // the layout's range names, by Cell.Range
+	Speeds     []units.AngularVelocity
+	Cells      []Cell
 }
 
 // MapSpec describes a 2-D map over output speed × output torque.
 type MapSpec struct {
+	Design               string // the design's name, written in every CSV row; may be empty
 	Range                int
 	Policy               Policy
 	Input                units.AngularVelocity
@@ -77,9 +91,12 @@ type MapSpec struct {
 
 // Map is the result of Layout.Map: Cells[i][j] at Torques[i], Speeds[j].
 type Map struct {
-	Speeds  []units.AngularVelocity
-	Torques []units.Torque
-	Cells   [][]Cell
+	Design     string                // the spec's Design
+	Input      units.AngularVelocity // the spec's input speed
+	RangeNames []string              // the layout's range names, by Cell.Range
+	Speeds     []units.AngularVelocity
+	Torques    []units.Torque
+	Cells      [][]Cell
 }
 
 // Feasible returns the feasibility mask: mask[i][j] is Cells[i][j].OK.
@@ -195,13 +212,31 @@ func solveCell(s *Solver, st *State, q *Point, rg int, pol Policy) Cell {
 	c.OutputTorque = st.Outputs[0].Torque
 	c.Loss, c.Efficiency, c.HydraulicShare = st.Loss, st.Efficiency, st.HydraulicShare
 	if len(st.Loops) > 0 {
-		c.Pressure = st.Loops[0].Pressure
-		c.PumpSetting = st.Loops[0].Pump.Setting
-		if len(st.Loops[0].Motors) > 0 {
-			c.MotorSetting = st.Loops[0].Motors[0].Setting
+		lp := &st.Loops[0]
+		c.Pressure, c.HighPressure = lp.Pressure, lp.High
+		c.PumpSetting, c.PumpSpeed = lp.Pump.Setting, lp.Pump.Speed
+		if len(lp.Motors) > 0 {
+			c.MotorSetting, c.MotorSpeed = lp.Motors[0].Setting, lp.Motors[0].Speed
 		}
 	}
+	c.Binding = binding(st.Margins)
 	return c
+}
+
+// binding returns the margin with the least room left relative to its
+// limit, or the zero Margin when there is none.
+func binding(ms []Margin) Margin {
+	var b Margin
+	best := math.Inf(1)
+	for _, m := range ms {
+		if m.Limit <= 0 {
+			continue
+		}
+		if r := m.Left() / m.Limit; r < best {
+			b, best = m, r
+		}
+	}
+	return b
 }
 
 func (l Layout) point(in units.AngularVelocity, pto []units.Torque) Point {
@@ -240,7 +275,8 @@ func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
 	for _, r := range rows {
 		cells = append(cells, r...)
 	}
-	out := Sweep{Speeds: make([]units.AngularVelocity, len(vs)), Cells: cells}
+	out := Sweep{Design: spec.Design, Input: spec.Input, RangeNames: l.rangeNames(),
+		Speeds: make([]units.AngularVelocity, len(vs)), Cells: cells}
 	for i, v := range vs {
 		out.Speeds[i] = units.AngularVelocity(v)
 	}
@@ -266,9 +302,15 @@ func powerCell(s *Solver, st *State, q *Point, rg int, pol Policy, P float64) Ce
 	if !c0.OK {
 		return c0
 	}
+	// lim is the last limit met on the way: when the power is not reached,
+	// it is what stopped the search.
+	var lim error
 	for k := 0; k < 40; k++ {
 		f1, c1 := pin(t1)
 		if !c1.OK {
+			if errors.Is(c1.Err, ErrInfeasible) {
+				lim = c1.Err
+			}
 			// Step back towards the last good torque.
 			t1 = (t0 + t1) / 2
 			continue
@@ -284,9 +326,31 @@ func powerCell(s *Solver, st *State, q *Point, rg int, pol Policy, P float64) Ce
 			break
 		}
 	}
-	return Cell{OutputSpeed: q.Outputs[0].Speed,
-		Err: fmt.Errorf("%w: input power %s W not reached at this speed", ErrUnreachable, strconv.FormatFloat(P, 'g', 6, 64))}
+	c := Cell{OutputSpeed: q.Outputs[0].Speed, Range: rg}
+	if lim != nil {
+		c.Err = &PowerError{Power: units.Power(P), Err: lim}
+		return c
+	}
+	c.Err = &PowerError{Power: units.Power(P), Err: ErrUnreachable}
+	return c
 }
+
+// PowerError reports that a power sweep's cell could not draw the demanded
+// input power: Err is the limit that stopped it (a *LimitError or
+// *RangesError, classed as ErrInfeasible), or ErrUnreachable when the
+// search found no torque without meeting a limit.
+type PowerError struct {
+	Power units.Power // the demanded input power
+	Err   error
+}
+
+// Error returns "input power <P> not reached: <cause>".
+func (e *PowerError) Error() string {
+	return "powersplit: input power " + e.Power.String() + " not reached: " + e.Err.Error()
+}
+
+// Unwrap returns the cause.
+func (e *PowerError) Unwrap() error { return e.Err }
 
 // Map solves the layout over the grid output speed × output torque at the
 // given input speed, in parallel.
@@ -330,7 +394,8 @@ func (l Layout) Map(spec MapSpec) (Map, error) {
 			rows[i] = flat[i*nv : (i+1)*nv : (i+1)*nv]
 		}
 	}
-	m := Map{Speeds: make([]units.AngularVelocity, nv), Torques: make([]units.Torque, len(ts)), Cells: rows}
+	m := Map{Design: spec.Design, Input: spec.Input, RangeNames: l.rangeNames(),
+		Speeds: make([]units.AngularVelocity, nv), Torques: make([]units.Torque, len(ts)), Cells: rows}
 	for j, v := range vs {
 		m.Speeds[j] = units.AngularVelocity(v)
 	}
@@ -356,42 +421,69 @@ func (l Layout) checkSpec(rg int, in units.AngularVelocity, pto []units.Torque) 
 	return nil
 }
 
-var csvHeader = []string{"output_speed_rpm", "output_torque_Nm", "feasible", "range", "input_torque_Nm",
-	"input_power_kW", "output_power_kW", "loss_kW", "efficiency", "hydraulic_share", "pressure_bar",
-	"pump_setting", "motor_setting", "reason"}
+// CSVHeader is the header row of Sweep.WriteCSV and Map.WriteCSV: every
+// column names its quantity and its unit (pct for fractions in percent).
+// Settings are the displacement over its maximum; binding_limit names the
+// margin nearest its limit and binding_left_pct the room left in percent of
+// that limit.
+var CSVHeader = []string{"design", "input_speed_rpm", "output_speed_rpm", "output_torque_Nm", "feasible", "range",
+	"input_torque_Nm", "input_power_kW", "output_power_kW", "loss_kW", "efficiency_pct", "hydraulic_share_pct",
+	"loop_pressure_bar", "high_pressure_bar", "pump_speed_rpm", "motor_speed_rpm", "pump_setting_pct",
+	"motor_setting_pct", "binding_limit", "binding_left_pct", "reason"}
 
-func (c Cell) record() []string {
+func (c Cell) record(design string, in units.AngularVelocity, names []string) []string {
 	f := func(v float64) string { return strconv.FormatFloat(v, 'g', 10, 64) }
+	head := []string{design, f(in.RPM()), f(c.OutputSpeed.RPM()), f(float64(c.OutputTorque))}
 	if !c.OK {
-		return []string{f(c.OutputSpeed.RPM()), f(float64(c.OutputTorque)), "false", "", "", "", "", "", "", "", "", "", "", c.Reason()}
+		return append(head, "false", "", "", "", "", "", "", "", "", "", "", "", "", "", "", "", c.Reason())
 	}
-	return []string{f(c.OutputSpeed.RPM()), f(float64(c.OutputTorque)), "true", strconv.Itoa(c.Range),
+	rg := strconv.Itoa(c.Range)
+	if c.Range >= 0 && c.Range < len(names) {
+		rg = names[c.Range]
+	}
+	bind, left := "", ""
+	if c.Binding.Limit > 0 {
+		bind = c.Binding.Element + " " + c.Binding.Quantity
+		left = f(100 * c.Binding.Left() / c.Binding.Limit)
+	}
+	return append(head, "true", rg,
 		f(float64(c.InputTorque)), f(c.InputPower.Kilowatts()), f(c.OutputPower.Kilowatts()), f(c.Loss.Kilowatts()),
-		f(c.Efficiency), f(c.HydraulicShare), f(c.Pressure.Bar()), f(c.PumpSetting), f(c.MotorSetting), ""}
+		f(100*c.Efficiency), f(100*c.HydraulicShare), f(c.Pressure.Bar()), f(c.HighPressure.Bar()),
+		f(c.PumpSpeed.RPM()), f(c.MotorSpeed.RPM()), f(100*c.PumpSetting), f(100*c.MotorSetting), bind, left, "")
 }
 
-// WriteCSV writes the sweep as CSV: a header row, then one row per speed.
-// Infeasible rows carry the reason and leave the results empty.
+// WriteCSV writes the sweep as CSV: the header CSVHeader, then one row per
+// speed. Infeasible rows carry the reason and leave the results empty.
 func (s Sweep) WriteCSV(w io.Writer) error {
-	return writeCells(w, [][]Cell{s.Cells})
+	return writeCells(w, s.Design, s.Input, s.RangeNames, [][]Cell{s.Cells})
 }
 
-// WriteCSV writes the map as CSV in long form: a header row, then one row
-// per cell, torque-major.
-func (m Map) WriteCSV(w io.Writer) error { return writeCells(w, m.Cells) }
+// WriteCSV writes the map as CSV in long form: the header CSVHeader, then
+// one row per cell, torque-major.
+func (m Map) WriteCSV(w io.Writer) error {
+	return writeCells(w, m.Design, m.Input, m.RangeNames, m.Cells)
+}
 
-func writeCells(w io.Writer, rows [][]Cell) error {
+func writeCells(w io.Writer, design string, in units.AngularVelocity, names []string, rows [][]Cell) error {
 	cw := csv.NewWriter(w)
-	if err := cw.Write(csvHeader); err != nil {
+	if err := cw.Write(CSVHeader); err != nil {
 		return err
 	}
 	for _, row := range rows {
 		for _, c := range row {
-			if err := cw.Write(c.record()); err != nil {
+			if err := cw.Write(c.record(design, in, names)); err != nil {
 				return err
 			}
 		}
 	}
 	cw.Flush()
 	return errors.Join(cw.Error())
+}
+
+func (l Layout) rangeNames() []string {
+	out := make([]string, len(l.l.ranges))
+	for i := range out {
+		out[i] = l.l.ranges[i].name
+	}
+	return out
 }

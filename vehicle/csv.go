@@ -4,27 +4,39 @@ import (
 	"encoding/csv"
 	"io"
 	"strconv"
+	"strings"
 )
 
 func ftoa(x float64) string { return strconv.FormatFloat(x, 'g', 9, 64) }
 
-// WriteCSV writes one row per time step of the segments that ran, with a
-// header row. Columns: segment index and name, start and duration (s),
-// speed (km/h), grade, engine speed (rpm) and torque (N·m), range,
-// transmission efficiency, hydrostatic share, slip, fuel flow (kg/h).
+// StepsCSVHeader is the header row of Day.WriteCSV. Every column names its
+// quantity and unit (pct for fractions in percent); range is the range's
+// name (its index when the transmission has no names, -1 disengaged);
+// settings are displacement over its maximum.
+var StepsCSVHeader = []string{"design", "segment", "segment_name", "start_s", "duration_s", "speed_kmh", "grade_pct",
+	"engine_speed_rpm", "engine_torque_Nm", "range", "transmission_efficiency_pct", "hydraulic_share_pct",
+	"slip_pct", "fuel_kg_per_h", "high_pressure_bar", "pump_speed_rpm", "motor_speed_rpm",
+	"pump_setting_pct", "motor_setting_pct"}
+
+// WriteCSV writes one row per time step of the segments that ran, with the
+// header StepsCSVHeader.
 func (d Day) WriteCSV(w io.Writer) error {
 	cw := csv.NewWriter(w)
-	if err := cw.Write([]string{"segment", "name", "start_s", "duration_s", "speed_kmh", "grade",
-		"engine_rpm", "engine_torque_Nm", "range", "transmission_efficiency", "hydrostatic_share",
-		"slip", "fuel_kg_per_h"}); err != nil {
+	if err := cw.Write(StepsCSVHeader); err != nil {
 		return err
 	}
 	for _, s := range d.Segments {
 		for _, st := range s.Steps {
-			rec := []string{strconv.Itoa(s.Index), s.Name, ftoa(st.Start.Seconds()), ftoa(st.Duration.Seconds()),
-				ftoa(st.Speed.KMH()), ftoa(st.Grade), ftoa(st.EngineSpeed.RPM()), ftoa(float64(st.EngineTorque)),
-				strconv.Itoa(st.Range), ftoa(st.TransmissionEfficiency), ftoa(st.HydrostaticShare),
-				ftoa(st.Slip), ftoa(st.FuelRate.KilogramsPerHour())}
+			rg := st.RangeName
+			if rg == "" {
+				rg = strconv.Itoa(st.Range)
+			}
+			h := st.Hydrostat
+			rec := []string{d.Design, strconv.Itoa(s.Index), s.Name, ftoa(st.Start.Seconds()), ftoa(st.Duration.Seconds()),
+				ftoa(st.Speed.KMH()), ftoa(100 * st.Grade), ftoa(st.EngineSpeed.RPM()), ftoa(float64(st.EngineTorque)),
+				rg, ftoa(100 * st.TransmissionEfficiency), ftoa(100 * st.HydrostaticShare),
+				ftoa(100 * st.Slip), ftoa(st.FuelRate.KilogramsPerHour()), ftoa(h.HighPressure.Bar()),
+				ftoa(h.PumpSpeed.RPM()), ftoa(h.MotorSpeed.RPM()), ftoa(100 * h.PumpSetting), ftoa(100 * h.MotorSetting)}
 			if err := cw.Write(rec); err != nil {
 				return err
 			}
@@ -34,37 +46,54 @@ func (d Day) WriteCSV(w io.Writer) error {
 	return cw.Error()
 }
 
-// WriteAuditCSV writes the energy audit (MJ) of every segment and the day,
-// one row each, with a header row; a segment that could not be run has its
-// reason in the last column.
+// AuditCSVHeader is the header row of Day.WriteAuditCSV and
+// Day.WriteTotalsCSV (energies in MJ).
+var AuditCSVHeader = []string{"design", "segment", "segment_name", "kind", "duration_s", "distance_m", "fuel_kg",
+	"fuel_MJ", "engine_loss_MJ", "engine_work_MJ", "hydrostatic_loss_MJ", "mechanical_loss_MJ",
+	"pto_loss_MJ", "pto_work_MJ", "slip_loss_MJ", "rolling_loss_MJ", "brake_MJ", "drawbar_MJ",
+	"trailer_rolling_MJ", "aero_MJ", "potential_MJ", "kinetic_MJ", "relative_residual", "error"}
+
+// WriteAuditCSV writes the energy audit of every segment, one row each,
+// with the header AuditCSVHeader; a segment that could not be run has its
+// reason in the last column. The day's totals are in WriteTotalsCSV.
 func (d Day) WriteAuditCSV(w io.Writer) error {
 	cw := csv.NewWriter(w)
-	if err := cw.Write([]string{"segment", "name", "kind", "duration_s", "distance_m", "fuel_kg",
-		"fuel_MJ", "engine_loss_MJ", "engine_work_MJ", "hydrostatic_loss_MJ", "mechanical_loss_MJ",
-		"pto_loss_MJ", "pto_work_MJ", "slip_loss_MJ", "rolling_loss_MJ", "brake_MJ", "drawbar_MJ",
-		"trailer_rolling_MJ", "aero_MJ", "potential_MJ", "kinetic_MJ", "relative_residual", "error"}); err != nil {
+	if err := cw.Write(AuditCSVHeader); err != nil {
 		return err
 	}
-	row := func(idx, name, kind string, a Audit, err error) error {
-		msg := ""
-		if err != nil {
-			msg = err.Error()
-		}
-		mj := func(e interface{ Megajoules() float64 }) string { return ftoa(e.Megajoules()) }
-		return cw.Write([]string{idx, name, kind, ftoa(a.Duration.Seconds()), ftoa(float64(a.Distance)),
-			ftoa(float64(a.Fuel)), mj(a.FuelEnergy), mj(a.EngineLoss), mj(a.EngineWork), mj(a.Hydrostatic),
-			mj(a.Mechanical), mj(a.PTOLoss), mj(a.PTOWork), mj(a.Slip), mj(a.Rolling), mj(a.Brake),
-			mj(a.Drawbar), mj(a.Trailer), mj(a.Aero), mj(a.Potential), mj(a.Kinetic),
-			ftoa(a.RelativeResidual()), msg})
-	}
 	for _, s := range d.Segments {
-		if err := row(strconv.Itoa(s.Index), s.Name, s.Kind.String(), s.Audit, s.Err); err != nil {
+		if err := cw.Write(auditRow(d.Design, strconv.Itoa(s.Index), s.Name, s.Kind.String(), s.Audit, s.Err)); err != nil {
 			return err
 		}
 	}
-	if err := row("day", "", "", d.Audit, nil); err != nil {
+	cw.Flush()
+	return cw.Error()
+}
+
+// WriteTotalsCSV writes the day's audit (the sum over the segments that
+// ran) as one row under the header AuditCSVHeader, segment "day"; the
+// error column joins the reasons of the segments that did not run.
+func (d Day) WriteTotalsCSV(w io.Writer) error {
+	cw := csv.NewWriter(w)
+	if err := cw.Write(AuditCSVHeader); err != nil {
+		return err
+	}
+	if err := cw.Write(auditRow(d.Design, "day", "", "", d.Audit, d.Err())); err != nil {
 		return err
 	}
 	cw.Flush()
 	return cw.Error()
+}
+
+func auditRow(design, idx, name, kind string, a Audit, err error) []string {
+	msg := ""
+	if err != nil {
+		msg = strings.ReplaceAll(err.Error(), "\n", "; ")
+	}
+	mj := func(e interface{ Megajoules() float64 }) string { return ftoa(e.Megajoules()) }
+	return []string{design, idx, name, kind, ftoa(a.Duration.Seconds()), ftoa(float64(a.Distance)),
+		ftoa(float64(a.Fuel)), mj(a.FuelEnergy), mj(a.EngineLoss), mj(a.EngineWork), mj(a.Hydrostatic),
+		mj(a.Mechanical), mj(a.PTOLoss), mj(a.PTOWork), mj(a.Slip), mj(a.Rolling), mj(a.Brake),
+		mj(a.Drawbar), mj(a.Trailer), mj(a.Aero), mj(a.Potential), mj(a.Kinetic),
+		ftoa(a.RelativeResidual()), msg}
 }

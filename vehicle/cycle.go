@@ -3,7 +3,6 @@ package vehicle
 import (
 	"errors"
 	"math"
-	"slices"
 	"time"
 
 	"github.com/powersplit-dev/powersplit/units"
@@ -94,11 +93,15 @@ type Step struct {
 	Grade                  float64
 	EngineSpeed            units.AngularVelocity
 	EngineTorque           units.Torque
-	Range                  int // -1 with the drive disengaged
+	Range                  int    // -1 with the drive disengaged
+	RangeName              string // the range's name, when the transmission has names
 	TransmissionEfficiency float64
 	HydrostaticShare       float64
 	Slip                   float64
 	FuelRate               units.MassFlow
+	// Hydrostat is the loop's pressure and unit speeds and settings (zero
+	// with the drive disengaged or when the transmission reports none).
+	Hydrostat UnitState
 }
 
 // An Audit is the energy account of a segment or a day. It closes as
@@ -189,13 +192,17 @@ type SegmentResult struct {
 	Err   error
 	Steps []Step
 	Audit Audit
-	// Flags name the rated limits crossed during the segment (each once)
-	// that did not make it infeasible. Check them: they are warnings.
-	Flags []string
+	// Flags are the rated limits crossed during the segment that did not
+	// make it infeasible, one per name, with the largest value reached and
+	// the time spent beyond the rating. Check them: they are warnings.
+	Flags []Flag
 }
 
 // A Day is the result of a duty cycle.
 type Day struct {
+	// Design names the design or run; Simulate leaves it empty for the
+	// caller to set. The CSV writers put it in every row.
+	Design   string
 	Segments []SegmentResult
 	// Audit is the sum of the audits of the segments that ran.
 	Audit Audit
@@ -392,7 +399,7 @@ func (g Segment) demandFor(p piece) (Demand, error) {
 }
 
 // run solves the pieces of one segment.
-func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock float64) ([]Step, Audit, []string, float64, error) {
+func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock float64) ([]Step, Audit, []Flag, float64, error) {
 	steps := make([]Step, 0, len(pieces))
 	var a Audit
 	var t float64
@@ -403,7 +410,7 @@ func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock floa
 		mGrav += float64(g.Trailer.Mass)
 	}
 	var rise, dist float64
-	var flags []string
+	var flags []Flag
 	for _, pc := range pieces {
 		d, err := g.demandFor(pc)
 		if err != nil {
@@ -413,13 +420,9 @@ func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock floa
 		if err != nil {
 			return nil, Audit{}, nil, t, err
 		}
-		for _, fl := range p.Flags {
-			if !slices.Contains(flags, fl) {
-				flags = append(flags, fl)
-			}
-		}
-		f := p.Flows
 		h := pc.dt
+		flags = addFlags(flags, p.Flags, seconds(h))
+		f := p.Flows
 		e := func(x units.Power) units.Energy { return units.Energy(float64(x) * h) }
 		a.Fuel += units.Mass(float64(p.FuelRate) * h)
 		a.FuelEnergy += e(f.Fuel)
@@ -441,8 +444,9 @@ func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock floa
 		steps = append(steps, Step{
 			Segment: idx, Start: seconds(clock + t), Duration: seconds(h),
 			Speed: d.Speed, Grade: pc.grade, EngineSpeed: p.EngineSpeed, EngineTorque: p.EngineTorque,
-			Range: p.Range, TransmissionEfficiency: p.TransmissionEfficiency(),
-			HydrostaticShare: p.Drive.HydrostaticShare, Slip: p.Slip, FuelRate: p.FuelRate,
+			Range: p.Range, RangeName: p.Drive.RangeName, Hydrostat: p.Drive.Hydrostat,
+			TransmissionEfficiency: p.TransmissionEfficiency(),
+			HydrostaticShare:       p.Drive.HydrostaticShare, Slip: p.Slip, FuelRate: p.FuelRate,
 		})
 		t += h
 	}

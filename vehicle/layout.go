@@ -82,9 +82,17 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 		HydrostaticLoss:  units.Power(hydro),
 		MechanicalLoss:   units.Power(mech),
 		HydrostaticShare: st.HydraulicShare,
+		RangeName:        st.RangeName,
+	}
+	if len(st.Loops) > 0 {
+		lp := &st.Loops[0]
+		p.Hydrostat = UnitState{HighPressure: lp.High, PumpSpeed: lp.Pump.Speed, PumpSetting: lp.Pump.Setting}
+		if len(lp.Motors) > 0 {
+			p.Hydrostat.MotorSpeed, p.Hydrostat.MotorSetting = lp.Motors[0].Speed, lp.Motors[0].Setting
+		}
 	}
 	for _, m := range st.Flags {
-		p.Flags = append(p.Flags, m.Element+": "+m.Quantity+" above rating")
+		p.Flags = append(p.Flags, Flag{Name: m.Element + ": " + m.Quantity, Value: m.Value, Limit: m.Limit, Unit: m.Unit})
 	}
 	return p, nil
 }

@@ -37,10 +37,26 @@ type DrivePoint struct {
 	// HydrostaticShare is the signed share of the input power that flows
 	// through the hydrostat (negative: circulating power).
 	HydrostaticShare float64
-	// Flags name rated limits crossed that do not make the point
+	// RangeName is the range's name when the transmission has names
+	// (LayoutDrive); empty otherwise.
+	RangeName string
+	// Hydrostat is the state of the first hydrostatic loop, when the
+	// transmission reports one (LayoutDrive does; SplitEstimate does not).
+	Hydrostat UnitState
+	// Flags are rated limits crossed that do not make the point
 	// infeasible (for example a rated continuous pressure exceeded below
 	// the relief setting). They are reported, never hidden.
-	Flags []string
+	Flags []Flag
+}
+
+// UnitState is the state of a transmission's hydrostatic loop at one point:
+// its high-line pressure and the speeds and settings (displacement over its
+// maximum) of the pump and the first motor. The zero value means none is
+// known.
+type UnitState struct {
+	HighPressure              units.Pressure
+	PumpSpeed, MotorSpeed     units.AngularVelocity
+	PumpSetting, MotorSetting float64
 }
 
 // Efficiency returns the output power over the input power, or 0 when no

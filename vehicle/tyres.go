@@ -30,6 +30,10 @@ type Wheels struct {
 	SlipLoss, RollingLoss units.Power
 	// Overloaded is true when a tyre carries more than its rated load.
 	Overloaded bool
+	// TyreLoad is the load on one tyre of the axle loaded most heavily
+	// relative to its rating, RatedLoad that tyre's rating (zero when
+	// unknown).
+	TyreLoad, RatedLoad units.Force
 }
 
 // A SlipCurve is a simple traction model for studies and tests: all wheels
@@ -150,6 +154,10 @@ func (t Tyres) Drive(pull units.Force, grade float64, v units.Speed) (Wheels, er
 		}
 		return Wheels{}, errors.Join(ErrInvalid, err)
 	}
+	load, rated := d.Rear.Wheel.Load, t.Vehicle.Rear.Tyre.RatedLoad
+	if fl, fr := d.Front.Wheel.Load, t.Vehicle.Front.Tyre.RatedLoad; fr > 0 && (rated <= 0 || float64(fl)/float64(fr) > float64(load)/float64(rated)) {
+		load, rated = fl, fr
+	}
 	return Wheels{
 		Speed:       d.Rear.Wheel.WheelSpeed,
 		Power:       d.InputPower,
@@ -157,5 +165,7 @@ func (t Tyres) Drive(pull units.Force, grade float64, v units.Speed) (Wheels, er
 		SlipLoss:    d.SlipLoss,
 		RollingLoss: d.RollingLoss,
 		Overloaded:  d.Front.Wheel.Overloaded || d.Rear.Wheel.Overloaded,
+		TyreLoad:    load,
+		RatedLoad:   rated,
 	}, nil
 }

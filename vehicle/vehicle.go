@@ -181,13 +181,14 @@ type Point struct {
 	// Pull is the net pull the tyres give (drawbar + trailer + grade + drag + inertia).
 	Pull  units.Force
 	Flows Flows
-	// Flags name rated limits crossed that do not make the point
+	// Flags are the rated limits crossed that do not make the point
 	// infeasible (tyre load above its rating, a transmission rating).
-	Flags []string
+	Flags []Flag
 }
 
-// FlagTyreOverload is the flag of a tyre carrying more than its rated load.
-const FlagTyreOverload = "tyre load above rating"
+// FlagTyreOverload is the name of the flag of a tyre carrying more than its
+// rated load.
+const FlagTyreOverload = "tyre load"
 
 // TransmissionEfficiency returns the transmission's output over input
 // power, 0 with the drive disengaged.
@@ -270,7 +271,7 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		}
 		p.Slip = wh.Slip
 		if wh.Overloaded {
-			p.Flags = append(p.Flags, FlagTyreOverload)
+			p.Flags = append(p.Flags, Flag{Name: FlagTyreOverload, Value: float64(wh.TyreLoad), Limit: float64(wh.RatedLoad), Unit: "N"})
 		}
 		f.Rolling = wh.RollingLoss
 		// Close the tyre balance exactly on the slip loss (its rounding is

@@ -84,14 +84,16 @@ func run(r *demo.Run) error {
 			}
 			s := powersplit.NewSolver(res.layout)
 			for rg := range res.layout.Ranges() {
-				lo, hi, err := s.Interval(powersplit.Point{Range: rg, Input: study, Outputs: []powersplit.OutputDemand{{Speed: 1}}})
+				ivs, err := s.Interval(powersplit.Point{Range: rg, Input: study, Outputs: []powersplit.OutputDemand{{Speed: 1}}})
 				if err != nil {
 					res.spans = append(res.spans, res.layout.RangeName(rg)+": unreachable")
 					continue
 				}
-				res.spans = append(res.spans, fmt.Sprintf("%s %s–%s", res.layout.RangeName(rg), demo.F(kmh(lo), 1, ""), demo.F(kmh(hi), 1, "km/h")))
+				for _, iv := range ivs {
+					res.spans = append(res.spans, fmt.Sprintf("%s %s–%s", res.layout.RangeName(rg), demo.F(kmh(iv.Lo), 1, ""), demo.F(kmh(iv.Hi), 1, "km/h")))
+				}
 			}
-			res.sweep, res.err = res.layout.Sweep(powersplit.SweepSpec{Range: powersplit.Auto, Input: study,
+			res.sweep, res.err = res.layout.Sweep(powersplit.SweepSpec{Design: t.Name, Range: powersplit.Auto, Input: study,
 				From: out(1), To: out(50), Steps: 120, Power: power, Workers: 1})
 			if res.err != nil {
 				return
@@ -103,6 +105,7 @@ func run(r *demo.Run) error {
 			}
 			res.fuel = v.Engine().Fuel()
 			res.day, res.err = vehicle.Simulate(v, ps, cycle, vehicle.Options{Step: sc.Step().Std()})
+			res.day.Design = t.Name
 		})
 	}
 	wg.Wait()

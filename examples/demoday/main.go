@@ -83,6 +83,7 @@ func run(r *demo.Run) error {
 	if err != nil {
 		return err
 	}
+	day.Design = sc.Transmission.Name
 	ps.Finish()
 	elapsed := time.Since(start)
 
@@ -124,13 +125,9 @@ func run(r *demo.Run) error {
 	for _, f := range failed {
 		r.Note("Not run: " + f)
 	}
-	flags := map[string]bool{}
 	for _, s := range day.Segments {
 		for _, f := range s.Flags {
-			if !flags[s.Name+": "+f] {
-				flags[s.Name+": "+f] = true
-				r.Note("Rated limit crossed (check it): " + s.Name + ": " + f)
-			}
+			r.Note("Rated limit crossed (check it): " + s.Name + ": " + f.String() + ".")
 		}
 	}
 	sum.FuelKilograms, sum.FuelLitres = a.Fuel.Kilograms(), a.Volume(fuel).Litres()
@@ -177,7 +174,7 @@ func run(r *demo.Run) error {
 	for _, f := range []struct {
 		name  string
 		write func(io.Writer) error
-	}{{"day_steps.csv", day.WriteCSV}, {"day_audit.csv", day.WriteAuditCSV}} {
+	}{{"day_steps.csv", day.WriteCSV}, {"day_audit.csv", day.WriteAuditCSV}, {"day_totals.csv", day.WriteTotalsCSV}} {
 		path := filepath.Join(r.Out, f.name)
 		if err := demo.WriteFile(path, f.write); err != nil {
 			return err

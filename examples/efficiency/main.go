@@ -60,12 +60,13 @@ func run(r *demo.Run) error {
 	var csvs []string
 	for rg := range layout.Ranges() {
 		name := layout.RangeName(rg)
-		lo, hi, err := solver.Interval(powersplit.Point{Range: rg, Input: study, Outputs: []powersplit.OutputDemand{{Speed: 1}}})
+		ivs, err := solver.Interval(powersplit.Point{Range: rg, Input: study, Outputs: []powersplit.OutputDemand{{Speed: 1}}})
 		if err != nil {
 			tb.Row(name, "unreachable: "+err.Error(), "", "", "", "", "")
 			continue
 		}
-		sw, err := layout.Sweep(powersplit.SweepSpec{Range: rg, Input: study, From: lo, To: hi, Steps: 80,
+		lo, hi := demo.Widest(ivs)
+		sw, err := layout.Sweep(powersplit.SweepSpec{Design: sc.Transmission.Name, Range: rg, Input: study, From: lo, To: hi, Steps: 80,
 			Power: power, Progress: demo.Progress("sweep " + name)})
 		if err != nil {
 			return fmt.Errorf("sweep of range %s: %w", name, err)
@@ -141,7 +142,7 @@ func run(r *demo.Run) error {
 	r.Heading(fmt.Sprintf("Efficiency map over travel speed × pull (engine %v, best range per point)", study))
 	maxKMH := 45.0
 	maxPull := 0.75 * float64(units.ForceFromMass(sc.Tractor.Mass, units.Gravity))
-	m, err := layout.Map(powersplit.MapSpec{Range: powersplit.Auto, Input: study,
+	m, err := layout.Map(powersplit.MapSpec{Design: sc.Transmission.Name, Range: powersplit.Auto, Input: study,
 		SpeedFrom: conv.output(0.5), SpeedTo: conv.output(maxKMH), SpeedSteps: 90,
 		TorqueFrom: conv.torque(units.Kilonewtons(1)), TorqueTo: conv.torque(units.Force(maxPull)), TorqueSteps: 60,
 		Progress: demo.Progress("efficiency map")})
@@ -286,9 +287,11 @@ func dayPoints(sc *demo.Scenario, conv converter) (figures.Series, *demo.Table, 
 			}
 			x := conv.kmh(p.Drive.OutputSpeed)
 			y := conv.pull(p.Drive.OutputTorque).Kilonewtons()
+			pout := units.PowerFromTorque(p.Drive.OutputTorque, p.Drive.OutputSpeed)
+			pin := units.PowerFromTorque(p.Drive.InputTorque, p.EngineSpeed)
 			pts.X, pts.Y = append(pts.X, x), append(pts.Y, y)
 			tb.Row(g.Name, demo.F(d.Speed.KMH(), 1, "km/h"), demo.F(y, 1, "kN"), demo.F(p.EngineSpeed.RPM(), 0, "rpm"),
-				sc.Transmission.RangeNames()[p.Range], demo.Pct(p.TransmissionEfficiency(), 1), demo.Pct(p.Drive.HydrostaticShare, 0))
+				sc.Transmission.RangeNames()[p.Range], demo.Ratio(p.TransmissionEfficiency(), pout, pin, 1), demo.Ratio(p.Drive.HydrostaticShare, pout, pin, 0))
 		}
 	}
 	return pts, tb, nil

@@ -4,6 +4,9 @@ import (
 	"io"
 	"os"
 	"strings"
+
+	"github.com/powersplit-dev/powersplit"
+	"github.com/powersplit-dev/powersplit/units"
 )
 
 // FirstLine returns the first line of err's message, for one-line reports.
@@ -35,4 +38,15 @@ func WriteFile(path string, write func(io.Writer) error) error {
 		return err
 	}
 	return f.Close()
+}
+
+// Widest returns the widest of a range's reachable speed intervals (as
+// Solver.Interval lists them), the one a sweep of the range runs over.
+func Widest(ivs []powersplit.SpeedInterval) (lo, hi units.AngularVelocity) {
+	for i, iv := range ivs {
+		if i == 0 || iv.Hi-iv.Lo > hi-lo {
+			lo, hi = iv.Lo, iv.Hi
+		}
+	}
+	return lo, hi
 }

@@ -12,6 +12,7 @@ import (
 	"time"
 	"unicode/utf8"
 
+	"github.com/powersplit-dev/powersplit/units"
 	"github.com/powersplit-dev/powersplit/vehicle"
 	"github.com/powersplit-dev/powersplit/vehicle/design"
 )
@@ -273,4 +274,19 @@ func CountSteps(cycle []vehicle.Segment, step time.Duration) int {
 		}
 	}
 	return max(n, 1)
+}
+
+// NearZero is the output power below which an efficiency or a share of it
+// is shown as "—": a ratio of two small powers says nothing about the
+// design.
+const NearZero = units.Power(500)
+
+// Ratio formats an efficiency or hydraulic share frac in percent, or "—"
+// when the output power out is below NearZero or below 2 % of the input
+// power in (the engine only turning the drive over).
+func Ratio(frac float64, out, in units.Power, prec int) string {
+	if math.Abs(float64(out)) < float64(NearZero) || math.Abs(float64(out)) < 0.02*math.Abs(float64(in)) {
+		return "—"
+	}
+	return Pct(frac, prec)
 }

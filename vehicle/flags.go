@@ -1,0 +1,106 @@
+package vehicle
+
+import (
+	"math"
+	"strconv"
+	"time"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// A Flag is a rated limit crossed at an operating point without making it
+// infeasible: a rated continuous pressure exceeded below the relief
+// setting, a tyre carrying more than its rated load. Flags are warnings:
+// they are reported, never hidden.
+type Flag struct {
+	// Name says what crossed its rating, for example
+	// "hydrostat: pump rated pressure" or "rear tyre load".
+	Name string
+	// Value is the magnitude reached (the largest, in a segment's or a
+	// day's flags) and Limit the rating, both in the SI unit Unit ("Pa",
+	// "rad/s", "N").
+	Value, Limit float64
+	Unit         string
+	// Time is the time spent beyond the rating: zero at a single point,
+	// summed over the steps of a segment or a day.
+	Time time.Duration
+}
+
+// String returns "<name> <value> above rated <limit>[ for <time>]", with
+// values in the trade's units: "hydrostat: pump rated pressure 290 bar
+// above rated 150 bar for 42 min".
+func (f Flag) String() string {
+	s := f.Name + " " + quantity(f.Value, f.Unit) + " above rated " + quantity(f.Limit, f.Unit)
+	if f.Time > 0 {
+		s += " for " + minutes(f.Time)
+	}
+	return s
+}
+
+// quantity formats an SI value in the trade's unit, to 3 significant digits
+// (whole units from 100 up).
+func quantity(v float64, unit string) string {
+	g := func(x float64, u string) string {
+		if math.Abs(x) >= 100 {
+			return strconv.FormatFloat(x, 'f', 0, 64) + " " + u
+		}
+		return strconv.FormatFloat(x, 'g', 3, 64) + " " + u
+	}
+	switch unit {
+	case "Pa":
+		return g(units.Pressure(v).Bar(), "bar")
+	case "rad/s":
+		return g(units.AngularVelocity(v).RPM(), "rpm")
+	case "N":
+		return g(v/1e3, "kN")
+	case "W":
+		return g(v/1e3, "kW")
+	case "N·m":
+		return g(v, "N·m")
+	}
+	return g(v, unit)
+}
+
+// minutes formats a duration as "42 min", or in seconds below a minute.
+func minutes(d time.Duration) string {
+	if d < time.Minute {
+		return strconv.FormatFloat(d.Seconds(), 'f', 0, 64) + " s"
+	}
+	return strconv.FormatFloat(d.Minutes(), 'f', 0, 64) + " min"
+}
+
+// addFlags merges the flags of one step of duration dt into acc: one entry
+// per Name, with the largest value reached and the time summed.
+func addFlags(acc []Flag, fs []Flag, dt time.Duration) []Flag {
+	for _, f := range fs {
+		found := false
+		for i := range acc {
+			if acc[i].Name == f.Name {
+				acc[i].Value = max(acc[i].Value, f.Value)
+				acc[i].Time += dt
+				found = true
+				break
+			}
+		}
+		if !found {
+			f.Time = dt
+			acc = append(acc, f)
+		}
+	}
+	return acc
+}
+
+// Flags returns the rated limits crossed during the day, one per name, with
+// the largest value reached and the time spent beyond the rating summed
+// over the segments that ran.
+func (d Day) Flags() []Flag {
+	var out []Flag
+	for _, s := range d.Segments {
+		for _, f := range s.Flags {
+			t := f.Time
+			f.Time = 0
+			out = addFlags(out, []Flag{f}, t)
+		}
+	}
+	return out
+}
