@@ -1,10 +1,12 @@
 package powersplit
 
 import (
+	"errors"
 	"math"
 	"testing"
 
 	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/internal/testutil"
 	"github.com/powersplit-dev/powersplit/planetary"
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -99,8 +101,24 @@ func mustSet(tb testing.TB, i0, eta0 float64) planetary.Set {
 	return s
 }
 
-func TestSmoke(t *testing.T) {
-	lp := makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson})
+// TestLossySweep solves one lossy output-coupled split across its speed range
+// and checks each point's outcome against a hand calculation.
+//
+// Hand calculation (Willis, i0 = −2.5, carrier on the engine at 2000 rpm,
+// sun → pump ×1.2, ring → motor ÷0.8, range gear 0.2):
+//
+//	ring  = output/0.2 = 5·v          motor = ring/0.8 = 6.25·v
+//	sun   = i0·ring + (1 − i0)·carrier = 7000 − 12.5·v      pump = 1.2·sun
+//
+// The sun stops (mechanical point) at v = 560 rpm: the hydraulic share is
+// positive below it and negative (circulating power) above it. With units
+// rated 6000 rpm, the pump exceeds its speed at v = −300 (12 900 rpm) and the
+// motor at v = 1200 (7500 rpm). At v = 600 the pump turns at −600 rpm and the
+// motor at 3750 rpm: lossless, the motor needs a setting 100·600/(100·3750) =
+// 0.16, below its minimum 0.2, so the ratio is unreachable.
+func TestLossySweep(t *testing.T) {
+	t.Parallel()
+	lp := makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson, maxRPM: 6000})
 	l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(t, -2.5, 0.98), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
 		Ranges: []RangeGear{{Ratio: 0.2}, {Ratio: 0.4}}, PTOs: []PTOSpec{{Ratio: 0.25}}})
 	if err != nil {
@@ -108,9 +126,54 @@ func TestSmoke(t *testing.T) {
 	}
 	s := NewSolver(l)
 	var st State
-	for _, v := range []float64{-300, 0, 200, 600, 900, 1200} {
-		err = s.Solve(Point{Range: 0, Input: units.RPM(2000), Outputs: []OutputDemand{{Speed: units.RPM(v), Torque: units.NewtonMetres(2000)}}, PTO: []units.Torque{units.NewtonMetres(100)}}, &st)
-		t.Logf("v=%v err=%v in=%v out=%v eff=%.4f share=%.4f dp=%v it=%d res=%g", v, err, st.InputPower, st.OutputPower, st.Efficiency, st.HydraulicShare, st.Loops[0].Pressure, st.Iterations, st.Residual)
+	cases := []struct {
+		v     float64 // output speed, rpm
+		want  error   // nil: solves
+		share float64 // sign of the hydraulic share when it solves
+	}{
+		{-300, ErrInfeasible, 0},
+		{200, nil, +1},
+		{500, nil, +1},
+		{600, ErrUnreachable, 0},
+		{620, nil, -1},
+		{900, nil, -1},
+		{1200, ErrInfeasible, 0},
+	}
+	for _, c := range cases {
+		err := s.Solve(Point{Range: 0, Input: units.RPM(2000), Outputs: []OutputDemand{{Speed: units.RPM(c.v), Torque: units.NewtonMetres(2000)}},
+			PTO: []units.Torque{units.NewtonMetres(100)}}, &st)
+		if c.want != nil {
+			var le *LimitError
+			if !errors.Is(err, c.want) || !errors.As(err, &le) {
+				t.Errorf("v = %g rpm: error %v, want a *LimitError matching %v", c.v, err, c.want)
+			}
+			continue
+		}
+		if err != nil {
+			t.Errorf("v = %g rpm: %v", c.v, err)
+			continue
+		}
+		if got := st.Outputs[0].Speed.RPM(); !testutil.Close(got, c.v, 1e-12, 0) {
+			t.Errorf("v = %g rpm: output speed %g rpm", c.v, got)
+		}
+		if got := st.PTOs[0].Speed.RPM(); !testutil.Close(got, 500, 1e-12, 0) {
+			t.Errorf("v = %g rpm: PTO speed %g rpm, want 0.25·2000 = 500", c.v, got)
+		}
+		in, out := float64(st.InputPower), float64(st.OutputPower+st.PTOPower+st.Loss)
+		if !testutil.Close(in, out, 1e-9, 0) {
+			t.Errorf("v = %g rpm: input %v ≠ outputs + PTO + losses %g W", c.v, st.InputPower, out)
+		}
+		for _, e := range st.Elements {
+			if e.Loss < 0 {
+				t.Errorf("v = %g rpm: %s loss %v < 0", c.v, e.Name, e.Loss)
+			}
+		}
+		if st.HydrostatLoss <= 0 || st.Loss <= st.HydrostatLoss {
+			t.Errorf("v = %g rpm: losses %v (hydrostat %v): want both paths lossy", c.v, st.Loss, st.HydrostatLoss)
+		}
+		if st.HydraulicShare*c.share <= 0 || !(st.Efficiency > 0 && st.Efficiency < 1) {
+			t.Errorf("v = %g rpm: share %g (want sign %v), efficiency %g", c.v, st.HydraulicShare, c.share, st.Efficiency)
+		}
 	}
 }
 

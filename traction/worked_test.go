@@ -9,11 +9,19 @@ import (
 	"github.com/powersplit-dev/powersplit/units"
 )
 
-// Published worked examples, reproduced through the public API with the
-// source's own inputs and its own stated results.
+// Published tables, reproduced through the public API with the source's own
+// inputs and its own stated results.
 
-// TestWorkedRollingResistanceRoad reproduces a published worked example of
-// rolling resistance on a hard road with the Road model.
+// TestWorkedRollingResistanceRoad checks the Road model's rolling resistance
+// R_r = f·W (summed over the wheels) against the resistances a published
+// worked example prints for given f and W.
+//
+// What this can and cannot catch: the package's Road model has no speed
+// term, so the source's speed dependence of f (Eq. 1.1 and 1.2) is computed
+// in the test and handed to the package as each row's coefficient. The check
+// is therefore one of the product f·W (and of the split over four wheels and
+// the loss power R_r·V), against independently printed numbers; it says
+// nothing about how f varies with speed, which the package does not model.
 //
 // Source: J. Y. Wong, Solutions Manual to Accompany Theory of Ground
 // Vehicles, Fourth Edition, Chapter 1, first problem (solution and

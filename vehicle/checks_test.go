@@ -126,7 +126,10 @@ func TestRoadRollingCoefficients(t *testing.T) {
 
 func TestPTOSpeeds(t *testing.T) {
 	t.Parallel()
-	// Source: ISO 500-1:2014, nominal PTO speeds 540 and 1 000 r/min.
+	// Transcription check: the constants are the nominal PTO speeds of
+	// ISO 500-1:2014 (From memory: 540 and 1 000 r/min). The rest of the
+	// test is hand calculation (engine speed = ratio × PTO speed), a
+	// consistency check of the package's kinematics, not of the standard.
 	if got := vehicle.PTO540.RPM(); !testutil.Close(got, 540, 1e-12, 0) {
 		t.Errorf("PTO540 = %v rpm", got)
 	}
