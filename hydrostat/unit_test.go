@@ -29,18 +29,31 @@ func mustUnit(t testing.TB, s UnitSpec) Unit {
 
 func TestGeometricDisplacement(t *testing.T) {
 	t.Parallel()
-	// From memory: Esposito, Fluid Power with Applications, worked example
-	// on axial-piston pump displacement: nine pistons of 0.5 in diameter on
-	// a 5 in piston circle at an offset angle of 10° displace 1.56 in³/rev
-	// (V = z·A·D·tan α = 9 × 0.19635 × 5 × 0.17633 = 1.558 in³).
+	// From memory (the book was not at hand to re-read): Esposito, Fluid
+	// Power with Applications, axial-piston pump example: nine pistons of
+	// 0.5 in diameter on a 5 in piston circle; a delivery of 16 gpm needs a
+	// displacement of 1.30 in³/rev, an offset angle of about 8.4°. Printed
+	// to 0.01 in³ and 0.1°: checked to ±0.005 in³ and ±0.05°.
+	in3 := math.Pow(0.0254, 3)
+	d84, err := GeometricDisplacement(Swashplate, 9, units.Inches(0.5), units.Inches(5), units.Degrees(8.4))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := d84.CubicMetresPerRadian() * 2 * math.Pi / in3; !testutil.Close(got, 1.30, 0, 0.005) {
+		t.Errorf("displacement at 8.4° = %.4f in³/rev, want 1.30", got)
+	}
+	// Hand calculation: V = z·(π/4)·d²·D·tan α = 9 × 0.196 350 × 5 × tan 10°
+	// = 1.558 in³/rev at the 10° maximum angle used below.
 	d, err := GeometricDisplacement(Swashplate, 9, units.Inches(0.5), units.Inches(5), units.Degrees(10))
 	if err != nil {
 		t.Fatal(err)
 	}
-	in3 := math.Pow(0.0254, 3)
-	got := d.CubicMetresPerRadian() * 2 * math.Pi / in3
-	if !testutil.Close(got, 1.56, 0.005, 0) {
-		t.Errorf("displacement = %.4f in³/rev, want 1.56", got)
+	if got := d.CubicMetresPerRadian() * 2 * math.Pi / in3; !testutil.Close(got, 1.558, 0, 0.0005) {
+		t.Errorf("displacement at 10° = %.4f in³/rev, want 1.558", got)
+	}
+	u10 := mustUnit(t, UnitSpec{Kind: Swashplate, Pistons: 9, PistonDiameter: units.Inches(0.5), PitchDiameter: units.Inches(5), MaxAngle: units.Degrees(10)})
+	if a, err := u10.AngleFromSetting(1.30 / 1.558); err != nil || !testutil.Close(a.Degrees(), 8.4, 0, 0.05) {
+		t.Errorf("angle for 1.30 in³/rev = %v, %v, want about 8.4°", a, err)
 	}
 	// Hand calculation: the same geometry as a bent-axis unit uses sin α.
 	b, _ := GeometricDisplacement(BentAxis, 9, units.Inches(0.5), units.Inches(5), units.Degrees(10))
