@@ -124,11 +124,18 @@ func TestRatios(t *testing.T) {
 			t.Errorf("Ratio(%v, %v) = %.15g, want %.15g", tc.in, tc.out, got, tc.want)
 		}
 	}
-	// Source: tec-science.com, "Übersetzungsmöglichkeiten der Planetengetriebe":
-	// sun held, ring driving, carrier output: i_S = n_ring/n_carrier = 1 + z_sun/z_ring.
-	got, _ := s.Ratio(planetary.Ring, planetary.Carrier)
-	if want := 1 + 20.0/100; !testutil.Close(got, want, 1e-14, 0) {
-		t.Errorf("Ratio(ring, carrier) = %g, want %g", got, want)
+	// Source: homeworksource.com problem 1031202 (as in TestWorkedExamples),
+	// here built from tooth counts: sun 23 T held, ring 55 T output, arm 100
+	// rpm in, published answer 141.8 rpm (four digits: ±0.05 rpm). The
+	// counts are doubled (46/110, same ratio) so that the planet, 32 T, is
+	// free of undercut; three planets assemble, (110 + 46)/3 = 52.
+	s23 := mustNew(t, planetary.Design{Sun: 46, Ring: 110, Planet: 32, Planets: 3})
+	got, err := s23.Ratio(planetary.Carrier, planetary.Ring)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if ring := 100 / got; !testutil.Close(ring, 141.8, 0, 0.05) {
+		t.Errorf("sun 23 T held, arm 100 rpm: ring %.4g rpm, published 141.8", ring)
 	}
 	for _, bad := range [][2]planetary.Member{{planetary.Sun, planetary.Sun}, {planetary.Sun, 7}, {-1, planetary.Ring}} {
 		if _, err := s.Ratio(bad[0], bad[1]); !errors.Is(err, planetary.ErrMember) {
