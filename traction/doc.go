@@ -74,8 +74,9 @@
 // four soil conditions tabulated in ASABE D497 (1800, 1200, 900 and
 // 450 kPa; recalled from the standard, check your copy). Concrete, Asphalt
 // and Gravel carry rolling and adhesion coefficients for the Road model.
-// Recommended returns the recommended slip range and the typical tractive
-// efficiencies that ASABE D497 tabulates for each condition.
+// Recommended returns the recommended slip range and the typical ratios of
+// drawbar power to PTO power (whole tractor, driveline losses included, not
+// tyre efficiencies) that ASABE D497 tabulates for each condition.
 //
 // # One wheel
 //

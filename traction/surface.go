@@ -144,25 +144,34 @@ func Gravel() Surface {
 }
 
 // Recommendation is the published guidance for one surface condition: the
-// slip range of best tractive performance and typical tractive efficiencies
-// by drive type.
+// slip range of best tractive performance and the typical ratio of drawbar
+// power to PTO power by drive type.
+//
+// The power ratios are whole-tractor figures, as ASABE D497 defines them:
+// drawbar power over the power the engine delivers at the PTO. They include
+// the losses of the transmission and final drives as well as those of the
+// tyres (and, for two-wheel drive, the rolling resistance of the free front
+// wheels). They are not tyre tractive efficiencies: to estimate engine
+// (PTO-equivalent) power from drawbar power, divide by the ratio and do not
+// apply a transmission efficiency again.
 type Recommendation struct {
 	SlipLow, SlipHigh     float64 // recommended slip range
-	EfficiencyRearDrive   float64 // two-wheel drive
-	EfficiencyFrontAssist float64 // mechanical front-wheel assist
-	EfficiencyFourWheel   float64 // four-wheel drive
-	EfficiencyTracked     float64 // tracked
+	DrawbarPTORearDrive   float64 // drawbar/PTO power, two-wheel drive
+	DrawbarPTOFrontAssist float64 // drawbar/PTO power, mechanical front-wheel assist
+	DrawbarPTOFourWheel   float64 // drawbar/PTO power, four-wheel drive
+	DrawbarPTOTracked     float64 // drawbar/PTO power, tracked
 }
 
 // recommended is the ASABE D497 guidance.
 //
-// From memory: ASABE D497.7 (2011), table of tractive efficiency by
-// surface and drive (concrete, firm, tilled, soft soil): two-wheel drive
-// 0.87/0.72/0.67/0.55, front-wheel assist 0.87/0.77/0.73/0.65, four-wheel
-// drive 0.88/0.78/0.75/0.70, tracked 0.88/0.82/0.80/0.75; recommended slip
-// 4–8 % on concrete, 8–10 % firm, 11–13 % tilled, 14–16 % soft. Recalled,
-// not read: check against your copy. The table has no separate hard-soil
-// row; the road (concrete) row is the nearest.
+// From memory: ASABE D497.7 (2011), table of power ratios (drawbar power
+// over PTO power) by surface and drive (concrete, firm, tilled, soft soil):
+// two-wheel drive 0.87/0.72/0.67/0.55, front-wheel assist
+// 0.87/0.77/0.73/0.65, four-wheel drive 0.88/0.78/0.75/0.70, tracked
+// 0.88/0.82/0.80/0.75; recommended slip 4–8 % on concrete, 8–10 % firm,
+// 11–13 % tilled, 14–16 % soft. Recalled, not read: check against your
+// copy. The table has no separate hard-soil row; the road (concrete) row is
+// the nearest.
 var recommended = map[Class]Recommendation{
 	ClassRoad:   {0.04, 0.08, 0.87, 0.87, 0.88, 0.88},
 	ClassFirm:   {0.08, 0.10, 0.72, 0.77, 0.78, 0.82},
@@ -171,7 +180,7 @@ var recommended = map[Class]Recommendation{
 }
 
 // Recommended returns the ASABE D497 recommended slip range and typical
-// tractive efficiencies for a surface class. ClassRoad gives the concrete
+// ratios of drawbar power to PTO power for a surface class. ClassRoad gives the concrete
 // row; ClassHard and ClassCustom are not tabulated and return ErrInput.
 func Recommended(c Class) (Recommendation, error) {
 	r, ok := recommended[c]

@@ -74,7 +74,7 @@ func run(r *demo.Run) error {
 	// 1. Pull, slip and tractive efficiency per soil.
 	r.Heading("Pull, slip and tractive efficiency on each soil (fixed lead)")
 	var curves []curve
-	tb := demo.NewTable("soil", "cone index", "best TE", "at pull", "at slip", "D497 slip range", "D497 TE (4WD)", "max pull", "at slip")
+	tb := demo.NewTable("soil", "cone index", "best TE", "at pull", "at slip", "D497 slip range", "D497 drawbar/PTO (MFWD)", "max pull", "at slip")
 	for _, s := range soils() {
 		c, err := sweep(veh, model, s.surface, speed, lead)
 		if err != nil {
@@ -85,7 +85,7 @@ func run(r *demo.Run) error {
 		slipRange, te := "not tabulated", "not tabulated"
 		if recErr == nil {
 			slipRange = demo.Pct(rec.SlipLow, 0) + " to " + demo.Pct(rec.SlipHigh, 0)
-			te = demo.Pct(rec.EfficiencyFourWheel, 0)
+			te = demo.Pct(rec.DrawbarPTOFrontAssist, 0)
 		}
 		tb.Row(s.surface.Name, demo.F(float64(s.surface.ConeIndex)/1e3, 0, "kPa"), demo.Pct(c.best.Efficiency, 1),
 			demo.F(c.bestPull.Kilonewtons(), 1, "kN"), demo.Pct(c.best.Rear.Wheel.Slip, 1), slipRange, te,
@@ -93,8 +93,10 @@ func run(r *demo.Run) error {
 	}
 	tb.Write(r.W)
 	r.Printf("  Slip is the rear axle's (the front axle slips more by the lead). Tractive efficiency is the\n")
-	r.Printf("  drawbar power over the wheels' input power. D497 columns: recommended slip and typical\n")
-	r.Printf("  four-wheel-drive tractive efficiency as the traction package tabulates them (from memory).\n")
+	r.Printf("  drawbar power over the wheels' input power. D497 columns: recommended slip and the typical\n")
+	r.Printf("  ratio of drawbar power to PTO power of a front-wheel-assist tractor (from memory); that\n")
+	r.Printf("  ratio includes the driveline's losses: compare it with best TE times a transmission\n")
+	r.Printf("  efficiency, not with the TE itself.\n")
 
 	// 2. Independent front drive against the fixed lead, straight ahead.
 	pull, what := workingPull(sc, speed)
