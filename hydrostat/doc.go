@@ -15,6 +15,11 @@
 // The setting x is the signed relative displacement in [-1, 1], D = x·D_max;
 // x = tan α/tan α_max (swashplate) or sin α/sin α_max (bent axis), and
 // Unit.AngleFromSetting and Unit.SettingFromAngle convert both ways.
+// UnitSpec.Swing states how far the unit can swing: to exactly zero
+// (SwingToZero, settings in [0, 1]) or through zero and over centre
+// (SwingOverCentre, [-1, 1]); unstated, the schedules keep their defaults.
+// At x = 0 the ideal flow and torque are exactly zero and only the losses
+// remain.
 //
 // # Signs, power and the ISO 4409 efficiencies
 //
@@ -101,7 +106,13 @@
 // settings with the loop's Schedule: Sequential (pump swings out first with
 // the motors at full; then the motors swing back with the pump at full) or
 // MinLoss (the free motor setting at which the loop loss is least for the
-// torque the motors carry). Loop.Solve takes torque demands and finds Δp;
+// torque the motors carry). Both swing the motors back as far as their
+// Swing allows: to exactly zero (the top of an input-planetary layout: pump
+// at full stroke standing still, motor at zero, the drive purely
+// mechanical), or through zero and over centre, continuously through a
+// standing pump shaft (the mechanical point of an output-coupled split).
+// With every motor at zero the motors' load no longer sets the loop
+// pressure; the pump's torque does (see Loop.At). Loop.Solve takes torque demands and finds Δp;
 // with MinLoss its result minimises the loss for that demand. Reaching the
 // relief pressure, a unit's speed or peak pressure, or a setting limit
 // returns a *LimitError with the value and the limit (errors.Is(err,

@@ -156,3 +156,42 @@ func ExampleNewMap() {
 	// η_v 0.9600 η_hm 0.9300 η 0.8928
 	// hydrostat: operating point outside the measured map
 }
+
+// The motor swings through zero and over centre while the pump shaft comes
+// to rest and turns backwards, as at the mechanical point of an
+// output-coupled split: the pump holds full stroke and the settings pass
+// continuously through the point.
+func ExampleSequential_overCentre() {
+	pump, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(90), Loss: demoLoss})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	motor, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(110), Loss: demoLoss,
+		Swing: hydrostat.SwingOverCentre})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	loop, err := hydrostat.NewLoop(hydrostat.LoopSpec{Pump: pump, Motors: []hydrostat.Unit{motor}, Oil: hydrostat.VG46,
+		Temperature: units.Celsius(60), Charge: units.Bar(25), Relief: units.Bar(450), Schedule: hydrostat.Sequential{}})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	var st hydrostat.LoopState
+	motorSpeed := []units.AngularVelocity{units.RPM(1500)}
+	for _, rpm := range []float64{600, 300, 0, -300, -600} {
+		if err := loop.At(units.RPM(rpm), motorSpeed, units.Bar(250), &st); err != nil {
+			fmt.Println(err)
+			return
+		}
+		fmt.Printf("pump %5.0f rpm: pump %.3f motor %+.3f\n", rpm, st.Settings[0], st.Settings[1])
+	}
+	// Output:
+	// pump   600 rpm: pump 1.000 motor +0.261
+	// pump   300 rpm: pump 1.000 motor +0.097
+	// pump     0 rpm: pump 1.000 motor -0.067
+	// pump  -300 rpm: pump 1.000 motor -0.230
+	// pump  -600 rpm: pump 1.000 motor -0.394
+}

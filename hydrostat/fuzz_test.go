@@ -19,11 +19,11 @@ func finitePoint(t *testing.T, p Point) {
 }
 
 func FuzzNewUnit(f *testing.F) {
-	f.Add(100.0, 3000.0, 420.0, 480.0, 0, 0.0, 0.0, 0.0, 1e-8, 0.02)
-	f.Add(0.0, 0.0, 0.0, 0.0, 9, 12.7, 127.0, 10.0, 0.0, 0.0)
-	f.Add(-1.0, math.NaN(), math.Inf(1), 0.0, -3, -1.0, 0.0, 95.0, -1.0, 2.0)
-	f.Fuzz(func(t *testing.T, cc, rpm, rated, peak float64, pistons int, dmm, pmm, deg, cs, cf float64) {
-		u, err := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(cc), MaxSpeed: units.RPM(rpm),
+	f.Add(100.0, 3000.0, 420.0, 480.0, 0, 0.0, 0.0, 0.0, 1e-8, 0.02, 0)
+	f.Add(0.0, 0.0, 0.0, 0.0, 9, 12.7, 127.0, 10.0, 0.0, 0.0, 2)
+	f.Add(-1.0, math.NaN(), math.Inf(1), 0.0, -3, -1.0, 0.0, 95.0, -1.0, 2.0, -1)
+	f.Fuzz(func(t *testing.T, cc, rpm, rated, peak float64, pistons int, dmm, pmm, deg, cs, cf float64, swing int) {
+		u, err := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(cc), MaxSpeed: units.RPM(rpm), Swing: Swing(swing),
 			RatedPressure: units.Bar(rated), PeakPressure: units.Bar(peak), Pistons: pistons,
 			PistonDiameter: units.Millimetres(dmm), PitchDiameter: units.Millimetres(pmm), MaxAngle: units.Degrees(deg),
 			Loss: Wilson{Slip: cs, Friction: cf}})
@@ -78,17 +78,19 @@ func FuzzNewOil(f *testing.F) {
 }
 
 func FuzzLoop(f *testing.F) {
-	f.Add(2000.0, 1200.0, -800.0, 250.0, -300.0, 0.2, false)
-	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0, true)
-	f.Add(-2000.0, 3000.0, 0.0, -440.0, 500.0, 1.0, true)
-	f.Add(1e300, -1e300, math.NaN(), math.Inf(1), 1e300, -1.0, false)
-	f.Fuzz(func(t *testing.T, wp, wm1, wm2, bar, torque, minMotor float64, minLoss bool) {
+	f.Add(2000.0, 1200.0, -800.0, 250.0, -300.0, 0.2, false, 0, 0)
+	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0, true, 0, 2)
+	f.Add(-2000.0, 3000.0, 0.0, -440.0, 500.0, 1.0, true, 1, 1)
+	f.Add(-50.0, 1500.0, 1500.0, 300.0, -200.0, 0.0, false, 0, 2)
+	f.Add(0.0, 1500.0, 1500.0, 300.0, -200.0, 0.0, true, 2, 1)
+	f.Add(1e300, -1e300, math.NaN(), math.Inf(1), 1e300, -1.0, false, 5, -1)
+	f.Fuzz(func(t *testing.T, wp, wm1, wm2, bar, torque, minMotor float64, minLoss bool, pumpSwing, motorSwing int) {
 		var sched Schedule = Sequential{MinMotorSetting: minMotor}
 		if minLoss {
 			sched = MinLoss{MinMotorSetting: minMotor}
 		}
-		pump, _ := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(90), MaxSpeed: units.RPM(3200), PeakPressure: units.Bar(480), Loss: demoWilson})
-		motor, _ := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(110), MaxSpeed: units.RPM(4000), PeakPressure: units.Bar(480), Loss: demoWilson})
+		pump, _ := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(90), MaxSpeed: units.RPM(3200), PeakPressure: units.Bar(480), Loss: demoWilson, Swing: Swing(pumpSwing)})
+		motor, _ := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(110), MaxSpeed: units.RPM(4000), PeakPressure: units.Bar(480), Loss: demoWilson, Swing: Swing(motorSwing)})
 		l, err := NewLoop(LoopSpec{Pump: pump, Motors: []Unit{motor, motor}, Oil: VG46, Temperature: units.Celsius(60),
 			Charge: units.Bar(25), Relief: units.Bar(450), Schedule: sched})
 		if err != nil {

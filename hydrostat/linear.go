@@ -149,8 +149,10 @@ func (lin *linLoop) pumpFor(sm float64) (xp float64, ok bool) {
 }
 
 // motorFor returns the common motor setting s in [smin, 1] that balances
-// the pump at xp: r is linear in s > 0, so with r(smin) = ha and r(1) = hb
-// of opposite signs (or one zero) the zero is where the line crosses.
+// the pump at xp: r is linear in s on each side of zero,
+// r(s) = k − s·Σ Dm·ωm − σ·Σ bm·|s| with k = r(xp, 0), so with r(smin) = ha
+// and r(1) = hb of opposite signs (or one zero) the zero is where the line
+// of the side that holds it crosses (smin < 0 only over centre).
 func (lin *linLoop) motorFor(xp, smin, ha, hb float64) float64 {
 	if ha == 0 {
 		return smin
@@ -158,8 +160,14 @@ func (lin *linLoop) motorFor(xp, smin, ha, hb float64) float64 {
 	if hb == 0 {
 		return 1
 	}
-	slope := lin.motorQ + lin.sigma*lin.bm // −dr/ds
-	s := (xp*lin.pumpQ - lin.sigma*(lin.ap+lin.bp*math.Abs(xp)) - lin.sigma*lin.am) / slope
+	k := xp*lin.pumpQ - lin.sigma*(lin.ap+lin.bp*math.Abs(xp)) - lin.sigma*lin.am
+	s := k / (lin.motorQ + lin.sigma*lin.bm) // the zero on s ≥ 0
+	if smin < 0 && !(s >= 0 && s <= 1) {
+		s = k / (lin.motorQ - lin.sigma*lin.bm) // the zero on s ≤ 0
+		if !(s <= 0) {
+			s = math.NaN()
+		}
+	}
 	if !finite(s) {
 		// Fall back to the secant through the two ends (exact for a line).
 		s = smin - ha*(1-smin)/(hb-ha)

@@ -32,6 +32,10 @@ type Loop struct {
 	fl    fluid
 	sched Schedule
 	names [][2]string // per unit (pump first): the names of its pressure and speed limits
+	// floor is the smallest common motor setting the motors' swings allow
+	// (−1 over centre, 0 to zero, 0.2 when a motor's swing is unstated);
+	// pumpLow the pump's (−1, or 0 for SwingToZero).
+	floor, pumpLow float64
 }
 
 // NewLoop validates s and returns the loop. The Motors slice is copied.
@@ -70,7 +74,16 @@ func NewLoop(s LoopSpec) (Loop, error) {
 		m := "motor " + strconv.Itoa(i)
 		names[i+1] = [2]string{m + " pressure", m + " speed"}
 	}
-	return Loop{spec: s, fl: fl, sched: s.Schedule, names: names}, nil
+	floor := -1.0
+	for _, m := range s.Motors {
+		switch m.spec.Swing {
+		case SwingUnstated:
+			floor = max(floor, defaultMinMotor)
+		case SwingToZero:
+			floor = max(floor, 0)
+		}
+	}
+	return Loop{spec: s, fl: fl, sched: s.Schedule, names: names, floor: floor, pumpLow: s.Pump.spec.Swing.lowest()}, nil
 }
 
 // Spec returns the specification (with a copy of the motors and the
@@ -211,6 +224,14 @@ func (st *LoopState) size(n int) {
 // from A, ideal plus leakage). A motor standing still gets the setting the
 // schedule chooses (full for Sequential) and passes only its leakage.
 //
+// A unit at zero setting has exactly zero ideal flow and torque (its torque
+// is its loss torque alone, whatever dp). With every motor at zero, as at
+// the mechanical point of an output-coupled split (pump at full stroke,
+// standing still, motors at zero), the loop pressure no longer follows from
+// the motors' load: At evaluates the dp it is given, the pump's torque
+// Δp·x_p·D_p then sets it in a layout, and with the pump at zero too it is
+// undetermined (Solve reports ErrNoSolution).
+//
 // Errors: ErrInvalid for bad input (st untouched beyond sizing); a
 // *LimitError when the relief pressure is exceeded (Charge + |dp| >
 // Relief), when no settings within range meet the speeds (ErrSettingLimit;
@@ -299,6 +320,17 @@ func (l *Loop) crossed(st *LoopState) {
 	}
 	for i := range st.Motors {
 		if l.spec.Motors[i].crossed(&st.Motors[i], &l.names[i+1], &st.Limit) {
+			return
+		}
+	}
+	// A setting below a unit's swing (only a custom schedule gives one).
+	if x := st.Settings[0]; l.spec.Pump.belowSwing(x) {
+		st.Limit = LimitError{Quantity: "pump setting", Value: x, Limit: 0, Err: ErrSettingLimit}
+		return
+	}
+	for i := range st.Motors {
+		if x := st.Settings[i+1]; l.spec.Motors[i].belowSwing(x) {
+			st.Limit = LimitError{Quantity: "motor setting", Value: x, Limit: 0, Err: ErrSettingLimit}
 			return
 		}
 	}
@@ -401,6 +433,7 @@ func (l Loop) Solve(in LoopInput) (LoopState, error) {
 		sched = fixedMotors{in.MotorSettings}
 	}
 	var ferr error
+	var wsum float64 // Σ |x·D| of the motors at the last call of resid
 	resid := func(dp float64) float64 {
 		err := sched.Settings(l, in.PumpSpeed, in.MotorSpeeds, units.Pressure(dp), st.Settings)
 		if err != nil && !isLimit(err) {
@@ -412,16 +445,23 @@ func (l Loop) Solve(in LoopInput) (LoopState, error) {
 			return math.NaN()
 		}
 		var r float64
+		wsum = 0
 		for i := range st.Motors {
 			w := st.Settings[i+1] * l.spec.Motors[i].dmax
 			r += w * float64(st.Motors[i].Torque-in.MotorTorques[i])
+			wsum += math.Abs(w)
 		}
 		return r
 	}
 	pmax := float64(l.MaxPressure())
-	ra, rb := resid(-pmax), resid(pmax)
+	ra := resid(-pmax)
+	wa := wsum
+	rb := resid(pmax)
 	if ferr != nil {
 		return LoopState{}, ferr
+	}
+	if wa == 0 && wsum == 0 {
+		return LoopState{}, fmt.Errorf("%w: every motor is at zero setting, so no pressure meets the torque demand (the motors' torque does not depend on it)", ErrNoSolution)
 	}
 	var dp float64
 	if (ra > 0) != (rb > 0) || ra == 0 || rb == 0 {

@@ -29,10 +29,30 @@ const defaultMinMotor = 0.2
 
 // Sequential is the sequential schedule: the pump swings out first with
 // every motor at full displacement; once the pump is at full, the motors
-// (all at one common setting) swing back towards MinMotorSetting. Motor
-// settings stay in [MinMotorSetting, 1]; the pump uses [-1, 1].
+// (all at one common setting) swing back towards their lowest setting.
+//
+// How far the motors swing back: MinMotorSetting when it is positive;
+// otherwise as far as the motors' Swing allows: to exactly zero
+// (SwingToZero), through zero and over centre to −1 (SwingOverCentre), or
+// to 0.2 for a motor whose swing is unstated. With several motors the
+// narrowest swing rules. The pump uses [-1, 1], or [0, 1] for a SwingToZero
+// pump (a negative pump setting it would need is reported as a setting
+// limit).
+//
+// Over centre the settings pass continuously through a pump shaft standing
+// still, as at the mechanical point of an output-coupled split: the pump
+// stays at full stroke on one side (the side of the motors' flow
+// Σ D_m·ω_m) and the motors swing through zero; with the pump turning
+// backwards the motors start from −1 instead of 1. Ideally (no leakage)
+// the settings are then x_p = k·Σ D_m·ω_m and x_m = k·D_p·ω_p with k > 0
+// chosen so that the larger magnitude is 1. With leakage the motors reach
+// zero at a small pump speed that supplies the leakage, and cross zero
+// just after it. A motor that only swings to zero cannot follow a pump
+// slower than that: the needed negative setting is reported as a setting
+// limit.
 type Sequential struct {
-	// MinMotorSetting is the smallest motor setting, in (0, 1]; 0 means 0.2.
+	// MinMotorSetting is the smallest motor setting, in [0, 1]; 0 means as
+	// far as the motors' swing allows (0.2 when unstated).
 	MinMotorSetting float64
 }
 
@@ -46,7 +66,18 @@ func validMin(m float64) error {
 	return nil
 }
 
-func minSetting(m float64) float64 {
+// motorFloor returns the smallest common motor setting of a schedule with
+// minimum m: m itself when positive, else what the motors' swings allow.
+func (l *Loop) motorFloor(m float64) float64 {
+	if m > 0 {
+		return m
+	}
+	return l.floor
+}
+
+// searchFloor returns the smallest magnitude of the motor setting MinLoss
+// chooses to save loss: m, or 0.2 when m is 0.
+func searchFloor(m float64) float64 {
 	if m == 0 {
 		return defaultMinMotor
 	}
@@ -85,7 +116,7 @@ func (s Sequential) settingsV(l *Loop, pumpSpeed units.AngularVelocity, motorSpe
 	if err := validMin(s.MinMotorSetting); err != nil {
 		return setLimit{}, err
 	}
-	xp, sm, sl, err := sequential(l, minSetting(s.MinMotorSetting), float64(pumpSpeed), motorSpeeds, float64(dp))
+	xp, sm, sl, err := sequential(l, l.motorFloor(s.MinMotorSetting), float64(pumpSpeed), motorSpeeds, float64(dp))
 	settings[0] = xp
 	for i := 1; i < len(settings); i++ {
 		settings[i] = sm
@@ -144,11 +175,16 @@ func pumpFor(l *Loop, sm, wp float64, wms []units.AngularVelocity, dp float64) (
 // range, as a value (the *LimitError is built only when reported).
 type setLimit struct {
 	hit       bool
+	pump      bool // the pump's setting, not the motors'
 	need, lim float64
 }
 
 func (s setLimit) value() LimitError {
-	return LimitError{Quantity: "motor setting", Value: s.need, Limit: s.lim, Err: ErrSettingLimit}
+	q := "motor setting"
+	if s.pump {
+		q = "pump setting"
+	}
+	return LimitError{Quantity: q, Value: s.need, Limit: s.lim, Err: ErrSettingLimit}
 }
 
 func (s setLimit) err() error {
@@ -157,17 +193,47 @@ func (s setLimit) err() error {
 }
 
 func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float64) (xp, sm float64, sl setLimit, err error) {
+	xp, sm, sl, err = sequentialBoth(l, smin, wp, wms, dp)
+	if err == nil && !sl.hit && xp < l.pumpLow {
+		sl = setLimit{hit: true, pump: true, need: xp, lim: l.pumpLow}
+		xp = l.pumpLow
+	}
+	return xp, sm, sl, err
+}
+
+// sequentialBoth is sequential with the pump in [-1, 1].
+func sequentialBoth(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float64) (xp, sm float64, sl setLimit, err error) {
+	// Over centre, the motors start from full stroke on the side of the
+	// pump's speed, so the settings stay continuous where the pump speed
+	// passes through zero.
+	full := 1.0
+	if smin < 0 && wp < 0 {
+		full = -1
+	}
 	lin, linear := l.linear(wp, wms, dp)
 	var ok bool
 	if linear {
-		xp, ok = lin.pumpFor(1)
+		xp, ok = lin.pumpFor(full)
 	} else {
-		xp, ok, err = pumpFor(l, 1, wp, wms, dp)
+		xp, ok, err = pumpFor(l, full, wp, wms, dp)
 	}
 	if err != nil || ok {
-		return xp, 1, setLimit{}, err
+		return xp, full, setLimit{}, err
 	}
-	// The pump is at full (xp = ±1): swing the motors back.
+	// The pump is at full (xp = ±1): swing the motors back. A pump standing
+	// still delivers the same at either end; where the motors may reach
+	// zero, take the end on the side of the motors' flow, the end the pump
+	// holds just before and after (no jump of the pump's torque).
+	if smin <= 0 && wp == 0 {
+		var mq float64
+		for i := range l.spec.Motors {
+			mq += l.spec.Motors[i].dmax * float64(wms[i])
+		}
+		xp = 1
+		if mq < 0 {
+			xp = -1
+		}
+	}
 	var ferr error
 	h := func(s float64) float64 {
 		r, e := l.residual(xp, nil, s, true, wp, wms, dp)
@@ -232,8 +298,18 @@ func sequential(l *Loop, smin, wp float64, wms []units.AngularVelocity, dp float
 // where it falls all the way down it gives MinMotorSetting, and the
 // pressure needed for the load rises accordingly (the relief limit is then
 // reported, not hidden).
+//
+// Through zero and over centre: MinLoss starts from the Sequential
+// settings with the same MinMotorSetting, so where the speeds need it the
+// motors swing to zero and over centre as far as their Swing allows (see
+// Sequential). To save loss it searches only magnitudes |s| from
+// MinMotorSetting (0.2 when 0) up to the Sequential one, on the Sequential
+// setting's side of zero: a smaller magnitude at the same motor torque
+// would need a pressure rising without bound as s → 0.
 type MinLoss struct {
-	// MinMotorSetting is the smallest motor setting, in (0, 1]; 0 means 0.2.
+	// MinMotorSetting is the smallest motor setting, in [0, 1]: the floor of
+	// the Sequential settings (0: as far as the motors' swing allows) and
+	// the smallest magnitude chosen to save loss (0: 0.2).
 	MinMotorSetting float64
 	// Tolerance is the tolerance on the motor setting; 0 means 1e-9 (tight,
 	// so that the settings vary smoothly with the pressure for a caller that
@@ -257,9 +333,8 @@ func (m MinLoss) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeeds [
 	if err := m.Validate(); err != nil {
 		return err
 	}
-	smin := minSetting(m.MinMotorSetting)
 	wp, d := float64(pumpSpeed), float64(dp)
-	xp, shi, sl, err := sequential(&l, smin, wp, motorSpeeds, d)
+	xp, sq, sl, err := sequential(&l, l.motorFloor(m.MinMotorSetting), wp, motorSpeeds, d)
 	if err == nil && sl.hit {
 		err = sl.err()
 	}
@@ -269,7 +344,12 @@ func (m MinLoss) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeeds [
 			settings[i] = sm
 		}
 	}
-	fill(xp, shi)
+	fill(xp, sq)
+	// Search the magnitudes [smin, shi] on the Sequential setting's side.
+	side, shi, smin := 1.0, math.Abs(sq), searchFloor(m.MinMotorSetting)
+	if sq < 0 {
+		side = -1
+	}
 	if err != nil || shi <= smin {
 		return err
 	}
@@ -282,19 +362,19 @@ func (m MinLoss) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeeds [
 	const h = 1e-4
 	slope := func(s float64) float64 {
 		lo, hi := math.Max(smin, s-h), math.Min(shi, s+h)
-		return (l.lossAtTorque(hi, s, wp, motorSpeeds, d) - l.lossAtTorque(lo, s, wp, motorSpeeds, d)) / (hi - lo)
+		return (l.lossAtTorque(side*hi, side*s, wp, motorSpeeds, d) - l.lossAtTorque(side*lo, side*s, wp, motorSpeeds, d)) / (hi - lo)
 	}
 	ga, gb := slope(smin), slope(shi)
 	switch {
 	case !finite(ga) || !finite(gb) || gb <= 0:
 		return nil // loss falls (or cannot be told) up to the largest setting: Sequential
 	case ga >= 0:
-		x, ok, e := pumpFor(&l, smin, wp, motorSpeeds, d)
+		x, ok, e := pumpFor(&l, side*smin, wp, motorSpeeds, d)
 		if e != nil {
 			return e
 		}
-		if ok {
-			fill(x, smin)
+		if ok && !(x < l.pumpLow) {
+			fill(x, side*smin)
 		}
 		return nil
 	}
@@ -302,12 +382,12 @@ func (m MinLoss) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeeds [
 	if e != nil {
 		return nil // keep the Sequential settings
 	}
-	x, ok, e := pumpFor(&l, s, wp, motorSpeeds, d)
+	x, ok, e := pumpFor(&l, side*s, wp, motorSpeeds, d)
 	if e != nil {
 		return e
 	}
-	if ok {
-		fill(x, s)
+	if ok && !(x < l.pumpLow) {
+		fill(x, side*s)
 	}
 	return nil
 }

@@ -30,6 +30,47 @@ func (k Kind) String() string {
 	return "Kind(" + fmt.Sprint(int(k)) + ")"
 }
 
+// Swing says which displacement settings a unit's swashplate or yoke can
+// reach. The schedules read it (see Sequential and MinLoss); Unit.At and
+// Loop.At report a setting outside it as a *LimitError (ErrSettingLimit).
+type Swing int
+
+const (
+	// SwingUnstated (the zero value): Unit.At accepts settings in [-1, 1];
+	// the schedules swing a pump over centre and keep a motor at or above
+	// their MinMotorSetting (0.2 by default), as for a unit whose stops
+	// the designer has not stated.
+	SwingUnstated Swing = iota
+	// SwingToZero: settings in [0, 1]; the unit swings back to exactly zero
+	// displacement but not over centre.
+	SwingToZero
+	// SwingOverCentre: settings in [-1, 1]; the unit swings through zero
+	// and over centre, reversing its flow at the same shaft direction.
+	SwingOverCentre
+)
+
+// String returns "unstated", "to zero" or "over centre".
+func (s Swing) String() string {
+	switch s {
+	case SwingUnstated:
+		return "unstated"
+	case SwingToZero:
+		return "to zero"
+	case SwingOverCentre:
+		return "over centre"
+	}
+	return "Swing(" + fmt.Sprint(int(s)) + ")"
+}
+
+// lowest returns the smallest setting of the swing: 0 for SwingToZero, −1
+// otherwise.
+func (s Swing) lowest() float64 {
+	if s == SwingToZero {
+		return 0
+	}
+	return -1
+}
+
 // UnitSpec describes an axial-piston unit, pump or motor; the same unit
 // works in all four quadrants. A zero limit means "not rated" and is not
 // checked.
@@ -41,6 +82,9 @@ type UnitSpec struct {
 	RatedPressure   units.Pressure        // continuous pressure difference; 0: not rated
 	PeakPressure    units.Pressure        // peak pressure difference; 0: not rated
 	Loss            LossModel             // nil means lossless (ideal)
+	// Swing is the range of settings the unit can reach; the zero value
+	// SwingUnstated keeps the schedules' defaults (see Swing).
+	Swing Swing
 
 	// Geometry, optional. With all of Pistons, PistonDiameter, PitchDiameter
 	// and MaxAngle given the displacement follows from them (and must agree
@@ -110,6 +154,9 @@ func NewUnit(s UnitSpec) (Unit, error) {
 	}
 	if s.Kind != Swashplate && s.Kind != BentAxis {
 		return Unit{}, fmt.Errorf("%w: unknown kind %d", ErrInvalid, int(s.Kind))
+	}
+	if s.Swing < SwingUnstated || s.Swing > SwingOverCentre {
+		return Unit{}, fmt.Errorf("%w: unknown swing %d", ErrInvalid, int(s.Swing))
 	}
 	if s.MaxAngle >= units.Degrees(90) {
 		return Unit{}, fmt.Errorf("%w: maximum angle %v must be below 90°", ErrInvalid, s.MaxAngle)
@@ -270,10 +317,12 @@ func (o Oil) at(t units.Temperature) (fluid, error) {
 
 // At evaluates the unit at setting x in [-1, 1], shaft speed w and pressure
 // difference dp = p_out − p_in (either sign), with the given oil at temp.
+// At x = 0 the ideal flow and torque are exactly zero and the unit is Idle:
+// only its losses remain (no division by the setting anywhere).
 //
 // Invalid input (NaN, infinite, a zero Unit or Oil) returns ErrInvalid and a
-// zero Point; |x| > 1 returns a *LimitError (ErrSettingLimit) and a zero
-// Point. A pressure above the peak pressure or a speed above the maximum
+// zero Point; |x| > 1, or x < 0 for a SwingToZero unit, returns a
+// *LimitError (ErrSettingLimit) and a zero Point. A pressure above the peak pressure or a speed above the maximum
 // speed returns the full Point together with a *LimitError, so the caller
 // sees both the state and the crossed limit. At does not allocate unless
 // it returns an error.
@@ -286,7 +335,24 @@ func (u Unit) At(setting float64, w units.AngularVelocity, dp units.Pressure, oi
 	if err := u.eval(setting, float64(w), float64(dp), f, &p); err != nil {
 		return Point{}, err
 	}
+	if err := u.swingErr(setting, "setting"); err != nil {
+		return Point{}, err
+	}
 	return p, u.limits(&p)
+}
+
+// belowSwing reports whether setting x lies below the unit's swing (a
+// negative setting of a SwingToZero unit).
+func (u *Unit) belowSwing(x float64) bool {
+	return x < 0 && u.spec.Swing == SwingToZero
+}
+
+// swingErr returns a *LimitError when x lies outside the unit's swing.
+func (u *Unit) swingErr(x float64, name string) error {
+	if u.belowSwing(x) {
+		return &LimitError{Quantity: name, Value: x, Limit: 0, Err: ErrSettingLimit}
+	}
+	return nil
 }
 
 func sgn(x float64) float64 {
@@ -438,6 +504,9 @@ func (u Unit) PressureFor(setting float64, w units.AngularVelocity, t units.Torq
 	}
 	var p Point
 	if err := u.eval(setting, float64(w), 0, f, &p); err != nil {
+		return Point{}, err
+	}
+	if err := u.swingErr(setting, "setting"); err != nil {
 		return Point{}, err
 	}
 	pmax := float64(u.spec.PeakPressure)
