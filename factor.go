@@ -191,6 +191,9 @@ func (s *Solver) factor(e *sysEntry, r *rangeDef, p *Point) {
 // then the loop pressures in units of pScale). The slice is the solver's
 // storage. It returns ErrSingular for a singular system.
 func (s *Solver) solveSystem(r *rangeDef, p *Point) ([]float64, error) {
+	if s.l.hasCharge {
+		s.chargeTorques()
+	}
 	var e *sysEntry
 	if !s.full && !s.noFactor {
 		e = s.entry(r, p)
@@ -237,6 +240,14 @@ func (s *Solver) solveSystem(r *rangeDef, p *Point) ([]float64, error) {
 			}
 		}
 	}
+	if s.dragRHS != nil {
+		// The drag torques load the shaft rows: add A_ref⁻¹ of them.
+		dy := s.dragY
+		clear(dy)
+		copy(dy, s.dragRHS)
+		e.solveRef(dy)
+		axpy(1, dy, y)
+	}
 	s.last = e
 	if !s.woodbury(e, y, s.x) {
 		return nil, ErrSingular
@@ -267,6 +278,7 @@ func (s *Solver) refine(e *sysEntry, p *Point) bool {
 	x, r := s.x, s.y
 	// r = b − A_ref·x − Σ δ_k·x[col(k)] in the loop rows.
 	clear(r)
+	copy(r, s.dragRHS)
 	for k := 0; k < e.nExt; k++ {
 		if src := e.extSrc[k]; src >= 0 {
 			r[e.extRow[k]] = float64(p.Outputs[src].Torque)

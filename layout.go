@@ -84,6 +84,10 @@ type layout struct {
 	planets  []int
 	switches []int // clutches and brakes
 	ranges   []rangeDef
+	// load-independent losses (drag.go)
+	lube      Lubricant
+	drags     []dragSrc
+	hasCharge bool // a drag source is a charge pump
 }
 
 // Layout is a validated, immutable transmission layout: shafts, elements and
@@ -102,6 +106,8 @@ type Builder struct {
 	rangeEngaged [][]string
 	limits       map[string]float64
 	reverse      map[string]bool
+	lube         Lubricant
+	drags        []dragSrc
 	err          error
 }
 
@@ -370,6 +376,9 @@ func (b *Builder) Build() (Layout, error) {
 			return Layout{}, err
 		}
 		l.ranges = append(l.ranges, r)
+	}
+	if err := l.setDrags(b.lube, b.drags); err != nil {
+		return Layout{}, err
 	}
 	for n := range b.limits {
 		if !seen[n] {

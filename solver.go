@@ -66,6 +66,10 @@ type Solver struct {
 	full      bool      // solve by full LU (after converging on the factored systems)
 	noFactor  bool      // tests: always solve by full LU
 
+	// Drag sources (drag.go): torque per source, the shafts' right-hand
+	// sides −Σ T_d, and the work space of their share of the solution.
+	dragT, dragRHS, dragY []float64
+
 	slab  []LimitError           // fresh errors (limitErr)
 	hslab []hydrostat.LimitError // fresh causes (loopLimit)
 }
@@ -111,6 +115,9 @@ func NewSolver(l Layout) *Solver {
 		s.loopA[j].Settings = make([]float64, m+1)
 		s.loopB[j].Settings = make([]float64, m+1)
 		s.mw[j] = make([]units.AngularVelocity, m)
+	}
+	if len(ly.drags) > 0 {
+		s.dragT, s.dragRHS, s.dragY = make([]float64, len(ly.drags)), make([]float64, len(ly.shafts)), make([]float64, n)
 	}
 	s.dpPrev = make([]float64, len(ly.loops))
 	s.havePrev, s.prevDp = make([]bool, len(ly.loops)), make([]float64, len(ly.loops))
@@ -179,6 +186,9 @@ func (s *Solver) Solve(p Point, st *State) error {
 	}
 	for j := range s.dp {
 		s.dp[j] = 0
+	}
+	if len(l.drags) > 0 {
+		s.initDrags(r, &p)
 	}
 	if r.maxOut > 0 && math.Abs(s.outW[0]) > r.maxOut*(1+1e-12) {
 		s.fill(st, p, r, 0, 0)
@@ -825,12 +835,15 @@ func (s *Solver) assembleInto(r *rangeDef, p *Point, a, rhs []float64, e *sysEnt
 	clear(a[:n*n])
 	clear(rhs[:n])
 	set := func(i, j int, v float64) { a[i*n+j] = v }
-	// Shaft balances: Σ port torques on a shaft = 0.
+	// Shaft balances: Σ port torques on a shaft = −Σ drag torques on it.
 	for i := range l.elems {
 		el := &l.elems[i]
 		for k, sh := range el.shafts {
 			a[sh*n+el.port0+k]++
 		}
+	}
+	if e == nil && s.dragRHS != nil {
+		copy(rhs, s.dragRHS)
 	}
 	if e != nil {
 		e.nExt = 0

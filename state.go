@@ -109,8 +109,14 @@ type State struct {
 	Elements []ElementState
 	Loops    []LoopResult
 
-	Loss          units.Power // sum of every element's loss
+	// Drags lists the load-independent losses (bearings, churning, open
+	// plates, idle PTO, charge pumps) in the order the layout added them;
+	// empty when the layout has none.
+	Drags []DragState
+
+	Loss          units.Power // sum of every element's loss and every drag source's loss
 	HydrostatLoss units.Power // the part of Loss in the hydrostatic loops (Loss − HydrostatLoss is mechanical)
+	DragLoss      units.Power // the part of Loss in the drag sources (charge pumps included)
 	// Efficiency is (output + PTO power)/input power while the engine drives,
 	// input/(output + PTO) power when the loads drive the engine (overrun),
 	// and 0 when no power flows.
@@ -119,7 +125,16 @@ type State struct {
 	// hydrostats: the sum of the loops' HydraulicPower over InputPower
 	// (taken the other way in a range built with Builder.ReverseShare).
 	// Negative means circulating power. Zero when no power enters.
+	//
+	// Δp·Q leaves out the pump's own loss: the shaft power the pump takes
+	// is larger when it pumps (and smaller when it is driven as a motor).
+	// PumpShare counts that shaft power.
 	HydraulicShare float64
+	// PumpShare is the signed share of the input power taken by the pumps'
+	// shafts: Σ T·ω of the loops' pumps (their Mechanical power, own loss
+	// included) over InputPower. Negative when the pumps run as motors and
+	// return power to their shafts. Zero when no power enters.
+	PumpShare float64
 
 	// Margins lists, per loop: loop pressure against the relief setting,
 	// pressure against each unit's rated (continuous) pressure, each unit's
@@ -182,7 +197,7 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 		st.PTOs[k] = FlowState{Name: l.elems[pi].name, Speed: ps.Speed, Torque: ps.Torque, Power: ps.Power}
 		st.PTOPower += ps.Power
 	}
-	hyd := 0.0
+	hyd, pump := 0.0, 0.0
 	for i := range l.elems {
 		e := &l.elems[i]
 		es := &st.Elements[i]
@@ -220,6 +235,7 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 			lr.Ratio = s.w[e.shafts[1]] / s.w[e.shafts[0]]
 			if torques != 0 {
 				lr.HydraulicPower = src.Pump.Hydraulic
+				pump += float64(es.Ports[0].Power)
 				es.Loss = units.Power(pos(float64(src.Loss)))
 				st.HydrostatLoss += es.Loss
 			} else {
@@ -228,6 +244,11 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 			hyd += float64(lr.HydraulicPower)
 		}
 		st.Loss += es.Loss
+	}
+	st.DragLoss = 0
+	if len(l.drags) > 0 {
+		st.DragLoss = units.Power(s.fillDrags(st, torques))
+		st.Loss += st.DragLoss
 	}
 	pin, useful := float64(st.InputPower), float64(st.OutputPower+st.PTOPower)
 	switch {
@@ -238,8 +259,9 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 	default:
 		st.Efficiency = 0
 	}
-	st.HydraulicShare = 0
+	st.HydraulicShare, st.PumpShare = 0, 0
 	if pin != 0 {
+		st.PumpShare = pump / pin
 		st.HydraulicShare = hyd / pin
 		if r.reverse {
 			st.HydraulicShare = -hyd / pin
@@ -296,7 +318,8 @@ func maxAbs(m, v float64) float64 {
 // size makes st's slices fit layout l, allocating only when they do not.
 func (st *State) size(l *layout) {
 	if len(st.ports) != l.nPorts || len(st.Elements) != len(l.elems) || len(st.Loops) != len(l.loops) ||
-		len(st.Shafts) != len(l.shafts) || len(st.Outputs) != len(l.outputs) || len(st.PTOs) != len(l.ptos) {
+		len(st.Shafts) != len(l.shafts) || len(st.Outputs) != len(l.outputs) || len(st.PTOs) != len(l.ptos) ||
+		len(st.Drags) != len(l.drags) {
 		st.ports = make([]PortState, l.nPorts)
 		st.Elements = make([]ElementState, len(l.elems))
 		for i := range l.elems {
@@ -306,6 +329,10 @@ func (st *State) size(l *layout) {
 		st.Shafts = make([]ShaftState, len(l.shafts))
 		st.Outputs = make([]FlowState, len(l.outputs))
 		st.PTOs = make([]FlowState, len(l.ptos))
+		st.Drags = nil
+		if len(l.drags) > 0 {
+			st.Drags = make([]DragState, len(l.drags))
+		}
 		st.Loops = make([]LoopResult, len(l.loops))
 		nm := 0
 		for j, e := range l.loops {
