@@ -8,9 +8,6 @@ import (
 	"math"
 	"testing"
 
-
-
-
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -184,7 +181,7 @@ func genNoLoad(t *rapid.T, l Layout) NoLoad {
 				Bearings: Bearings{MeanDiameter: units.Millimetres(60), F0: 2}})
 		case LoopKind:
 			n.ChargePumps = append(n.ChargePumps, LoopChargePump{Name: e.name + " charge", Loop: e.name,
-				Shaft: l.l.shafts[l.l.elems[l.l.input].shafts[0]],
+				Shaft:      l.l.shafts[l.l.elems[l.l.input].shafts[0]],
 				ChargePump: ChargePump{Flushing: units.LitresPerMinute(rapid.Float64Range(0, 20).Draw(t, "flush")), Efficiency: 0.8}})
 		}
 	}
