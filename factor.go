@@ -245,8 +245,8 @@ func (s *Solver) solveSystem(r *rangeDef, p *Point) ([]float64, error) {
 		dy := s.dragY
 		clear(dy)
 		copy(dy, s.dragRHS)
-		e.solveRef(dy)
-		axpy(1, dy, y)
+		e.f.Solve(dy)
+		sparse.Axpy(1, dy, y)
 	}
 	s.last = e
 	if !s.woodbury(e, y, s.x) {
