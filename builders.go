@@ -60,6 +60,10 @@ type OutputCoupledSpec struct {
 	Ranges         []RangeGear
 	GearEfficiency float64 // mesh efficiency of every fixed gear; 0 means DefaultGearEfficiency
 	PTOs           []PTOSpec
+	// Second, when set, is a second motor of the loop (the loop then needs
+	// two motors) on an output of its own, for example the front axle; see
+	// SecondMotor.
+	Second *SecondMotor
 }
 
 // InputCoupledSpec describes an input-coupled split: the pump turns at a
@@ -78,15 +82,124 @@ type InputCoupledSpec struct {
 	Ranges               []RangeGear    // from the output member to the output
 	GearEfficiency       float64
 	PTOs                 []PTOSpec
+	Second               *SecondMotor // a second motor on an output of its own; see SecondMotor
 }
 
 // SecondMotor is a second motor of the loop driving a second output (an
-// axle of its own) through a clutch and a gear, ωaxle2 = Ratio·ωmotor2. It is
-// declutched (and held by a brake) above DeclutchAbove of the first output.
+// axle of its own, the "axle 2" FreeOutput) through a clutch and a gear,
+// ωaxle2 = Ratio·ωmotor2. Both motors share the loop pressure; the torque
+// on each output follows from its motor's setting and gear.
+//
+// Every range of the builder comes twice: name, with the second motor
+// clutched in, usable up to DeclutchAbove of the first output (the solver
+// reports the margin to it in State.Margins, "output speed (range limit)"),
+// and name+" single", with the second motor declutched, held still by its
+// brake and swung back to zero, so it carries no torque and has no drag.
+// Both ranges of a pair have the same kinematics of the first output, so
+// the change between them is synchronous; a setting curve that reaches
+// zero at DeclutchAbove makes it free of a torque step too.
 type SecondMotor struct {
 	Ratio         float64
 	Efficiency    float64               // 0 means the spec's GearEfficiency
 	DeclutchAbove units.AngularVelocity // > 0
+	// Setting is the second motor's setting magnitude over the first
+	// output's speed while clutched in (for example: full at low speed,
+	// swung back before DeclutchAbove). Empty means: held at MaxSetting in
+	// the split builders, and set by the loop's schedule (both motors at
+	// one setting) in PureHydrostatic. Solver.BestSetting (with
+	// Point.Settings) may choose it point by point instead.
+	Setting SettingCurve
+	// MinSetting and MaxSetting bound the second motor's setting
+	// magnitude: the curve's values must lie within them and
+	// Layout.SecondMotor reports them for a setting search. Both zero mean
+	// [0, 1].
+	MinSetting, MaxSetting float64
+}
+
+// SecondInfo describes a layout's second motor (see SecondMotor).
+type SecondInfo struct {
+	Loop, Motor            int // the motor, for MotorSetting and SettingSearch
+	Output                 int // index of its output among Layout.Outputs
+	MinSetting, MaxSetting float64
+	DeclutchAbove          units.AngularVelocity
+}
+
+// SecondMotor describes the layout's second motor, if a builder gave it one.
+func (l Layout) SecondMotor() (SecondInfo, bool) {
+	if l.l == nil || l.l.second == nil {
+		return SecondInfo{}, false
+	}
+	return *l.l.second, true
+}
+
+// checkSecond validates sm and returns the number of motors the loop needs.
+func checkSecond(c *specCheck, sm *SecondMotor) int {
+	if sm == nil {
+		return 1
+	}
+	c.ratio("Second.Ratio", sm.Ratio, false)
+	c.eff("Second.Efficiency", sm.Efficiency)
+	if c.err == nil && (!(sm.DeclutchAbove > 0) || math.IsInf(float64(sm.DeclutchAbove), 0)) {
+		c.err = &InputError{Field: "Second.DeclutchAbove", Value: float64(sm.DeclutchAbove), Reason: "must be positive and finite"}
+	}
+	lo, hi := sm.MinSetting, sm.MaxSetting
+	if lo == 0 && hi == 0 {
+		hi = 1
+	}
+	if c.err == nil && !(lo >= 0 && lo <= hi && hi <= 1) {
+		c.err = &InputError{Field: "Second.MinSetting", Value: lo, Reason: "need 0 <= MinSetting <= MaxSetting <= 1"}
+	}
+	if c.err == nil {
+		c.err = sm.Setting.Validate()
+	}
+	for i, x := range sm.Setting.Settings {
+		if c.err == nil && (x < lo || x > hi) {
+			c.err = &InputError{Field: fmt.Sprintf("Second.Setting.Settings[%d]", i), Value: x, Reason: "outside [MinSetting, MaxSetting]"}
+		}
+	}
+	return 2
+}
+
+// finishSecond adds the second motor's clutch, brake, gear and output, the
+// PTOs, the first output and the doubled ranges (see SecondMotor) from
+// shaft from; hold sets the second motor's curve and holds it at zero in
+// the single ranges.
+func finishSecond(b *Builder, c *specCheck, engine, from, alt Shaft, reverseAlt bool, m2 Shaft, sm *SecondMotor, ranges []RangeGear, ptos []PTOSpec, eta float64, hold bool) {
+	m2c := b.Shaft("motor 2 clutch shaft")
+	b.Clutch("motor 2 clutch", m2, m2c)
+	b.Brake("motor 2 brake", m2)
+	axle := b.Shaft("axle 2")
+	b.Gear("axle 2 gear", m2c, axle, sm.Ratio, orDefault(sm.Efficiency, eta))
+	addPTOs(b, c, engine, ptos, eta)
+	out := b.Shaft("output")
+	b.Output("output", out)
+	b.FreeOutput("axle 2", axle)
+	if len(ranges) == 0 {
+		ranges = []RangeGear{{Name: "direct", Ratio: 1, Efficiency: 1}}
+	}
+	addRanges(b, c, from, alt, reverseAlt, out, ranges, eta, func(name string, engaged []string) {
+		b.Range(name, append(engaged, "motor 2 clutch")...)
+		b.RangeLimit(name, sm.DeclutchAbove)
+		b.Range(name+" single", append(engaged, "motor 2 brake")...)
+		if b.reverse[name] {
+			b.ReverseShare(name + " single")
+		}
+		if hold {
+			b.HoldMotor(name+" single", "hydrostat", 1, 0)
+		}
+	})
+	lo, hi := sm.MinSetting, sm.MaxSetting
+	if lo == 0 && hi == 0 {
+		hi = 1
+	}
+	curve := sm.Setting
+	if curve.Empty() && hold {
+		curve = SettingCurve{Speeds: []units.AngularVelocity{0}, Settings: []float64{hi}}
+	}
+	if !curve.Empty() {
+		b.MotorSchedule("hydrostat", 1, curve)
+	}
+	b.second = &SecondInfo{Loop: 0, Motor: 1, Output: 1, MinSetting: lo, MaxSetting: hi, DeclutchAbove: sm.DeclutchAbove}
 }
 
 // PureHydrostaticSpec describes a hydrostatic drive: pump geared to the
@@ -238,13 +351,13 @@ func addRanges(b *Builder, c *specCheck, from, alt Shaft, reverseAlt bool, out S
 
 // checkSplit checks the gear ratios, gear efficiency and loop of a
 // single-set split and returns the check and the gear efficiency to use.
-func checkSplit(input, pump, motor, eff float64, loop hydrostat.Loop) (specCheck, float64) {
+func checkSplit(input, pump, motor, eff float64, loop hydrostat.Loop, second *SecondMotor) (specCheck, float64) {
 	var c specCheck
 	c.ratio("InputRatio", input, true)
 	c.ratio("PumpRatio", pump, true)
 	c.ratio("MotorRatio", motor, true)
 	c.eff("GearEfficiency", eff)
-	c.loop(loop, 1)
+	c.loop(loop, checkSecond(&c, second))
 	return c, orDefault(eff, DefaultGearEfficiency)
 }
 
@@ -255,7 +368,7 @@ func checkSplit(input, pump, motor, eff float64, loop hydrostat.Loop) (specCheck
 // (hydrostat.Sequential: 0.2 by default) a band of output speeds around it
 // is unreachable (ErrUnreachable).
 func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
-	c, eta := checkSplit(spec.InputRatio, spec.PumpRatio, spec.MotorRatio, spec.GearEfficiency, spec.Loop)
+	c, eta := checkSplit(spec.InputRatio, spec.PumpRatio, spec.MotorRatio, spec.GearEfficiency, spec.Loop, spec.Second)
 	if c.err != nil {
 		return Layout{}, c.err
 	}
@@ -271,8 +384,14 @@ func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
 		return Layout{}, err
 	}
 	pump := geared(b, "pump", sh[pm], spec.PumpRatio, eta)
-	b.Loop("hydrostat", spec.Loop, pump, motorOn(b, sh[om], spec.MotorRatio, eta))
-	finish(b, &c, engine, sh[om], sh[pm], true, spec.Ranges, spec.PTOs, eta)
+	if spec.Second != nil {
+		m2 := b.Shaft("motor 2")
+		b.Loop("hydrostat", spec.Loop, pump, motorOn(b, sh[om], spec.MotorRatio, eta), m2)
+		finishSecond(b, &c, engine, sh[om], sh[pm], true, m2, spec.Second, spec.Ranges, spec.PTOs, eta, true)
+	} else {
+		b.Loop("hydrostat", spec.Loop, pump, motorOn(b, sh[om], spec.MotorRatio, eta))
+		finish(b, &c, engine, sh[om], sh[pm], true, spec.Ranges, spec.PTOs, eta)
+	}
 	if c.err != nil {
 		return Layout{}, c.err
 	}
@@ -281,7 +400,7 @@ func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
 
 // InputCoupled builds an input-coupled split from spec.
 func InputCoupled(spec InputCoupledSpec) (Layout, error) {
-	c, eta := checkSplit(spec.InputRatio, spec.PumpRatio, spec.MotorRatio, spec.GearEfficiency, spec.Loop)
+	c, eta := checkSplit(spec.InputRatio, spec.PumpRatio, spec.MotorRatio, spec.GearEfficiency, spec.Loop, spec.Second)
 	if c.err != nil {
 		return Layout{}, c.err
 	}
@@ -297,8 +416,14 @@ func InputCoupled(spec InputCoupledSpec) (Layout, error) {
 	if err != nil {
 		return Layout{}, err
 	}
-	b.Loop("hydrostat", spec.Loop, pump, motorOn(b, sh[mm], spec.MotorRatio, eta))
-	finish(b, &c, engine, sh[om], sh[mm], false, spec.Ranges, spec.PTOs, eta)
+	if spec.Second != nil {
+		m2 := b.Shaft("motor 2")
+		b.Loop("hydrostat", spec.Loop, pump, motorOn(b, sh[mm], spec.MotorRatio, eta), m2)
+		finishSecond(b, &c, engine, sh[om], sh[mm], false, m2, spec.Second, spec.Ranges, spec.PTOs, eta, true)
+	} else {
+		b.Loop("hydrostat", spec.Loop, pump, motorOn(b, sh[mm], spec.MotorRatio, eta))
+		finish(b, &c, engine, sh[om], sh[mm], false, spec.Ranges, spec.PTOs, eta)
+	}
 	if c.err != nil {
 		return Layout{}, c.err
 	}
@@ -314,16 +439,7 @@ func PureHydrostatic(spec PureHydrostaticSpec) (Layout, error) {
 	var c specCheck
 	c.ratio("PumpRatio", spec.PumpRatio, true)
 	c.eff("GearEfficiency", spec.GearEfficiency)
-	motors := 1
-	if sm := spec.Second; sm != nil {
-		motors = 2
-		c.ratio("Second.Ratio", sm.Ratio, false)
-		c.eff("Second.Efficiency", sm.Efficiency)
-		if c.err == nil && (!(sm.DeclutchAbove > 0) || math.IsInf(float64(sm.DeclutchAbove), 0)) {
-			c.err = &InputError{Field: "Second.DeclutchAbove", Value: float64(sm.DeclutchAbove), Reason: "must be positive and finite"}
-		}
-	}
-	c.loop(spec.Loop, motors)
+	c.loop(spec.Loop, checkSecond(&c, spec.Second))
 	if c.err != nil {
 		return Layout{}, c.err
 	}
@@ -344,24 +460,7 @@ func PureHydrostatic(spec PureHydrostaticSpec) (Layout, error) {
 	sm := spec.Second
 	m2 := b.Shaft("motor 2")
 	b.Loop("hydrostat", spec.Loop, pump, motor, m2)
-	m2c := b.Shaft("motor 2 clutch shaft")
-	b.Clutch("motor 2 clutch", m2, m2c)
-	b.Brake("motor 2 brake", m2)
-	axle := b.Shaft("axle 2")
-	b.Gear("axle 2 gear", m2c, axle, sm.Ratio, orDefault(sm.Efficiency, eta))
-	addPTOs(b, &c, engine, spec.PTOs, eta)
-	out := b.Shaft("output")
-	b.Output("output", out)
-	b.FreeOutput("axle 2", axle)
-	ranges := spec.Ranges
-	if len(ranges) == 0 {
-		ranges = []RangeGear{{Name: "direct", Ratio: 1, Efficiency: 1}}
-	}
-	addRanges(b, &c, motor, -1, false, out, ranges, eta, func(name string, engaged []string) {
-		b.Range(name, append(engaged, "motor 2 clutch")...)
-		b.RangeLimit(name, sm.DeclutchAbove)
-		b.Range(name+" single", append(engaged, "motor 2 brake")...)
-	})
+	finishSecond(b, &c, engine, motor, -1, false, m2, sm, spec.Ranges, spec.PTOs, eta, !sm.Setting.Empty())
 	if c.err != nil {
 		return Layout{}, c.err
 	}

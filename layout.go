@@ -87,7 +87,9 @@ type layout struct {
 	// load-independent losses (drag.go)
 	lube      Lubricant
 	drags     []dragSrc
-	hasCharge bool // a drag source is a charge pump
+	hasCharge bool        // a drag source is a charge pump
+	pins      []pinDef    // motors whose settings the layout sets (second.go)
+	second    *SecondInfo // a builder's second motor
 }
 
 // Layout is a validated, immutable transmission layout: shafts, elements and
@@ -108,6 +110,9 @@ type Builder struct {
 	reverse      map[string]bool
 	lube         Lubricant
 	drags        []dragSrc
+	pins         []pinSpec
+	holds        []holdSpec
+	second       *SecondInfo
 	err          error
 }
 
@@ -389,6 +394,13 @@ func (b *Builder) Build() (Layout, error) {
 		if !seen[n] {
 			return Layout{}, &LayoutError{Element: n, Reason: "ReverseShare for an unknown range", Err: ErrLayout}
 		}
+	}
+	if err := b.buildPins(l); err != nil {
+		return Layout{}, err
+	}
+	if b.second != nil {
+		sc := *b.second
+		l.second = &sc
 	}
 	return Layout{l: l}, nil
 }

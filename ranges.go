@@ -39,6 +39,9 @@ func (s *Solver) reachable(p *Point, rg int, v float64) bool {
 		return false
 	}
 	s.outputSpeeds(p, v)
+	q := *p
+	q.Range = rg
+	s.setPins(&q, false)
 	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
 	if s.unitSpeeds() != nil {
 		return false

@@ -69,6 +69,13 @@ type Solver struct {
 	// Drag sources (drag.go): torque per source, the shafts' right-hand
 	// sides −Σ T_d, and the work space of their share of the solution.
 	dragT, dragRHS, dragY []float64
+	// Held motor settings (second.go): per loop, the held setting of each
+	// motor (NaN: free), the loop's copy that holds them, and whether a
+	// motor of the loop is held at this point.
+	pinHeld [][]float64
+	pinLoop []hydrostat.Loop
+	pinOn   []bool
+	outs    []OutputDemand // SolveTotal's copy of the point's demands
 
 	slab  []LimitError           // fresh errors (limitErr)
 	hslab []hydrostat.LimitError // fresh causes (loopLimit)
@@ -123,6 +130,7 @@ func NewSolver(l Layout) *Solver {
 	s.havePrev, s.prevDp = make([]bool, len(ly.loops)), make([]float64, len(ly.loops))
 	s.initCache()
 	s.prevT = make([]float64, s.nU)
+	s.initPins()
 	return s
 }
 
@@ -159,7 +167,7 @@ func (s *Solver) check(p *Point) error {
 			return &InputError{Field: "PTO", Value: float64(t), Reason: "not finite"}
 		}
 	}
-	return nil
+	return s.checkSettings(p)
 }
 
 // Solve finds the steady state at operating point p and writes it into st.
@@ -168,15 +176,33 @@ func (s *Solver) check(p *Point) error {
 // — an *InputError for bad input, and a *ConvergenceError or ErrSingular
 // when the iteration fails. Solve does not allocate once st has been used
 // with this layout.
+//
+// A motor the layout sets by a SettingCurve gets the sign with which it
+// drives its shaft: when it pumps at the curve's sign, the point is solved
+// again with the sign reversed, and the drive kept if that solves.
 func (s *Solver) Solve(p Point, st *State) error {
 	if err := s.check(&p); err != nil {
 		return err
 	}
+	err := s.solve(p, st, false)
+	if !s.l.hasCurves(p.Range) || (err == nil && s.curveDrives(&p, st)) {
+		return err
+	}
+	if err2 := s.solve(p, st, true); err2 == nil {
+		return nil
+	}
+	return s.solve(p, st, false)
+}
+
+// solve is Solve on a checked point; flip reverses the settings of the
+// motors set by curves.
+func (s *Solver) solve(p Point, st *State, flip bool) error {
 	l := s.l
 	r := &l.ranges[p.Range]
 	for i, o := range p.Outputs {
 		s.outW[i] = float64(o.Speed)
 	}
+	s.setPins(&p, flip)
 	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
 	for i := range s.gearK {
 		s.gearK[i], s.flip[i] = 1, 0
@@ -632,7 +658,8 @@ func (s *Solver) evalLoops(final bool) error {
 		}
 		wp := units.AngularVelocity(s.w[el.shafts[0]])
 		dp := s.dp[j]
-		err := el.loop.Trial(wp, s.mw[j], units.Pressure(dp), &s.loopA[j])
+		lp := s.loopOf(j)
+		err := lp.Trial(wp, s.mw[j], units.Pressure(dp), &s.loopA[j])
 		if final && isLimit(err) && s.loopA[j].Limit.Err != nil {
 			return s.loopLimit(el.name, &s.loopA[j].Limit)
 		}
@@ -653,7 +680,7 @@ func (s *Solver) evalLoops(final bool) error {
 		if dp < 0 {
 			h = -h // step away from zero, where the loss terms change sign
 		}
-		if err := el.loop.Trial(wp, s.mw[j], units.Pressure(dp+h), &s.loopB[j]); err != nil && !isLimit(err) {
+		if err := lp.Trial(wp, s.mw[j], units.Pressure(dp+h), &s.loopB[j]); err != nil && !isLimit(err) {
 			return loopErr(el.name, err, &s.loopB[j])
 		}
 		for k := range nk {

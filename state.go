@@ -18,12 +18,16 @@ type OutputDemand struct {
 
 // Point is an operating point: the range, the input (engine) speed, one
 // demand per output in the order of Layout.Outputs, and one torque per PTO
-// in the order of Layout.PTOs (nil means no PTO load).
+// in the order of Layout.PTOs (nil means no PTO load). Settings holds
+// motors at given settings for this point, overriding the layout's
+// schedules (nil: none held beyond the layout's own, see
+// Builder.MotorSchedule and Builder.HoldMotor).
 type Point struct {
-	Range   int
-	Input   units.AngularVelocity
-	Outputs []OutputDemand
-	PTO     []units.Torque
+	Range    int
+	Input    units.AngularVelocity
+	Outputs  []OutputDemand
+	PTO      []units.Torque
+	Settings []MotorSetting
 }
 
 // PortState is the state at one port: the speed of its shaft, the torque the
@@ -341,6 +345,7 @@ func (st *State) size(l *layout) {
 			st.Loops[j].Settings = make([]float64, m+1)
 			nm += 3*(m+1) + 1
 		}
+		nm++ // the range's speed limit
 		st.Margins = make([]Margin, 0, nm)
 		st.Flags = make([]Margin, 0, nm)
 	}
@@ -364,6 +369,11 @@ func (s *Solver) margins(st *State) {
 	l := s.l
 	st.Margins = st.Margins[:0]
 	st.Flags = st.Flags[:0]
+	if r := &l.ranges[st.Range]; r.maxOut > 0 {
+		// The range's speed limit (a second motor's declutch speed).
+		st.Margins = append(st.Margins, Margin{Element: r.name, Quantity: "output speed (range limit)",
+			Value: math.Abs(s.outW[0]), Limit: r.maxOut, Unit: "rad/s"})
+	}
 	for j, e := range l.loops {
 		el := &l.elems[e]
 		spec := &el.lspec
