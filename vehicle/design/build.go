@@ -112,6 +112,19 @@ func (f *File) Validate() error {
 			c.add(p+".implement", "a field segment needs an implement")
 		}
 	}
+	if r := f.Requirements; r != nil {
+		for i, p := range r.Pulls {
+			if _, ok := f.Surfaces[p.Surface]; p.Surface != "" && !ok {
+				c.add(fmt.Sprintf("requirements.pulls[%d].surface", i), "no surface of that name in \"surfaces\"")
+			}
+			c.positive(fmt.Sprintf("requirements.pulls[%d].speed", i), float64(p.Speed), p.Speed)
+		}
+		for i, m := range []float64{r.UnitSpeedMargin, r.PressureMargin, r.ShiftTolerance} {
+			if !(m >= 0 && m < 1) {
+				c.add([]string{"requirements.unitSpeedMargin", "requirements.pressureMargin", "requirements.shiftTolerance"}[i], "must lie in [0, 1)")
+			}
+		}
+	}
 	return errors.Join(c.errs...)
 }
 

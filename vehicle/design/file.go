@@ -53,6 +53,9 @@ type File struct {
 	Trailers map[string]Trailer `json:"trailers,omitempty"`
 	// Day is the working day.
 	Day Day `json:"day"`
+	// Requirements are what the design must do (optional); File.Check
+	// reports on them.
+	Requirements *Requirements `json:"requirements,omitempty"`
 
 	source string
 	index  index

@@ -1,0 +1,523 @@
+package design
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"slices"
+	"strings"
+
+	"github.com/powersplit-dev/powersplit"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// Requirements are what the design must do, the "requirements" object of
+// a design file. Every field is optional; a zero field is not checked.
+type Requirements struct {
+	// TopSpeed is the forward travel speed the tractor must reach (km/h).
+	TopSpeed units.Speed `json:"topSpeed,omitempty"`
+	// TopSpeedEngine is the engine speed at or below which TopSpeed must be
+	// reached (rpm; default the rated speed).
+	TopSpeedEngine units.AngularVelocity `json:"topSpeedEngine,omitempty"`
+	// Standstill asks that the forward speeds start at standstill: some
+	// range reaches zero travel speed, so no starting clutch slips.
+	Standstill bool `json:"standstill,omitempty"`
+	// ReverseSpeed is the reverse travel speed some range must reach
+	// (km/h).
+	ReverseSpeed units.Speed `json:"reverseSpeed,omitempty"`
+	// Pulls are drawbar pulls wanted at travel speeds at full engine
+	// power, each on a surface of the file.
+	Pulls []PullRequirement `json:"pulls,omitempty"`
+	// PTOSpeeds are PTO shaft speeds the PTO must offer at or below the
+	// rated engine speed (rpm).
+	PTOSpeeds []units.AngularVelocity `json:"ptoSpeeds,omitempty"`
+	// UnitSpeedMargin is the fraction by which every unit's speed must stay
+	// below its greatest speed over the forward speeds up to TopSpeed at
+	// rated engine speed (0.05 for 5 %).
+	UnitSpeedMargin float64 `json:"unitSpeedMargin,omitempty"`
+	// PressureMargin is the fraction by which the relief setting must stay
+	// below the lowest peak pressure of the units (rated pressure where no
+	// peak is given).
+	PressureMargin float64 `json:"pressureMargin,omitempty"`
+	// ShiftTolerance is the greatest relative mismatch of the variator's
+	// speed ratio (motor over pump) between the two ranges of each range
+	// change, at the common travel speed where they match best, at rated
+	// engine speed (0.02 for 2 %). Ranges with no common speed count as a
+	// mismatch of 100 %.
+	ShiftTolerance float64 `json:"shiftTolerance,omitempty"`
+	// CornerPower is the greatest hydrostat corner power (relief pressure
+	// times the pump's full flow at rated engine speed) as a fraction of
+	// the engine's rated power (1.2 for 120 %).
+	CornerPower float64 `json:"cornerPower,omitempty"`
+}
+
+// PullRequirement is a drawbar pull wanted at a travel speed.
+type PullRequirement struct {
+	// Speed is the travel speed (km/h).
+	Speed units.Speed `json:"speed"`
+	// Pull is the drawbar pull wanted (kN).
+	Pull units.Force `json:"pull"`
+	// Surface names one of the file's surfaces (default: the surface of
+	// the day's first field segment).
+	Surface string `json:"surface,omitempty"`
+}
+
+// Check is one requirement checked.
+type Check struct {
+	// Name says what was required, with the wanted value in its unit.
+	Name string
+	// Met reports whether the requirement holds.
+	Met bool
+	// Margin is the relative margin: positive when met with room,
+	// negative when missed (for example 0.05: 5 % better than wanted).
+	Margin float64
+	// Got is the value reached, in words with its unit.
+	Got string
+	// At is the operating point where the requirement binds, in words
+	// ("range field at 12.3 km/h, engine 2100 rpm"); "" when it has none.
+	At string
+}
+
+// Interval is a connected span of travel speeds one range reaches at an
+// engine speed (negative: reverse), with the wheels not slipping. A range
+// may reach more than one.
+type Interval struct {
+	Range    int
+	Name     string
+	Lo, Hi   units.Speed
+	Feasible bool // false: the range reaches no speed
+}
+
+// Gap is a span of forward travel speeds no range reaches.
+type Gap struct{ From, To units.Speed }
+
+// Report is the feasibility report of one transmission of a design file.
+type Report struct {
+	// Design names the transmission.
+	Design string
+	// Checks are the requirements, in the order of Requirements' fields.
+	Checks []Check
+	// Intervals are the ranges' travel speeds at rated engine speed, by
+	// range, then speed.
+	Intervals []Interval
+	// Standstill reports whether some range reaches zero travel speed.
+	Standstill bool
+	// Gaps are spans of forward speeds no range reaches, between the
+	// lowest speed reached (or standstill) and the highest.
+	Gaps []Gap
+}
+
+// Feasible reports whether every check is met.
+func (r Report) Feasible() bool {
+	for _, c := range r.Checks {
+		if !c.Met {
+			return false
+		}
+	}
+	return true
+}
+
+// Failed returns the names of the checks not met, for a reason kept with
+// an infeasible candidate.
+func (r Report) Failed() []string {
+	var out []string
+	for _, c := range r.Checks {
+		if !c.Met {
+			out = append(out, c.Name)
+		}
+	}
+	return out
+}
+
+// WriteText writes the report as an aligned table.
+func (r Report) WriteText(w io.Writer) error {
+	var b strings.Builder
+	fmt.Fprintf(&b, "feasibility of %q\n", r.Design)
+	for _, iv := range r.Intervals {
+		if iv.Feasible {
+			fmt.Fprintf(&b, "  range %-8s %7.2f to %6.2f km/h\n", iv.Name, iv.Lo.KMH(), iv.Hi.KMH())
+		} else {
+			fmt.Fprintf(&b, "  range %-8s reaches no speed\n", iv.Name)
+		}
+	}
+	if r.Standstill {
+		b.WriteString("  standstill: reached\n")
+	} else {
+		b.WriteString("  standstill: NOT reached (a starting clutch must slip)\n")
+	}
+	for _, g := range r.Gaps {
+		fmt.Fprintf(&b, "  GAP: no range reaches %.2f to %.2f km/h\n", g.From.KMH(), g.To.KMH())
+	}
+	for _, c := range r.Checks {
+		mark := "met   "
+		if !c.Met {
+			mark = "FAILED"
+		}
+		fmt.Fprintf(&b, "  %s %-52s margin %+7.1f %%  got %s", mark, c.Name, 100*c.Margin, c.Got)
+		if c.At != "" {
+			fmt.Fprintf(&b, "  at %s", c.At)
+		}
+		b.WriteByte('\n')
+	}
+	_, err := io.WriteString(w, b.String())
+	return err
+}
+
+// travel converts an output shaft speed to a travel speed without slip.
+func (f *File) travel(out units.AngularVelocity) units.Speed {
+	return units.Speed(float64(out) / f.Tractor.FinalDrive * float64(f.Tractor.Rear.Tyre.RollingRadius))
+}
+
+// intervals returns each range's travel speeds at engine speed w.
+func (f *File) intervals(l powersplit.Layout, names []string, w units.AngularVelocity) []Interval {
+	s := powersplit.NewSolver(l)
+	var out []Interval
+	for rg := range l.Ranges() {
+		ivs, err := s.Interval(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{}}})
+		if err != nil || len(ivs) == 0 {
+			out = append(out, Interval{Range: rg, Name: names[rg]})
+			continue
+		}
+		for _, iv := range ivs {
+			out = append(out, Interval{Range: rg, Name: names[rg], Lo: f.travel(iv.Lo), Hi: f.travel(iv.Hi), Feasible: true})
+		}
+	}
+	return out
+}
+
+// Check checks transmission t of the file against f's requirements (none
+// when req is nil: the report then lists the speed coverage only).
+func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
+	rep := Report{Design: t.Name}
+	l, err := t.Layout()
+	if err != nil {
+		return rep, err
+	}
+	v, err := f.Vehicle(t)
+	if err != nil {
+		return rep, err
+	}
+	eng := v.Engine()
+	rated := eng.Rated()
+	names := t.RangeNames()
+	rep.Intervals = f.intervals(l, names, rated)
+
+	// Coverage of the forward speeds: merge the intervals.
+	var spans [][2]float64
+	for _, iv := range rep.Intervals {
+		if iv.Feasible && iv.Hi > 0 {
+			spans = append(spans, [2]float64{max(float64(iv.Lo), 0), float64(iv.Hi)})
+			if iv.Lo <= 0 {
+				rep.Standstill = true
+			}
+		}
+	}
+	slices.SortFunc(spans, func(a, b [2]float64) int { return cmpFloat(a[0], b[0]) })
+	reach := 0.0
+	for i, s := range spans {
+		if i > 0 && s[0] > reach {
+			rep.Gaps = append(rep.Gaps, Gap{From: units.Speed(reach), To: units.Speed(s[0])})
+		}
+		reach = max(reach, s[1])
+	}
+	if req == nil {
+		return rep, nil
+	}
+	add := func(c Check) { rep.Checks = append(rep.Checks, c) }
+
+	if req.Standstill {
+		c := Check{Name: "forward speeds start at standstill", Met: rep.Standstill, Got: "not reached"}
+		if len(spans) > 0 {
+			c.Got = fmt.Sprintf("lowest %.2f km/h", units.Speed(spans[0][0]).KMH())
+			c.Margin = -spans[0][0] / spans[len(spans)-1][1] // short of standstill, relative to the top speed
+		}
+		add(c)
+	}
+	if req.TopSpeed > 0 {
+		we := req.TopSpeedEngine
+		if we == 0 {
+			we = rated
+		}
+		ivs := f.intervals(l, names, we)
+		best, at := 0.0, ""
+		for _, iv := range ivs {
+			if iv.Feasible && float64(iv.Hi) > best {
+				best = float64(iv.Hi)
+				at = fmt.Sprintf("range %s at %.2f km/h, engine %.0f rpm", iv.Name, iv.Hi.KMH(), we.RPM())
+			}
+		}
+		m := best/float64(req.TopSpeed) - 1
+		add(Check{Name: fmt.Sprintf("top speed %.1f km/h at or below %.0f rpm", req.TopSpeed.KMH(), we.RPM()),
+			Met: m >= 0, Margin: m, Got: fmt.Sprintf("%.2f km/h", units.Speed(best).KMH()), At: at})
+		// Gaps up to the top speed.
+		var worst float64
+		for _, g := range rep.Gaps {
+			if g.From < req.TopSpeed {
+				worst = max(worst, float64(min(g.To, req.TopSpeed)-g.From))
+			}
+		}
+		add(Check{Name: fmt.Sprintf("no speed gap up to %.1f km/h", req.TopSpeed.KMH()), Met: worst == 0,
+			Margin: -worst / float64(req.TopSpeed), Got: fmt.Sprintf("widest gap %.2f km/h", units.Speed(worst).KMH())})
+	}
+	if req.ReverseSpeed > 0 {
+		best, at := 0.0, ""
+		for _, iv := range rep.Intervals {
+			if iv.Feasible && float64(-iv.Lo) > best {
+				best = float64(-iv.Lo)
+				at = fmt.Sprintf("range %s at %.2f km/h reverse", iv.Name, -iv.Lo.KMH())
+			}
+		}
+		m := best/float64(req.ReverseSpeed) - 1
+		add(Check{Name: fmt.Sprintf("reverse %.1f km/h", req.ReverseSpeed.KMH()), Met: m >= 0, Margin: m,
+			Got: fmt.Sprintf("%.2f km/h", units.Speed(best).KMH()), At: at})
+	}
+	for i, p := range req.Pulls {
+		surface := p.Surface
+		if surface == "" {
+			surface = f.firstSurface("field")
+		}
+		ground, err := f.Ground(surface)
+		if err != nil {
+			return rep, f.fieldError(fmt.Sprintf("requirements.pulls[%d].surface", i), err)
+		}
+		pts, err := TractiveEffort(v, EffortSpec{Speeds: []units.Speed{p.Speed}, Ground: ground})
+		if err != nil {
+			return rep, err
+		}
+		var best EffortPoint
+		for _, q := range pts {
+			if q.Feasible && q.Pull >= best.Pull {
+				best = q
+			}
+		}
+		m := float64(best.Pull)/float64(p.Pull) - 1
+		c := Check{Name: fmt.Sprintf("pull %.1f kN at %.1f km/h on %s", float64(p.Pull)/1e3, p.Speed.KMH(), surface),
+			Met: m >= 0, Margin: m, Got: fmt.Sprintf("%.1f kN", float64(best.Pull)/1e3)}
+		if best.Feasible {
+			c.At = fmt.Sprintf("range %s at %.1f km/h, engine %.0f rpm, limited by %s", names[best.Range], p.Speed.KMH(), rated.RPM(), best.Limit)
+		}
+		add(c)
+	}
+	for _, want := range req.PTOSpeeds {
+		c := Check{Name: fmt.Sprintf("PTO %.0f rpm at or below rated engine speed", want.RPM()), Got: "not offered", Margin: -1}
+		for _, s := range f.PTO.Speeds {
+			if math.Abs(float64(s-want)) <= 1e-6*float64(want) && f.PTO.AtEngine > 0 {
+				c.Margin = float64(rated)/float64(f.PTO.AtEngine) - 1
+				c.Met = c.Margin >= 0
+				c.Got = fmt.Sprintf("at %.0f rpm engine", f.PTO.AtEngine.RPM())
+			}
+		}
+		add(c)
+	}
+	if req.UnitSpeedMargin > 0 {
+		add(f.unitSpeedCheck(l, rep.Intervals, rated, req))
+	}
+	if req.PressureMargin > 0 {
+		limit := math.Inf(1)
+		for _, u := range []Unit{t.Pump, t.Motor} {
+			p := u.PeakPressure
+			if p == 0 {
+				p = u.RatedPressure
+			}
+			if p > 0 {
+				limit = math.Min(limit, float64(p))
+			}
+		}
+		c := Check{Name: fmt.Sprintf("relief %.0f %% below the units' peak pressure", 100*req.PressureMargin),
+			Got: fmt.Sprintf("relief %.0f bar", t.Relief.Bar())}
+		if math.IsInf(limit, 1) {
+			c.Got += ", units not rated: not checked"
+			c.Margin = -1
+		} else {
+			c.Margin = 1 - float64(t.Relief)/limit - req.PressureMargin
+			c.Met = c.Margin >= 0
+			c.Got += fmt.Sprintf(" against %.0f bar", units.Pressure(limit).Bar())
+		}
+		add(c)
+	}
+	if req.ShiftTolerance > 0 && l.Ranges() > 1 {
+		add(f.shiftCheck(l, names, rep.Intervals, rated, req.ShiftTolerance))
+	}
+	if req.CornerPower > 0 {
+		corner := f.cornerPower(t, l, rated)
+		ratio := float64(corner) / float64(eng.RatedPower())
+		add(Check{Name: fmt.Sprintf("hydrostat corner power at most %.0f %% of engine power", 100*req.CornerPower),
+			Met: ratio <= req.CornerPower, Margin: 1 - ratio/req.CornerPower,
+			Got: fmt.Sprintf("%.0f kW (%.0f %%)", float64(corner)/1e3, 100*ratio)})
+	}
+	return rep, nil
+}
+
+func cmpFloat(a, b float64) int {
+	switch {
+	case a < b:
+		return -1
+	case a > b:
+		return 1
+	}
+	return 0
+}
+
+// firstSurface returns the surface of the day's first segment of a kind
+// (any kind when none has one).
+func (f *File) firstSurface(kind string) string {
+	for _, g := range f.Day.Segments {
+		if g.Kind == kind && g.Surface != "" {
+			return g.Surface
+		}
+	}
+	for _, g := range f.Day.Segments {
+		if g.Surface != "" {
+			return g.Surface
+		}
+	}
+	return ""
+}
+
+// cornerPower is the relief pressure times the pump's full flow at engine
+// speed w: the greatest power the loop could carry.
+func (f *File) cornerPower(t Transmission, l powersplit.Layout, w units.AngularVelocity) units.Power {
+	pump := f.pumpSpeed(l, w)
+	return units.Power(float64(t.Relief) * float64(t.Pump.Displacement) * float64(pump))
+}
+
+// pumpSpeed is the pump's speed at engine speed w, from a solved point.
+func (f *File) pumpSpeed(l powersplit.Layout, w units.AngularVelocity) units.AngularVelocity {
+	s := powersplit.NewSolver(l)
+	var st powersplit.State
+	for rg := range l.Ranges() {
+		ivs, err := s.Interval(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{}}})
+		if err != nil || len(ivs) == 0 {
+			continue
+		}
+		mid := (ivs[0].Lo + ivs[0].Hi) / 2
+		if err := s.Solve(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{Speed: mid}}}, &st); err != nil {
+			continue
+		}
+		for _, m := range st.Margins {
+			if strings.Contains(m.Quantity, "pump") && strings.Contains(m.Quantity, "speed") {
+				return units.AngularVelocity(m.Value)
+			}
+		}
+	}
+	return 0
+}
+
+// outSpeed converts a travel speed to the output shaft speed (no slip).
+func (f *File) outSpeed(v units.Speed) units.AngularVelocity {
+	return units.AngularVelocity(float64(v) * f.Tractor.FinalDrive / float64(f.Tractor.Rear.Tyre.RollingRadius))
+}
+
+// unitState solves range rg at travel speed v (no load) and returns the
+// worst unit speed over its limit (with the margin that sets it) and the
+// variator's speed ratio, motor over pump, from the solver's margins.
+func (f *File) unitState(s *powersplit.Solver, st *powersplit.State, rg int, w units.AngularVelocity, v units.Speed) (worst float64, m powersplit.Margin, ratio float64, ok bool) {
+	if err := s.Solve(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{Speed: f.outSpeed(v)}}}, st); err != nil {
+		return 0, m, 0, false
+	}
+	var pump, motor float64
+	for _, q := range st.Margins {
+		if q.Unit != "rad/s" {
+			continue
+		}
+		if q.Limit > 0 && q.Value/q.Limit > worst {
+			worst, m = q.Value/q.Limit, q
+		}
+		switch {
+		case strings.Contains(q.Quantity, "pump"):
+			pump = q.Value
+		case strings.Contains(q.Quantity, "motor") && motor == 0:
+			motor = q.Value
+		}
+	}
+	if pump > 0 {
+		ratio = motor / pump
+	}
+	return worst, m, ratio, true
+}
+
+// unitSpeedCheck finds, at each forward speed up to the top speed, the
+// range that keeps the units furthest below their greatest speeds, and
+// reports the speed where even that range comes closest: the solver's own
+// margins at the binding point.
+func (f *File) unitSpeedCheck(l powersplit.Layout, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
+	s := powersplit.NewSolver(l)
+	var st powersplit.State
+	top := req.TopSpeed
+	if top == 0 {
+		for _, iv := range ivs {
+			top = max(top, iv.Hi)
+		}
+	}
+	names := make([]string, l.Ranges())
+	for _, iv := range ivs {
+		names[iv.Range] = iv.Name
+	}
+	worst, at := 0.0, ""
+	const n = 60
+	for k := 1; k <= n; k++ {
+		v := top * units.Speed(k) / n
+		best, bestAt := math.Inf(1), ""
+		for rg := range l.Ranges() {
+			r, m, _, ok := f.unitState(s, &st, rg, w, v)
+			if ok && r < best {
+				best = r
+				bestAt = fmt.Sprintf("range %s at %.2f km/h, engine %.0f rpm: %s %s %.0f of %.0f rpm", names[rg], v.KMH(), w.RPM(),
+					m.Element, m.Quantity, units.AngularVelocity(m.Value).RPM(), units.AngularVelocity(m.Limit).RPM())
+			}
+		}
+		if math.IsInf(best, 1) { // a gap: the gap check reports it
+			continue
+		}
+		if best > worst {
+			worst, at = best, bestAt
+		}
+	}
+	margin := 1 - worst - req.UnitSpeedMargin
+	return Check{Name: fmt.Sprintf("unit speeds %.0f %% below their greatest", 100*req.UnitSpeedMargin),
+		Met: margin >= 0, Margin: margin, Got: fmt.Sprintf("%.1f %% of the greatest", 100*worst), At: at}
+}
+
+// shiftCheck compares the variator's speed ratio (motor over pump) in the
+// two ranges of each range change, at the common travel speed where they
+// come closest: a synchronous change needs no jump of the variator.
+func (f *File) shiftCheck(l powersplit.Layout, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
+	s := powersplit.NewSolver(l)
+	var st powersplit.State
+	worst, at := 0.0, ""
+	for i := 0; i+1 < l.Ranges(); i++ {
+		lo, hi := math.Inf(1), math.Inf(-1) // the overlap of both ranges' forward speeds
+		for _, a := range ivs {
+			for _, b := range ivs {
+				if a.Range == i && b.Range == i+1 && a.Feasible && b.Feasible {
+					x, y := math.Max(float64(a.Lo), float64(b.Lo)), math.Min(float64(a.Hi), float64(b.Hi))
+					if x <= y && y > 0 {
+						lo, hi = math.Max(x, 0), y
+					}
+				}
+			}
+		}
+		best, bestAt := 1.0, fmt.Sprintf("range change %s → %s: no common speed", names[i], names[i+1])
+		if lo <= hi {
+			const n = 40
+			for k := range n + 1 {
+				v := units.Speed(lo + (hi-lo)*float64(k)/n)
+				_, _, ra, okA := f.unitState(s, &st, i, w, v)
+				_, _, rb, okB := f.unitState(s, &st, i+1, w, v)
+				if !okA || !okB || math.Max(math.Abs(ra), math.Abs(rb)) == 0 {
+					continue
+				}
+				mis := math.Abs(ra-rb) / math.Max(math.Abs(ra), math.Abs(rb))
+				if mis < best {
+					best = mis
+					bestAt = fmt.Sprintf("range change %s → %s at %.2f km/h: variator %.3f against %.3f", names[i], names[i+1], v.KMH(), ra, rb)
+				}
+			}
+		}
+		if best >= worst {
+			worst, at = best, bestAt
+		}
+	}
+	return Check{Name: fmt.Sprintf("range changes match within %.1f %%", 100*tol),
+		Met: worst <= tol, Margin: tol - worst, Got: fmt.Sprintf("worst mismatch %.2f %%", 100*worst), At: at}
+}
