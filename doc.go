@@ -111,6 +111,23 @@
 // limit at a feasible point; State.Flags lists rated continuous pressures
 // exceeded below the relief setting.
 //
+// # The summary and the full state
+//
+// One call solves a point, Solver.Solve, and one kind of value holds the
+// result, State. A sweep, a map or a design search reads a few numbers per
+// point; writing every port, shaft, element and margin costs more than
+// solving the point. So a caller that needs only those few sets
+// State.Brief before Solve: the State then holds the summary (range, input
+// torque and power, outputs and PTOs, losses, efficiency, hydraulic share,
+// each loop's pressure, settings, unit speeds and torques, the flags and
+// the binding margin, State.Binding, the limit with the least room left)
+// and leaves Shafts, Elements and Margins empty. Everything it holds equals
+// the full State of the same point to rounding, and the errors are the
+// same. The zero State (Brief unset) gets the full state, as before; to
+// see the full state of a point found with Brief States (the best
+// candidate of a search), solve it again with Brief unset. Sweeps, maps and
+// the vehicle's drive use Brief States.
+//
 // # Hydraulic power share
 //
 // State.HydraulicShare is the power the pump delivers into the loop, Δp·Q,

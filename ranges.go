@@ -227,6 +227,7 @@ func (HighestEfficiency) Better(a, b *State) bool { return a.Efficiency > b.Effi
 // Feasible appends to dst the ranges in which p (its Range ignored) solves
 // without error, and returns it.
 func (s *Solver) Feasible(p Point, dst []int) []int {
+	s.scratch.Brief = true
 	for i := range s.l.ranges {
 		p.Range = i
 		if s.Solve(p, &s.scratch) == nil {
@@ -248,6 +249,7 @@ func (s *Solver) Best(p Point, pol Policy, st *State) error {
 	found := false
 	nr := len(s.l.ranges)
 	var errs []error
+	s.scratch.Brief = st.Brief
 	for i := range nr {
 		p.Range = i
 		err := s.Solve(p, &s.scratch)
@@ -315,35 +317,28 @@ func (e *RangesError) Unwrap() []error { return e.Errs }
 
 // copyFrom copies src into st, reusing st's storage when it fits.
 func (st *State) copyFrom(src *State) {
-	ports, els, sh, outs, ptos, loops, mar, fl := st.ports, st.Elements, st.Shafts, st.Outputs, st.PTOs, st.Loops, st.Margins, st.Flags
-	if len(ports) != len(src.ports) || len(els) != len(src.Elements) || len(loops) != len(src.Loops) {
-		ports = make([]PortState, len(src.ports))
-		els = make([]ElementState, len(src.Elements))
-		loops = make([]LoopResult, len(src.Loops))
-		sh = make([]ShaftState, len(src.Shafts))
-		outs = make([]FlowState, len(src.Outputs))
-		ptos = make([]FlowState, len(src.PTOs))
-	}
+	ports, els, sh, outs, ptos, loops, mar, fl, dr := st.ports, st.Elements, st.Shafts, st.Outputs, st.PTOs, st.Loops, st.Margins, st.Flags, st.Drags
 	*st = *src
-	copy(ports, src.ports)
-	st.ports = ports
+	st.Drags = copyInto(dr, src.Drags)
+	st.ports = copyInto(ports, src.ports)
 	off := 0
-	for i := range src.Elements {
-		e := src.Elements[i]
-		n := len(e.Ports)
-		e.Ports = ports[off : off+n : off+n]
+	st.Elements = copyInto(els, src.Elements)
+	for i := range st.Elements {
+		n := len(st.Elements[i].Ports)
+		st.Elements[i].Ports = st.ports[off : off+n : off+n]
 		off += n
-		els[i] = e
 	}
-	st.Elements = els
-	st.Shafts = append(sh[:0], src.Shafts...)
-	st.Outputs = append(outs[:0], src.Outputs...)
-	st.PTOs = append(ptos[:0], src.PTOs...)
+	st.Shafts = copyInto(sh, src.Shafts)
+	st.Outputs = copyInto(outs, src.Outputs)
+	st.PTOs = copyInto(ptos, src.PTOs)
+	if len(loops) != len(src.Loops) {
+		loops = make([]LoopResult, len(src.Loops))
+	}
 	for j := range src.Loops {
 		m, set := loops[j].Motors, loops[j].Settings
 		loops[j] = src.Loops[j]
-		loops[j].Motors = append(m[:0], src.Loops[j].Motors...)
-		loops[j].Settings = append(set[:0], src.Loops[j].Settings...)
+		loops[j].Motors = copyInto(m, src.Loops[j].Motors)
+		loops[j].Settings = copyInto(set, src.Loops[j].Settings)
 	}
 	st.Loops = loops
 	if mar == nil {
@@ -354,4 +349,18 @@ func (st *State) copyFrom(src *State) {
 	}
 	st.Margins = append(mar[:0], src.Margins...)
 	st.Flags = append(fl[:0], src.Flags...)
+}
+
+// copyInto returns a copy of src in dst's storage when it has room: nil
+// for nil, empty for empty.
+func copyInto[T any](dst, src []T) []T {
+	if src == nil {
+		return nil
+	}
+	if dst == nil || cap(dst) < len(src) {
+		dst = make([]T, len(src))
+	}
+	dst = dst[:len(src)]
+	copy(dst, src)
+	return dst
 }

@@ -47,6 +47,8 @@ type Solver struct {
 	alpha    float64
 	lastStep float64
 	scratch  State
+	bad      Margin // the first infeasible margin of the last fill (margins)
+	hasBad   bool
 
 	// The factored torque systems (see factor.go) and the work space of
 	// their solve.
@@ -278,7 +280,7 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 	if !(res <= balanceTo) {
 		return &ConvergenceError{Iterations: it + 1, Residual: res}
 	}
-	return s.limits(st)
+	return s.limits()
 }
 
 // iterate runs the fixed-point iteration on loss directions (if update is

@@ -148,106 +148,136 @@ type State struct {
 	// infeasible (rated continuous pressure exceeded below the relief).
 	Flags []Margin
 
+	// Binding is the limit the point is closest to: of the margins that
+	// make a point infeasible when crossed (relief pressure, unit speeds,
+	// settings; not the rated pressures, which are Flags), the one with the
+	// least room left relative to its limit. Zero with no loop.
+	Binding Margin
+
 	Iterations int
 	Residual   float64 // relative power-balance residual reached
-	ports      []PortState
+
+	// Brief, set by the caller before Solve, asks for the summary of the
+	// point only, the few numbers a sweep, a map or a search reads: every
+	// field above except Shafts, Elements and Margins, which a Brief State
+	// leaves empty. In Loops, each unit's Point then holds its Setting,
+	// Speed, Pressure, Torque, Mechanical power and Loss (and the pump its
+	// Flow and Hydraulic power); its other fields are zero. Everything a
+	// Brief State holds equals what the full State of the same point
+	// holds, to rounding. A State with Brief unset (the zero value) gets
+	// the full state.
+	Brief bool
+
+	ports []PortState
 }
 
 // fill writes the state into st and returns the relative power-balance
 // residual. With torques == 0 the torques are not known yet and are zero.
+// The summary (summary) is written always; the detail (every port, shaft,
+// element and margin) only when st is not Brief.
 func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) float64 {
+	st.size(s.l)
+	res := s.summary(st, p, r, iters, torques)
+	if !st.Brief {
+		s.detail(st, r, torques)
+	}
+	return res
+}
+
+// portTorque returns the torque at port k of the solver's last solution,
+// zero while torques are not known (torques == 0).
+func (s *Solver) portTorque(k, torques int) float64 {
+	if torques == 0 {
+		return 0
+	}
+	return s.t[k] + 0 // + 0 turns −0 into 0
+}
+
+// elemLoss returns the loss of element i at the solver's last solution and,
+// for a planetary set, the direction of its rolling power.
+func (s *Solver) elemLoss(i, torques int) (float64, planetary.Flow) {
 	l := s.l
-	st.size(l)
+	e := &l.elems[i]
+	if torques == 0 {
+		return 0, 0
+	}
+	switch e.kind {
+	case GearKind:
+		switch k := s.gearK[e.index]; {
+		case k < 1:
+			return pos((1 - e.eta) * (s.portTorque(e.port0, 1) * s.w[e.shafts[0]])), 0
+		case k > 1:
+			return pos((1 - e.eta) * (s.portTorque(e.port0+1, 1) * s.w[e.shafts[1]])), 0
+		}
+	case PlanetaryKind:
+		roll := s.portTorque(e.port0, 1) * (s.w[e.shafts[0]] - s.w[e.shafts[2]])
+		eta := e.set.BasicEfficiency()
+		switch s.pflow[e.index] {
+		case 0:
+			return pos(roll * (1 - eta)), planetary.SunDrives
+		case 1:
+			return pos(roll * (1 - 1/eta)), planetary.RingDrives
+		}
+	case LoopKind:
+		return pos(float64(s.loopA[e.index].Loss)), 0
+	}
+	return 0, 0
+}
+
+// summary writes what every point reports, Brief or not: the range, the
+// input, the outputs and PTOs, the totals, the loops, the flags and the
+// binding margin, and returns the relative power-balance residual.
+func (s *Solver) summary(st *State, p Point, r *rangeDef, iters int, torques int) float64 {
+	l := s.l
 	st.Range, st.RangeName = p.Range, r.name
 	st.Iterations = iters
-	for i := range st.ports {
-		st.ports[i] = PortState{}
-	}
-	for i := range l.elems {
+	flow := func(i int) FlowState {
 		e := &l.elems[i]
-		es := &st.Elements[i]
-		es.Name, es.Kind, es.Loss, es.Engaged, es.Flow, es.Loop = e.name, e.kind, 0, r.engaged[i], 0, -1
-		for k, sh := range e.shafts {
-			ps := &es.Ports[k]
-			ps.Shaft = sh
-			ps.Speed = units.AngularVelocity(s.w[sh])
-			if torques != 0 {
-				ps.Torque = units.Torque(s.t[e.port0+k] + 0) // + 0 turns −0 into 0
-			}
-			ps.Power = units.Power(float64(ps.Torque) * float64(ps.Speed))
-		}
+		w := s.w[e.shafts[0]]
+		t := s.portTorque(e.port0, torques)
+		return FlowState{Name: e.name, Speed: units.AngularVelocity(w), Torque: units.Torque(t), Power: units.Power(t * w)}
 	}
-	for i := range st.Shafts {
-		st.Shafts[i] = ShaftState{Name: l.shafts[i], Speed: units.AngularVelocity(s.w[i])}
-	}
-	for i := range st.ports {
-		ps := &st.ports[i]
-		sh := &st.Shafts[ps.Shaft]
-		sh.Torque += units.Torque(math.Abs(float64(ps.Torque)) / 2)
-		sh.Power += units.Power(math.Abs(float64(ps.Power)) / 2)
-	}
-	in := &st.Elements[l.input].Ports[0]
+	in := flow(l.input)
 	st.InputSpeed = in.Speed
 	st.InputTorque = -in.Torque
 	st.InputPower = -in.Power
 	st.OutputPower, st.PTOPower, st.Loss, st.HydrostatLoss = 0, 0, 0, 0
 	for k, oi := range l.outputs {
-		ps := &st.Elements[oi].Ports[0]
-		st.Outputs[k] = FlowState{Name: l.elems[oi].name, Speed: ps.Speed, Torque: ps.Torque, Power: ps.Power}
-		st.OutputPower += ps.Power
+		st.Outputs[k] = flow(oi)
+		st.OutputPower += st.Outputs[k].Power
 	}
 	for k, pi := range l.ptos {
-		ps := &st.Elements[pi].Ports[0]
-		st.PTOs[k] = FlowState{Name: l.elems[pi].name, Speed: ps.Speed, Torque: ps.Torque, Power: ps.Power}
-		st.PTOPower += ps.Power
+		st.PTOs[k] = flow(pi)
+		st.PTOPower += st.PTOs[k].Power
+	}
+	for i := range l.elems {
+		if torques == 0 {
+			break
+		}
+		loss, _ := s.elemLoss(i, torques)
+		st.Loss += units.Power(loss)
+		if l.elems[i].kind == LoopKind {
+			st.HydrostatLoss += units.Power(loss)
+		}
 	}
 	hyd, pump := 0.0, 0.0
-	for i := range l.elems {
-		e := &l.elems[i]
-		es := &st.Elements[i]
-		switch e.kind {
-		case GearKind:
-			pa, pb := float64(es.Ports[0].Power), float64(es.Ports[1].Power)
-			switch k := s.gearK[e.index]; {
-			case k < 1:
-				es.Loss = units.Power(pos((1 - e.eta) * pa))
-			case k > 1:
-				es.Loss = units.Power(pos((1 - e.eta) * pb))
-			}
-		case PlanetaryKind:
-			roll := float64(es.Ports[0].Torque) * (s.w[e.shafts[0]] - s.w[e.shafts[2]])
-			eta := e.set.BasicEfficiency()
-			switch s.pflow[e.index] {
-			case 0:
-				es.Flow = planetary.SunDrives
-				es.Loss = units.Power(pos(roll * (1 - eta)))
-			case 1:
-				es.Flow = planetary.RingDrives
-				es.Loss = units.Power(pos(roll * (1 - 1/eta)))
-			}
-		case LoopKind:
-			j := e.index
-			es.Loop = j
-			lr := &st.Loops[j]
-			src := &s.loopA[j]
-			lr.Name = e.name
-			m, set := lr.Motors, lr.Settings
-			copy(m, src.Motors)
-			copy(set, src.Settings)
-			lr.LoopState = *src
-			lr.Motors, lr.Settings = m, set
-			lr.Ratio = s.w[e.shafts[1]] / s.w[e.shafts[0]]
-			if torques != 0 {
-				lr.HydraulicPower = src.Pump.Hydraulic
-				pump += float64(es.Ports[0].Power)
-				es.Loss = units.Power(pos(float64(src.Loss)))
-				st.HydrostatLoss += es.Loss
-			} else {
-				lr.HydraulicPower = 0
-			}
-			hyd += float64(lr.HydraulicPower)
+	for j, e := range l.loops {
+		el := &l.elems[e]
+		lr := &st.Loops[j]
+		src := &s.loopA[j]
+		m, set := lr.Motors, lr.Settings
+		copy(m, src.Motors)
+		copy(set, src.Settings)
+		lr.LoopState = *src
+		lr.Motors, lr.Settings = m, set
+		lr.Name = el.name
+		lr.Ratio = s.w[el.shafts[1]] / s.w[el.shafts[0]]
+		lr.HydraulicPower = 0
+		if torques != 0 {
+			lr.HydraulicPower = src.Pump.Hydraulic
+			pump += s.portTorque(el.port0, torques) * s.w[el.shafts[0]]
 		}
-		st.Loss += es.Loss
+		hyd += float64(lr.HydraulicPower)
 	}
 	st.DragLoss = 0
 	if len(l.drags) > 0 {
@@ -275,7 +305,15 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 	// 1e-3 of the largest port torque at the largest shaft speed, so that
 	// a point where almost no power flows is judged by the rounding of the
 	// powers it could carry.
-	scale := math.Abs(pin) + math.Abs(useful) + float64(st.Loss) + 1e-3*st.powerScale()
+	var tmax, wmax float64
+	for i := range l.elems {
+		e := &l.elems[i]
+		for k, sh := range e.shafts {
+			tmax = maxAbs(tmax, s.portTorque(e.port0+k, torques))
+			wmax = maxAbs(wmax, s.w[sh])
+		}
+	}
+	scale := math.Abs(pin) + math.Abs(useful) + float64(st.Loss) + 1e-3*tmax*wmax
 	res := pin - useful - float64(st.Loss)
 	if scale > 0 {
 		res = math.Abs(res) / scale
@@ -283,10 +321,38 @@ func (s *Solver) fill(st *State, p Point, r *rangeDef, iters int, torques int) f
 		res = 0
 	}
 	st.Residual = res
-	if torques != 0 {
-		s.margins(st)
-	}
+	s.margins(st, torques != 0)
 	return res
+}
+
+// detail writes every port, shaft and element of the last solution into st.
+func (s *Solver) detail(st *State, r *rangeDef, torques int) {
+	l := s.l
+	for i := range l.elems {
+		e := &l.elems[i]
+		es := &st.Elements[i]
+		loss, fl := s.elemLoss(i, torques)
+		es.Name, es.Kind, es.Loss, es.Engaged, es.Flow, es.Loop = e.name, e.kind, units.Power(loss), r.engaged[i], fl, -1
+		if e.kind == LoopKind {
+			es.Loop = e.index
+		}
+		for k, sh := range e.shafts {
+			ps := &es.Ports[k]
+			ps.Shaft = sh
+			ps.Speed = units.AngularVelocity(s.w[sh])
+			ps.Torque = units.Torque(s.portTorque(e.port0+k, torques))
+			ps.Power = units.Power(float64(ps.Torque) * float64(ps.Speed))
+		}
+	}
+	for i := range st.Shafts {
+		st.Shafts[i] = ShaftState{Name: l.shafts[i], Speed: units.AngularVelocity(s.w[i])}
+	}
+	for i := range st.ports {
+		ps := &st.ports[i]
+		sh := &st.Shafts[ps.Shaft]
+		sh.Torque += units.Torque(math.Abs(float64(ps.Torque)) / 2)
+		sh.Power += units.Power(math.Abs(float64(ps.Power)) / 2)
+	}
 }
 
 // powerScale returns the largest port torque times the largest shaft speed.
@@ -320,16 +386,14 @@ func maxAbs(m, v float64) float64 {
 }
 
 // size makes st's slices fit layout l, allocating only when they do not.
+// A Brief st gets empty Shafts, Elements and Margins (their storage kept
+// for a later full solve).
 func (st *State) size(l *layout) {
-	if len(st.ports) != l.nPorts || len(st.Elements) != len(l.elems) || len(st.Loops) != len(l.loops) ||
-		len(st.Shafts) != len(l.shafts) || len(st.Outputs) != len(l.outputs) || len(st.PTOs) != len(l.ptos) ||
+	if cap(st.ports) < l.nPorts || cap(st.Elements) < len(l.elems) || len(st.Loops) != len(l.loops) ||
+		cap(st.Shafts) < len(l.shafts) || len(st.Outputs) != len(l.outputs) || len(st.PTOs) != len(l.ptos) ||
 		len(st.Drags) != len(l.drags) {
 		st.ports = make([]PortState, l.nPorts)
 		st.Elements = make([]ElementState, len(l.elems))
-		for i := range l.elems {
-			e := &l.elems[i]
-			st.Elements[i].Ports = st.ports[e.port0 : e.port0+len(e.shafts) : e.port0+len(e.shafts)]
-		}
 		st.Shafts = make([]ShaftState, len(l.shafts))
 		st.Outputs = make([]FlowState, len(l.outputs))
 		st.PTOs = make([]FlowState, len(l.ptos))
@@ -349,11 +413,17 @@ func (st *State) size(l *layout) {
 		st.Margins = make([]Margin, 0, nm)
 		st.Flags = make([]Margin, 0, nm)
 	}
-	// A State filled for another layout of the same shape keeps its slices.
-	for i := range l.elems {
-		e := &l.elems[i]
-		if len(st.Elements[i].Ports) != len(e.shafts) {
-			st.Elements[i].Ports = st.ports[e.port0 : e.port0+len(e.shafts) : e.port0+len(e.shafts)]
+	if st.Brief {
+		st.ports, st.Elements, st.Shafts, st.Margins = st.ports[:0], st.Elements[:0], st.Shafts[:0], st.Margins[:0]
+	} else {
+		st.ports, st.Elements, st.Shafts = st.ports[:l.nPorts], st.Elements[:len(l.elems)], st.Shafts[:len(l.shafts)]
+		// A State filled for another layout of the same shape keeps its slices.
+		for i := range l.elems {
+			e := &l.elems[i]
+			if len(st.Elements[i].Ports) != len(e.shafts) || cap(st.Elements[i].Ports) == 0 ||
+				&st.Elements[i].Ports[:1][0] != &st.ports[e.port0] {
+				st.Elements[i].Ports = st.ports[e.port0 : e.port0+len(e.shafts) : e.port0+len(e.shafts)]
+			}
 		}
 	}
 	for j, e := range l.loops {
@@ -364,15 +434,41 @@ func (st *State) size(l *layout) {
 	}
 }
 
-// margins lists the distance of every loop quantity from its limit.
-func (s *Solver) margins(st *State) {
+// margins lists the distance of every loop quantity from its limit in
+// st.Margins (not for a Brief st), the crossed ratings in st.Flags, the
+// binding margin in st.Binding, and keeps the first infeasible margin for
+// limits. With known false (no torques yet) only the lists are cleared.
+func (s *Solver) margins(st *State, known bool) {
 	l := s.l
 	st.Margins = st.Margins[:0]
 	st.Flags = st.Flags[:0]
+	st.Binding = Margin{}
+	s.bad, s.hasBad = Margin{}, false
+	if !known {
+		return
+	}
+	room := math.Inf(1)
+	add := func(m Margin, rated bool) {
+		if !st.Brief {
+			st.Margins = append(st.Margins, m)
+		}
+		if rated {
+			if m.Left() < 0 {
+				st.Flags = append(st.Flags, m)
+			}
+			return // a rating is a flag, not a limit
+		}
+		if r := m.Left() / m.Limit; r < room {
+			room, st.Binding = r, m
+		}
+		if !s.hasBad && m.Left() < -1e-12*m.Limit {
+			s.bad, s.hasBad = m, true
+		}
+	}
 	if r := &l.ranges[st.Range]; r.maxOut > 0 {
 		// The range's speed limit (a second motor's declutch speed).
-		st.Margins = append(st.Margins, Margin{Element: r.name, Quantity: "output speed (range limit)",
-			Value: math.Abs(s.outW[0]), Limit: r.maxOut, Unit: "rad/s"})
+		add(Margin{Element: r.name, Quantity: "output speed (range limit)",
+			Value: math.Abs(s.outW[0]), Limit: r.maxOut, Unit: "rad/s"}, false)
 	}
 	for j, e := range l.loops {
 		el := &l.elems[e]
@@ -380,7 +476,7 @@ func (s *Solver) margins(st *State) {
 		ls := &st.Loops[j]
 		high := float64(spec.Charge) + math.Abs(float64(ls.Pressure))
 		if spec.Relief > 0 {
-			st.Margins = append(st.Margins, Margin{Element: el.name, Quantity: "pressure", Value: high, Limit: float64(spec.Relief), Unit: "Pa"})
+			add(Margin{Element: el.name, Quantity: "pressure", Value: high, Limit: float64(spec.Relief), Unit: "Pa"}, false)
 		}
 		for k := range el.shafts {
 			pt := &ls.Pump
@@ -389,34 +485,26 @@ func (s *Solver) margins(st *State) {
 			}
 			us := &el.uspec[k]
 			if us.RatedPressure > 0 {
-				m := Margin{Element: el.name, Quantity: el.unames[k][0], Value: math.Abs(float64(ls.Pressure)), Limit: float64(us.RatedPressure), Unit: "Pa"}
-				st.Margins = append(st.Margins, m)
-				if m.Left() < 0 {
-					st.Flags = append(st.Flags, m)
-				}
+				add(Margin{Element: el.name, Quantity: el.unames[k][0], Value: math.Abs(float64(ls.Pressure)), Limit: float64(us.RatedPressure), Unit: "Pa"}, true)
 			}
 			if us.MaxSpeed > 0 {
-				st.Margins = append(st.Margins, Margin{Element: el.name, Quantity: el.unames[k][1], Value: math.Abs(float64(pt.Speed)), Limit: float64(us.MaxSpeed), Unit: "rad/s"})
+				add(Margin{Element: el.name, Quantity: el.unames[k][1], Value: math.Abs(float64(pt.Speed)), Limit: float64(us.MaxSpeed), Unit: "rad/s"}, false)
 			}
-			st.Margins = append(st.Margins, Margin{Element: el.name, Quantity: el.unames[k][2], Value: math.Abs(pt.Setting), Limit: 1})
+			add(Margin{Element: el.name, Quantity: el.unames[k][2], Value: math.Abs(pt.Setting), Limit: 1}, false)
 		}
 	}
 }
 
-// limits returns a *LimitError for the first infeasible margin of st.
-func (s *Solver) limits(st *State) error {
-	for _, m := range st.Margins {
-		if m.Left() >= -1e-12*m.Limit {
-			continue
-		}
-		if len(m.Quantity) > 14 && m.Quantity[len(m.Quantity)-14:] == "rated pressure" {
-			continue // a flag, not infeasible
-		}
-		sent := ErrInfeasible
-		if len(m.Quantity) > 7 && m.Quantity[len(m.Quantity)-7:] == "setting" {
-			sent = ErrUnreachable
-		}
-		return s.limitErr(LimitError{Element: m.Element, Quantity: m.Quantity, Value: m.Value, Limit: m.Limit, Unit: m.Unit, Err: sent})
+// limits returns a *LimitError for the first infeasible margin that
+// margins found.
+func (s *Solver) limits() error {
+	if !s.hasBad {
+		return nil
 	}
-	return nil
+	m := s.bad
+	sent := ErrInfeasible
+	if len(m.Quantity) > 7 && m.Quantity[len(m.Quantity)-7:] == "setting" {
+		sent = ErrUnreachable
+	}
+	return s.limitErr(LimitError{Element: m.Element, Quantity: m.Quantity, Value: m.Value, Limit: m.Limit, Unit: m.Unit, Err: sent})
 }

@@ -158,7 +158,7 @@ func (l Layout) run(n, cols, workers int, progress func(int, int), p Point, f jo
 	for range workers {
 		wg.Go(func() {
 			s := NewSolver(l)
-			var st State
+			st := State{Brief: true} // a cell needs the summary only
 			q := p
 			q.Outputs = append([]OutputDemand(nil), p.Outputs...)
 			for {

@@ -55,6 +55,7 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 	d.mu.Lock()
 	defer d.mu.Unlock()
 	d.outs[0] = powersplit.OutputDemand{Speed: out, Torque: outTorque}
+	d.st.Brief = true // the summary is all a drive point needs
 	err := d.solver.Solve(powersplit.Point{Range: rng, Input: engine, Outputs: d.outs}, &d.st)
 	if err != nil {
 		// One line, the cause after the kind: "%w: %w" keeps both for errors.Is.
@@ -64,12 +65,7 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 		return DrivePoint{}, fmt.Errorf("%w: %w", ErrTransmission, err)
 	}
 	st := &d.st
-	var hydro float64
-	for _, e := range st.Elements {
-		if e.Kind == powersplit.LoopKind {
-			hydro += float64(e.Loss)
-		}
-	}
+	hydro := float64(st.HydrostatLoss)
 	mech := float64(st.Loss) - hydro
 	if mech < 0 { // rounding only: every element's loss is >= 0
 		mech = 0
