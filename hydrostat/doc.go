@@ -53,7 +53,7 @@
 // μ the dynamic viscosity, ρ the density and β the bulk modulus:
 //
 //	L = Cs·D_q·|Δp|/μ  [+ (Cr + |x|)·D_max·|ω|·|Δp|/β  if Compressibility]
-//	τ = Cv·D_t·μ·|ω| + Cf·D_t·|Δp| + p_c·D_t + Ch·ρ·ω²·D_t^(5/3)
+//	τ = Cv·D_t·μ·|ω| + Cf·D_t·|Δp| + p_c·D_t + T_0 + Ch·ρ·ω²·D_t^(5/3)
 //	D_q = D_max·(1 − s_q + s_q·|x|),  D_t = D_max·(1 − s_t + s_t·|x|)
 //
 // All coefficients are dimensionless (p_c, the constant torque expressed as
@@ -67,11 +67,17 @@
 // volume each stroke and lost on decompression, follows the argument of
 // Ivantysyn & Ivantysynova (2001) with Cr = V₀/(2π·D_max).
 //
-// Per radian or per revolution: coefficients quoted for the same formulas
-// written with D_rev = 2π·D are 2π times smaller for Cs, Cv, Cf and p_c and
-// (2π)^(5/3) times smaller for Ch; WilsonPerRev converts them. With D per
-// radian, Cf is the friction torque as a fraction of the ideal torque at
-// full setting. Typical orders (From memory, for illustration only):
+// Per radian or per revolution: only the coefficients that multiply a
+// displacement written per revolution, V = 2π·D, change with the
+// convention: Cs and Cv are 2π times smaller and Ch (2π)^(5/3) times smaller
+// when quoted for Q_s = Cs·V·Δp/μ, T_v = Cv·V·μ·ω, T_h = Ch·ρ·ω²·V^(5/3)
+// (ω in rad/s). With D per radian, Cf is the friction torque as a fraction
+// of the ideal torque at full setting, and a source quoting that fraction
+// means the same number per revolution; p_c is a pressure either way.
+// WilsonPerRev converts and says which source forms it assumes.
+// The "constant" term p_c·D_t falls with the setting when s_t > 0;
+// ConstantTorque T_0 stays the same at every setting. Typical orders (From
+// memory, for illustration only):
 // Cs ≈ 10⁻⁹…10⁻⁸, Cv ≈ 10⁴…10⁵, Cf ≈ 0.01…0.05.
 //
 // Map is the alternative for users with test data: tables of η_v and η_hm

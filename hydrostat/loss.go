@@ -42,18 +42,29 @@ type Losses struct {
 //	Q_r = (Cr + |x|)·D_max·|ω|·|Δp|/β             compression (if Compressibility)
 //	T_v = Cv·D_t·μ·|ω|                           viscous drag
 //	T_f = Cf·D_t·|Δp|                            Coulomb friction ∝ load
-//	T_c = p_c·D_t                                constant torque
+//	T_c = p_c·D_t + T_0                          constant torque
 //	T_h = Ch·ρ·ω²·D_t^(5/3)                      hydrodynamic (churning) torque
 //	D_q = D_max·(1 − s_q + s_q·|x|),  D_t = D_max·(1 − s_t + s_t·|x|)
+//
+// The term p_c·D_t is constant in speed and pressure but, with
+// TorqueSetting s_t > 0, falls with the setting like every other torque
+// term (at x = 0 it is (1 − s_t)·p_c·D_max). ConstantTorque T_0 is truly
+// constant: the same at every setting, speed and pressure (a seal or
+// bearing drag that no swash angle changes). Neither acts at ω = 0.
 type Wilson struct {
 	Slip         float64 // Cs, laminar leakage coefficient, ≥ 0
 	Viscous      float64 // Cv, viscous drag coefficient, ≥ 0
 	Friction     float64 // Cf, Coulomb friction coefficient, ≥ 0 (torque loss per ideal torque at full setting)
 	Hydrodynamic float64 // Ch, churning torque coefficient, ≥ 0
 
-	// ConstantPressure p_c expresses the constant loss torque T_c as the
-	// pressure difference that would produce it at displacement D_t.
+	// ConstantPressure p_c expresses a constant loss torque as the
+	// pressure difference that would produce it at displacement D_t (so it
+	// scales with the unit's size and, with TorqueSetting > 0, with the
+	// setting).
 	ConstantPressure units.Pressure
+	// ConstantTorque T_0 is a loss torque independent of setting, speed and
+	// pressure (not of size: it belongs to one unit), ≥ 0; 0 means none.
+	ConstantTorque units.Torque
 
 	// Compressibility adds the compression flow loss Q_r; DeadVolume is Cr,
 	// the dead volume of all cylinders at full setting divided by the
@@ -78,6 +89,7 @@ func (m Wilson) Validate() error {
 	}{
 		{"slip", m.Slip}, {"viscous", m.Viscous}, {"friction", m.Friction},
 		{"hydrodynamic", m.Hydrodynamic}, {"constant pressure", float64(m.ConstantPressure)},
+		{"constant torque", float64(m.ConstantTorque)},
 		{"dead volume", m.DeadVolume},
 	} {
 		if !finite(c.v) || c.v < 0 {
@@ -114,7 +126,7 @@ func (m *Wilson) losses(x, dmax, w, dp, mu, rho, beta, d53 float64) (Losses, err
 		}
 		leak += (m.DeadVolume + x) * dmax * w * dp / beta
 	}
-	tau := m.Viscous*dt*mu*w + m.Friction*dt*dp + float64(m.ConstantPressure)*dt
+	tau := m.Viscous*dt*mu*w + m.Friction*dt*dp + float64(m.ConstantPressure)*dt + float64(m.ConstantTorque)
 	if m.Hydrodynamic > 0 {
 		if !(rho > 0) || !finite(rho) {
 			return Losses{}, fmt.Errorf("%w: hydrodynamic torque needs a positive density", ErrInvalid)
@@ -128,17 +140,35 @@ func (m *Wilson) losses(x, dmax, w, dp, mu, rho, beta, d53 float64) (Losses, err
 	return Losses{Leakage: units.VolumeFlow(leak), Torque: units.Torque(tau)}, nil
 }
 
-// WilsonPerRev converts coefficients quoted for the same formulas written
-// with the displacement per revolution, D_rev = 2π·D, into the per-radian
-// coefficients this package uses: Cs, Cv, Cf and p_c are multiplied by 2π,
-// Ch by (2π)^(5/3); the dead-volume ratio and the setting shares do not
-// change.
+// WilsonPerRev converts coefficients quoted for the per-revolution form of
+// the model into the per-radian coefficients of Wilson. The form assumed,
+// with V = 2π·D the displacement per revolution and ω in rad/s:
+//
+//	Q_s = Cs'·V_q·|Δp|/μ          → Cs = 2π·Cs'
+//	T_v = Cv'·V_t·μ·|ω|           → Cv = 2π·Cv'
+//	T_h = Ch'·ρ·ω²·V_t^(5/3)      → Ch = (2π)^(5/3)·Ch'
+//	T_f = Cf·(V_t·|Δp|/2π)        friction as a fraction of the ideal torque: Cf unchanged
+//	T_c = p_c·V_t/2π + T_0        constant torque as a pressure, or a torque: unchanged
+//
+// Only the coefficients that multiply a displacement written per
+// revolution change: a friction quoted as a fraction of the ideal torque
+// (2 % is 2 % however the displacement is written) and a pressure are the
+// same in both forms, and so are the dead-volume ratio and the setting
+// shares. Check the source's own equations before converting:
+//
+//   - a source that writes the friction (or the constant torque) on the
+//     per-revolution displacement without the 2π, T_f = Cf'·V·|Δp|, has
+//     Cf = 2π·Cf' (p_c = 2π·p_c'): convert those two by hand;
+//   - a source that writes the speed in revolutions per second where it
+//     multiplies V, T_v = Cv'·V·μ·n, has V·n = D·ω and so Cv = Cv' (not this
+//     function);
+//   - a source that quotes efficiencies, η_v = 1 − Cs·|Δp|/(μ·ω) with ω in
+//     rad/s, has per-radian coefficients whatever unit it gives the
+//     displacement in (not this function).
 func WilsonPerRev(m Wilson) Wilson {
 	const k = 2 * math.Pi
 	m.Slip *= k
 	m.Viscous *= k
-	m.Friction *= k
-	m.ConstantPressure *= k
 	m.Hydrodynamic *= math.Pow(k, 5.0/3)
 	return m
 }

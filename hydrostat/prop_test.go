@@ -21,6 +21,7 @@ func wilsonGen() *rapid.Generator[Wilson] {
 			DeadVolume:       rapid.Float64Range(0, 1).Draw(t, "Cr"),
 			LeakageSetting:   rapid.Float64Range(0, 1).Draw(t, "sq"),
 			TorqueSetting:    rapid.Float64Range(0, 1).Draw(t, "st"),
+			ConstantTorque:   units.Torque(rapid.Float64Range(0, 10).Draw(t, "T0")),
 		}
 	})
 }

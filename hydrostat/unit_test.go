@@ -200,10 +200,89 @@ func TestWilsonPublishedEquation(t *testing.T) {
 			}
 		})
 	}
-	// Hand calculation: a per-revolution coefficient set converts by 2π.
-	m := WilsonPerRev(Wilson{Slip: 1, Viscous: 1, Friction: 1, Hydrodynamic: 1, ConstantPressure: 1})
-	if !testutil.Close(m.Slip, 2*math.Pi, 1e-15, 0) || !testutil.Close(m.Hydrodynamic, math.Pow(2*math.Pi, 5.0/3), 1e-15, 0) {
-		t.Errorf("WilsonPerRev = %+v", m)
+}
+
+// TestWilsonPerRev checks the conversion against per-revolution forms
+// written out independently here from their sources.
+func TestWilsonPerRev(t *testing.T) {
+	t.Parallel()
+	oil, temp := VG46, units.Celsius(50)
+	mu := float64(oil.DynamicViscosity(temp))
+	w, dp := units.RPM(1800), units.Bar(200)
+
+	// Source: the McCandlish & Dorey (1984) losses as written per
+	// revolution in the open-source Modelica hydraulics library
+	// OpenHydraulics (Components/MotorsPumps/ConstantDisplacementPump.mo,
+	// BaseClasses/MechanicalPumpLosses.mo, Basic/BaseClasses/
+	// PartialPumpMotor.mo): displacement V per revolution, ideal torque
+	// V·Δp/2π, leakage Cs'·Δp·V/μ, viscous torque Cv'·V·μ·ω (ω in rad/s)
+	// and friction Cf'·Δp·V, with its default coefficients Cs' = 1.8e-9,
+	// Cv' = 6e4, Cf' = 0.007. Its friction is written on V without the
+	// 2π, so (as WilsonPerRev's doc says) Cf = 2π·Cf' by hand.
+	const csR, cvR, cfR = 1.8e-9, 6e4, 0.007
+	v := 1e-3 // m³/rev
+	leakRev := csR * float64(dp) * v / mu
+	tauRev := cvR*v*mu*float64(w) + cfR*float64(dp)*v
+	m := WilsonPerRev(Wilson{Slip: csR, Viscous: cvR})
+	m.Friction = 2 * math.Pi * cfR
+	u := mustUnit(t, UnitSpec{MaxDisplacement: units.CCPerRev(v * 1e6), Loss: m})
+	p, err := u.At(1, w, dp, oil, temp)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !testutil.Close(float64(p.Leakage), leakRev, 1e-12, 0) || !testutil.Close(float64(p.LossTorque), tauRev, 1e-12, 0) {
+		t.Errorf("per-revolution form: leakage %g, loss torque %g; want %g, %g", float64(p.Leakage), float64(p.LossTorque), leakRev, tauRev)
+	}
+	if got, want := float64(p.IdealTorque), v*float64(dp)/(2*math.Pi); !testutil.Close(got, want, 1e-12, 0) {
+		t.Errorf("ideal torque %g, want V·Δp/2π = %g", got, want)
+	}
+
+	// Source: D. A. Gutz, POS_PUMP positive-displacement pump model
+	// (1992), public Scilab translation lti_pos_pump.sci: displacement in
+	// in³/rev, flow = η_v·disp·rpm/60 with η_v = 1 − cs/(μ·ω/Δp), ω in
+	// rad/s. The coefficient divides the efficiency, not a displacement
+	// per revolution, so it is the per-radian Cs unchanged.
+	const cs = 5e-9
+	u = mustUnit(t, UnitSpec{MaxDisplacement: units.CCPerRev(45), Loss: Wilson{Slip: cs}})
+	if p, err = u.At(1, w, dp, oil, temp); err != nil {
+		t.Fatal(err)
+	}
+	if want := 1 - cs*float64(dp)/(mu*float64(w)); !testutil.Close(p.Volumetric, want, 1e-12, 0) {
+		t.Errorf("η_v = %v, want the ratio form's %v", p.Volumetric, want)
+	}
+
+	// A friction quoted as 2 % of the ideal torque stays 2 %, and the
+	// constant terms are unchanged.
+	m = WilsonPerRev(Wilson{Friction: 0.02, ConstantPressure: units.Bar(1), ConstantTorque: 3, DeadVolume: 0.4, TorqueSetting: 0.5})
+	if m.Friction != 0.02 || m.ConstantPressure != units.Bar(1) || m.ConstantTorque != 3 || m.DeadVolume != 0.4 || m.TorqueSetting != 0.5 {
+		t.Errorf("WilsonPerRev changed a convention-free coefficient: %+v", m)
+	}
+	// Hand calculation: Ch multiplies V^(5/3).
+	if m := WilsonPerRev(Wilson{Hydrodynamic: 1}); !testutil.Close(m.Hydrodynamic, math.Pow(2*math.Pi, 5.0/3), 1e-15, 0) {
+		t.Errorf("WilsonPerRev Ch = %v", m.Hydrodynamic)
+	}
+}
+
+// TestConstantTorque: p_c·D_t falls with the setting when s_t > 0; T_0
+// does not.
+func TestConstantTorque(t *testing.T) {
+	t.Parallel()
+	d := units.CCPerRev(100)
+	for _, x := range []float64{1, 0.3, 0} {
+		c := Condition{Setting: x, MaxDisplacement: d, Speed: units.RPM(1500), Pressure: units.Bar(200),
+			Viscosity: 0.03, Density: 870, BulkModulus: 1.6e9}
+		l, err := Wilson{ConstantTorque: 5, TorqueSetting: 1}.Losses(c)
+		if err != nil || l.Torque != 5 {
+			t.Errorf("T_0 = 5 N·m at x = %v: %v, %v", x, l.Torque, err)
+		}
+		// Hand calculation: p_c·D_t with D_t = x·D_max.
+		l, err = Wilson{ConstantPressure: units.Bar(2), TorqueSetting: 1}.Losses(c)
+		if want := 2e5 * x * float64(d); err != nil || !testutil.Close(float64(l.Torque), want, 1e-12, 0) {
+			t.Errorf("p_c·D_t at x = %v: %v, want %v (%v)", x, l.Torque, want, err)
+		}
+	}
+	if err := (Wilson{ConstantTorque: -1}).Validate(); !errors.Is(err, ErrInvalid) {
+		t.Errorf("negative constant torque: %v", err)
 	}
 }
 
