@@ -128,6 +128,11 @@ type Audit struct {
 	// Work done on the implement (draft), the trailer's rolling loss, drag.
 	Drawbar, Trailer, Aero units.Energy
 	Potential, Kinetic     units.Energy
+	// MechanicalByElement is Mechanical computed independently: the sum
+	// over the steps of each element's loss from its own model (see
+	// Flows.MechanicalByElement). It is not part of Sinks: it checks the
+	// residual line Mechanical.
+	MechanicalByElement units.Energy
 }
 
 // Sinks returns the sum of every line the fuel energy goes to.
@@ -180,6 +185,7 @@ func (a *Audit) add(b Audit) {
 	a.Aero += b.Aero
 	a.Potential += b.Potential
 	a.Kinetic += b.Kinetic
+	a.MechanicalByElement += b.MechanicalByElement
 }
 
 // A SegmentResult is the outcome of one segment. Err is non-nil (a
@@ -430,6 +436,7 @@ func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock floa
 		a.EngineWork += e(f.Engine)
 		a.Hydrostatic += e(f.Hydrostatic)
 		a.Mechanical += e(f.Mechanical)
+		a.MechanicalByElement += e(f.MechanicalByElement)
 		a.PTOLoss += e(f.PTOLoss)
 		a.PTOWork += e(f.PTO)
 		a.Slip += e(f.Slip)

@@ -1,6 +1,7 @@
 package vehicle_test
 
 import (
+	"math"
 	"testing"
 
 	"github.com/powersplit-dev/powersplit/traction"
@@ -131,9 +132,28 @@ func TestDemoCycle(t *testing.T) {
 				if r := sg.Audit.RelativeResidual(); r > 1e-9 {
 					t.Errorf("map %v %T: segment %s residual %g", withMap, s, sg.Name, r)
 				}
+				checkMechanicalLine(t, sg.Name, sg.Audit)
 			}
+			checkMechanicalLine(t, "day", day.Audit)
 			t.Logf("map %v %T: fuel %.3f kg, %+v", withMap, s, day.Audit.Fuel.Kilograms(), day.Audit)
 		}
+	}
+}
+
+// checkMechanicalLine compares the audit's residual mechanical line with the
+// same loss summed element by element from each element's own model (the
+// transmission's mechanical losses and the final drive's efficiency). The
+// residual line also absorbs the transmission's closure rounding, so the two
+// agree to the solvers' balance tolerance, not exactly: 1e-6 of the engine's
+// work, the tolerance vehicle.At accepts for a transmission's balance.
+func checkMechanicalLine(t *testing.T, name string, a vehicle.Audit) {
+	t.Helper()
+	gap := math.Abs(float64(a.Mechanical - a.MechanicalByElement))
+	if gap > 1e-6*math.Abs(float64(a.EngineWork)) {
+		t.Errorf("%s: mechanical loss %v by closure, %v by element (gap %.3g J)", name, a.Mechanical, a.MechanicalByElement, gap)
+	}
+	if a.Distance > 0 && !(a.MechanicalByElement > 0) {
+		t.Errorf("%s: moved %v with mechanical loss %v by element", name, a.Distance, a.MechanicalByElement)
 	}
 }
 

@@ -114,6 +114,7 @@ func TestLayoutVehicleCycle(t *testing.T) {
 		if s.Audit.Hydrostatic <= 0 {
 			t.Errorf("segment %s: hydrostatic loss %v, want > 0", s.Name, s.Audit.Hydrostatic)
 		}
+		checkMechanicalLine(t, s.Name, s.Audit)
 	}
 	t.Logf("%+v", day.Audit)
 }

@@ -157,11 +157,18 @@ func (d Demand) Validate() error {
 // vehicle (downhill, slowing), Drawbar the implement's draft times speed,
 // Trailer the trailer's rolling loss, Grade and Inertia the rate of change
 // of potential and kinetic energy of tractor and trailer.
+//
+// Mechanical is a residual (it closes the chain). MechanicalByElement is the
+// same loss computed independently, element by element from each one's own
+// model: the transmission's mechanical losses as it reports them plus the
+// final drive's loss from its efficiency. The two agree to rounding when
+// every loss is accounted for; the audit carries both.
 type Flows struct {
 	Fuel, EngineLoss, Engine               units.Power
 	Hydrostatic, Mechanical, PTOLoss, PTO  units.Power
 	Slip, Rolling, Brake                   units.Power
 	Drawbar, Trailer, Aero, Grade, Inertia units.Power
+	MechanicalByElement                    units.Power
 }
 
 // A Point is a solved operating point.
@@ -308,6 +315,7 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		// The mechanical line takes the final drive and the transmission's
 		// own closure rounding, so the chain closes exactly.
 		f.Mechanical = units.Power(pin - float64(dp.HydrostaticLoss) - wheelPower)
+		f.MechanicalByElement = dp.MechanicalLoss + units.Power(wheelPower*(1/s.FinalDriveEfficiency-1))
 	}
 	// Standing still, the brakes hold any net pull and no work is done.
 
