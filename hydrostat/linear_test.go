@@ -7,6 +7,7 @@ import (
 
 	"pgregory.net/rapid"
 
+	"github.com/powersplit-dev/powersplit/internal/testutil"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -20,9 +21,18 @@ func (o opaque) Losses(c Condition) (Losses, error) { return o.w.Losses(c) }
 // setting, the schedules place the settings in closed form; the result is
 // the same, to rounding, as Brent's method on the flow balance, and so is
 // the outcome (error or not, and which error).
+//
+// Draws: one in ten has the pump stopped and one in four random motor speeds
+// (mostly outside the loop's range: they test that both ways fail alike);
+// the rest put the motors at speeds the loop reaches with some setting.
+// At least 70 % of all draws must reach the settings comparison (about 97 %
+// do).
 func TestPropertyClosedFormSettings(t *testing.T) {
 	t.Parallel()
+	var reach testutil.Reach
+	defer reach.Check(t, 0.7)
 	rapid.Check(t, func(t *rapid.T) {
+		reach.Drew()
 		w := Wilson{
 			Slip:            rapid.Float64Range(0, 5e-9).Draw(t, "slip"),
 			Viscous:         rapid.Float64Range(0, 4e5).Draw(t, "viscous"),
@@ -65,12 +75,23 @@ func TestPropertyClosedFormSettings(t *testing.T) {
 			search = build(opaque{Wilson{}})
 		}
 		wp := units.RPM(rapid.Float64Range(-2500, 2500).Draw(t, "pump rpm"))
-		if rapid.Bool().Draw(t, "pump stopped") {
+		if rapid.IntRange(0, 9).Draw(t, "pump stopped (0)") == 0 {
 			wp = 0
 		}
 		wm := make([]units.AngularVelocity, motors)
-		for i := range wm {
-			wm[i] = units.RPM(rapid.Float64Range(-4000, 4000).Draw(t, "motor rpm"))
+		if rapid.IntRange(0, 3).Draw(t, "random motor speeds (0)") == 0 {
+			for i := range wm {
+				wm[i] = units.RPM(rapid.Float64Range(-4000, 4000).Draw(t, "motor rpm"))
+			}
+		} else {
+			// Lossless, the pump at setting xp and the motors at xm pass the
+			// same flow: Σ wm·xm·Dm = wp·xp·Dp, shared equally. Settings well
+			// inside their ranges leave room for the leakage.
+			xp := rapid.Float64Range(0.2, 0.8).Draw(t, "pump setting")
+			xm := rapid.Float64Range(0.7, 0.95).Draw(t, "motor setting")
+			for i := range wm {
+				wm[i] = units.AngularVelocity(float64(wp) * xp * pcc / (xm * mcc * float64(motors)))
+			}
 		}
 		dp := units.Bar(rapid.Float64Range(-450, 450).Draw(t, "Δp bar"))
 		xa, xb := make([]float64, motors+1), make([]float64, motors+1)
@@ -109,6 +130,7 @@ func TestPropertyClosedFormSettings(t *testing.T) {
 			}
 			return
 		}
+		reach.Reached()
 		tol := 1e-9
 		if _, ok := sched.(MinLoss); ok {
 			tol = 1e-6 // the minimum-loss setting is itself found to 1e-9 by a search

@@ -5,6 +5,8 @@ package testutil
 import (
 	"math"
 	"reflect"
+	"sync/atomic"
+	"testing"
 
 	"github.com/google/go-cmp/cmp"
 )
@@ -47,4 +49,38 @@ func Close(got, want, fraction, margin float64) bool {
 // failure messages.
 func RelErr(got, want float64) float64 {
 	return math.Abs(got-want) / math.Max(math.Abs(want), 1e-300)
+}
+
+// Reach counts the draws of a property test and how many of them reach the
+// property's main assertion, so a test can state, and check, the share of
+// draws that test something (a property that skips or returns early on
+// most draws passes without testing much). Safe for concurrent use.
+type Reach struct {
+	drawn, reached atomic.Int64
+}
+
+// Drew counts one draw.
+func (r *Reach) Drew() { r.drawn.Add(1) }
+
+// Reached counts one draw that reached the main assertion.
+func (r *Reach) Reached() { r.reached.Add(1) }
+
+// Share returns the share of draws that reached the main assertion (0 with
+// no draws) and the number of draws.
+func (r *Reach) Share() (share float64, draws int64) {
+	n := r.drawn.Load()
+	if n == 0 {
+		return 0, 0
+	}
+	return float64(r.reached.Load()) / float64(n), n
+}
+
+// Check reports an error on tb when fewer than min of the draws reached the
+// main assertion (or when nothing was drawn).
+func (r *Reach) Check(tb testing.TB, min float64) {
+	tb.Helper()
+	s, n := r.Share()
+	if n == 0 || s < min {
+		tb.Errorf("%d of %d draws reached the assertion (%.0f %%), want at least %.0f %%", r.reached.Load(), n, 100*s, 100*min)
+	}
 }

@@ -62,3 +62,36 @@ func TestClose(t *testing.T) {
 		t.Errorf("RelErr(1.1, 1) = %g, want 0.1", r)
 	}
 }
+
+func TestReach(t *testing.T) {
+	t.Parallel()
+	var r testutil.Reach
+	if s, n := r.Share(); s != 0 || n != 0 {
+		t.Errorf("empty Share() = %v, %v", s, n)
+	}
+	for i := 0; i < 4; i++ {
+		r.Drew()
+		if i%2 == 0 {
+			r.Reached()
+		}
+	}
+	if s, n := r.Share(); s != 0.5 || n != 4 {
+		t.Errorf("Share() = %v, %v, want 0.5, 4", s, n)
+	}
+	var low, ok, empty recorder
+	r.Check(&low, 0.6)
+	r.Check(&ok, 0.5)
+	(&testutil.Reach{}).Check(&empty, 0)
+	if !low.failed || ok.failed || !empty.failed {
+		t.Errorf("Check: 0.5 against 0.6 failed=%v, against 0.5 failed=%v, no draws failed=%v", low.failed, ok.failed, empty.failed)
+	}
+}
+
+// recorder is a testing.TB that records a failure instead of failing.
+type recorder struct {
+	testing.TB
+	failed bool
+}
+
+func (r *recorder) Helper()               {}
+func (r *recorder) Errorf(string, ...any) { r.failed = true }
