@@ -5,6 +5,7 @@ import (
 	"math"
 	"testing"
 
+	"github.com/powersplit-dev/powersplit/internal/testutil"
 	"github.com/powersplit-dev/powersplit/traction"
 	"github.com/powersplit-dev/powersplit/units"
 	"pgregory.net/rapid"
@@ -144,10 +145,15 @@ func genVehicle(equal bool) *rapid.Generator[traction.Vehicle] {
 }
 
 // TestPropAxlePowerBalance: the vehicle's wheel input power equals drawbar
-// power plus slip and rolling losses, at any lead.
+// power plus slip and rolling losses, at any lead. Draws whose pull the soil
+// cannot give (ErrPull, ErrUnstable, ErrLoad) are skipped; at least 50 % of
+// the draws must reach the balance (about 75 % do).
 func TestPropAxlePowerBalance(t *testing.T) {
 	t.Parallel()
+	var reach testutil.Reach
+	defer reach.Check(t, 0.5)
 	rapid.Check(t, func(t *rapid.T) {
+		reach.Drew()
 		v := genVehicle(false).Draw(t, "vehicle")
 		soil := traction.Surface{ConeIndex: units.Kilopascals(rapid.Float64Range(500, 2500).Draw(t, "cone index kPa"))}
 		w := float64(v.Weight())
@@ -163,6 +169,7 @@ func TestPropAxlePowerBalance(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
+		reach.Reached()
 		sum := float64(d.DrawbarPower + d.SlipLoss + d.RollingLoss)
 		scale := math.Abs(float64(d.DrawbarPower)) + math.Abs(float64(d.SlipLoss)) + math.Abs(float64(d.RollingLoss))
 		if math.Abs(float64(d.InputPower)-sum) > 1e-9*scale {
@@ -177,10 +184,13 @@ func TestPropAxlePowerBalance(t *testing.T) {
 }
 
 // TestPropZeroLeadNoCirculation: equal tyres geared with zero lead never
-// circulate power.
+// circulate power. Skips and share as in TestPropAxlePowerBalance.
 func TestPropZeroLeadNoCirculation(t *testing.T) {
 	t.Parallel()
+	var reach testutil.Reach
+	defer reach.Check(t, 0.5)
 	rapid.Check(t, func(t *rapid.T) {
+		reach.Drew()
 		v := genVehicle(true).Draw(t, "vehicle")
 		soil := traction.Surface{ConeIndex: units.Kilopascals(rapid.Float64Range(500, 2500).Draw(t, "cone index kPa"))}
 		op := traction.Operation{
@@ -194,6 +204,7 @@ func TestPropZeroLeadNoCirculation(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
+		reach.Reached()
 		if d.CirculatingPower != 0 {
 			t.Fatalf("circulating power %v with zero lead (slips %g, %g)", d.CirculatingPower, d.Front.Wheel.Slip, d.Rear.Wheel.Slip)
 		}
@@ -228,10 +239,14 @@ func TestPropSlipForPullInverts(t *testing.T) {
 }
 
 // TestPropTurnPowerBalance: in a turn, geared or with own motors, the wheel
-// input power equals pull × speed plus the slip and rolling losses.
+// input power equals pull × speed plus the slip and rolling losses. Skips and
+// share as in TestPropAxlePowerBalance (about 85 % reach the balance).
 func TestPropTurnPowerBalance(t *testing.T) {
 	t.Parallel()
+	var reach testutil.Reach
+	defer reach.Check(t, 0.5)
 	rapid.Check(t, func(t *rapid.T) {
+		reach.Drew()
 		v := genVehicle(false).Draw(t, "vehicle")
 		v.Front.Track = units.Metres(rapid.Float64Range(1.2, 2.2).Draw(t, "front track m"))
 		v.Rear.Track = units.Metres(rapid.Float64Range(1.2, 2.2).Draw(t, "rear track m"))
@@ -255,6 +270,7 @@ func TestPropTurnPowerBalance(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
+		reach.Reached()
 		pv := float64(op.Pull) * float64(op.Speed)
 		sum := pv + float64(d.SlipLoss+d.RollingLoss)
 		scale := pv + math.Abs(float64(d.SlipLoss)) + math.Abs(float64(d.RollingLoss))
