@@ -82,9 +82,9 @@ func summaryDiff(a, b *State, tol float64) string {
 			cmpf("motor torque", float64(la.Motors[k].Torque), float64(lb.Motors[k].Torque), tscale)
 		}
 	}
-	cmpf("binding value", a.Binding.Value, b.Binding.Value, a.Binding.Limit)
+	cmpf("binding value", a.Binding.Value.SI, b.Binding.Value.SI, a.Binding.Limit.SI)
 	if d == "" && (a.Binding.Quantity != b.Binding.Quantity || a.Binding.Element != b.Binding.Element) &&
-		math.Abs(a.Binding.Left()/a.Binding.Limit-b.Binding.Left()/b.Binding.Limit) > 1e-9 {
+		math.Abs(a.Binding.Left().SI/a.Binding.Limit.SI-b.Binding.Left().SI/b.Binding.Limit.SI) > 1e-9 {
 		d = fmt.Sprintf("binding %s %s, want %s %s", a.Binding.Element, a.Binding.Quantity, b.Binding.Element, b.Binding.Quantity)
 	}
 	if d == "" && len(a.Flags) != len(b.Flags) {
@@ -149,16 +149,16 @@ func TestBindingMargin(t *testing.T) {
 		}
 		best := math.Inf(1)
 		for _, m := range st.Margins {
-			if r := m.Left() / m.Limit; r < best && !isRated(m) {
+			if r := m.Left().SI / m.Limit.SI; r < best && !isRated(m) {
 				best = r
 			}
 		}
-		if got := st.Binding.Left() / st.Binding.Limit; got != best {
+		if got := st.Binding.Left().SI / st.Binding.Limit.SI; got != best {
 			t.Errorf("%v: binding %+v (room %g), want room %g", units.AngularVelocity(p.Outputs[0].Speed).RPM(), st.Binding, got, best)
 		}
 	}
 }
 
 func isRated(m Margin) bool {
-	return len(m.Quantity) > 14 && m.Quantity[len(m.Quantity)-14:] == "rated pressure"
+	return m.Bound == boundRated || m.Unchecked
 }

@@ -140,21 +140,21 @@ func checkSecond(c *specCheck, sm *SecondMotor) int {
 	c.ratio("Second.Ratio", sm.Ratio, false)
 	c.eff("Second.Efficiency", sm.Efficiency)
 	if c.err == nil && (!(sm.DeclutchAbove > 0) || math.IsInf(float64(sm.DeclutchAbove), 0)) {
-		c.err = &InputError{Field: "Second.DeclutchAbove", Value: float64(sm.DeclutchAbove), Reason: "must be positive and finite"}
+		c.err = &InputError{Field: "Second.DeclutchAbove", Value: units.Of(sm.DeclutchAbove), Reason: "must be positive and finite"}
 	}
 	lo, hi := sm.MinSetting, sm.MaxSetting
 	if lo == 0 && hi == 0 {
 		hi = 1
 	}
 	if c.err == nil && !(lo >= 0 && lo <= hi && hi <= 1) {
-		c.err = &InputError{Field: "Second.MinSetting", Value: lo, Reason: "need 0 <= MinSetting <= MaxSetting <= 1"}
+		c.err = &InputError{Field: "Second.MinSetting", Value: units.Plain(lo), Reason: "need 0 <= MinSetting <= MaxSetting <= 1"}
 	}
 	if c.err == nil {
 		c.err = sm.Setting.Validate()
 	}
 	for i, x := range sm.Setting.Settings {
 		if c.err == nil && (x < lo || x > hi) {
-			c.err = &InputError{Field: fmt.Sprintf("Second.Setting.Settings[%d]", i), Value: x, Reason: "outside [MinSetting, MaxSetting]"}
+			c.err = &InputError{Field: fmt.Sprintf("Second.Setting.Settings[%d]", i), Value: units.Plain(x), Reason: "outside [MinSetting, MaxSetting]"}
 		}
 	}
 	return 2
@@ -221,19 +221,19 @@ func (c *specCheck) ratio(field string, v float64, zeroOK bool) {
 		return
 	}
 	if math.IsNaN(v) || math.IsInf(v, 0) || (!zeroOK && v == 0) {
-		c.err = &InputError{Field: field, Value: v, Reason: "ratio must be finite and non-zero"}
+		c.err = &InputError{Field: field, Value: units.Plain(v), Reason: "ratio must be finite and non-zero"}
 	}
 }
 
 func (c *specCheck) eff(field string, v float64) {
 	if c.err == nil && (math.IsNaN(v) || v < 0 || v > 1) {
-		c.err = &InputError{Field: field, Value: v, Reason: "efficiency outside (0, 1] (0 means default)"}
+		c.err = &InputError{Field: field, Value: units.Plain(v), Reason: "efficiency outside (0, 1] (0 means default)"}
 	}
 }
 
 func (c *specCheck) loop(l hydrostat.Loop, motors int) {
 	if c.err == nil && len(l.Spec().Motors) != motors {
-		c.err = &InputError{Field: "Loop motors", Value: float64(len(l.Spec().Motors)),
+		c.err = &InputError{Field: "Loop motors", Value: units.Plain(float64(len(l.Spec().Motors))),
 			Reason: fmt.Sprintf("this builder needs a loop with %d motor(s)", motors)}
 	}
 }
@@ -318,11 +318,12 @@ func addPTOs(b *Builder, c *specCheck, engine Shaft, ptos []PTOSpec, eta float64
 // addRanges adds one range gear and clutch per range from shaft from to
 // shaft out; more, if not nil, adds to each range (and may add ranges).
 func addRanges(b *Builder, c *specCheck, from, alt Shaft, reverseAlt bool, out Shaft, ranges []RangeGear, eta float64, more func(name string, engaged []string)) {
+	seen := make(map[string]bool, len(ranges))
 	for i, rg := range ranges {
 		src := from
 		if rg.FromVariator {
 			if alt < 0 && c.err == nil {
-				c.err = &InputError{Field: fmt.Sprintf("Ranges[%d].FromVariator", i), Value: 1, Reason: "this builder has no variator member"}
+				c.err = &InputError{Field: fmt.Sprintf("Ranges[%d].FromVariator", i), Value: units.Plain(1), Reason: "this builder has no variator member"}
 			}
 			src = alt
 		}
@@ -332,6 +333,10 @@ func addRanges(b *Builder, c *specCheck, from, alt Shaft, reverseAlt bool, out S
 		if name == "" {
 			name = fmt.Sprintf("range %d", i+1)
 		}
+		if seen[name] && c.err == nil {
+			c.err = &LayoutError{Element: name, Reason: fmt.Sprintf("duplicate range name (Ranges[%d])", i), Err: ErrLayout}
+		}
+		seen[name] = true
 		if src < 0 {
 			continue
 		}

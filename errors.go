@@ -96,20 +96,26 @@ func (e *KinematicsError) Error() string {
 func (e *KinematicsError) Unwrap() error { return ErrKinematics }
 
 // LimitError reports a limit crossed at an operating point: the quantity,
-// its value and the limit, in the SI unit named by Unit.
+// its value and the limit, as typed measures that print in the trade's
+// units (bar, rpm, a plain number for a setting).
 type LimitError struct {
-	Element  string  // element (or range) where the limit was crossed
-	Quantity string  // "pressure", "pump speed", "setting", "output speed", ...
-	Value    float64 // always finite: a setting no schedule could find carries the last setting tried (see Quantity)
-	Limit    float64
-	Unit     string // unit of Value and Limit: "Pa", "rad/s" (this package), "bar", "rpm" (from hydrostat), "" (setting)
-	Err      error  // ErrInfeasible or ErrUnreachable
-	Cause    error  // the error from the hydrostat package, if any
+	Element  string        // element (or range) where the limit was crossed
+	Quantity string        // "high-line pressure", "pump speed", "motor setting", "output speed", ...
+	Value    units.Measure // always finite: a setting no schedule could find carries the last setting tried (see Quantity)
+	Bound    string        // what the limit is: "relief setting", "maximum speed", "full displacement", ...; "" reads "limit"
+	Limit    units.Measure
+	Err      error // ErrInfeasible or ErrUnreachable
+	Cause    error // the error from the hydrostat package, if any
 }
 
-// Error returns "<sentinel>: <element>: <quantity> <value> beyond limit
-// <limit>", and " (<cause>)" with a cause. It appends into one buffer:
-// maps format the reason of every infeasible cell.
+// Error returns "<sentinel>: <element>: <quantity> <value> above <bound>
+// <limit>" ("below" when the value lies under the limit), for example
+// "powersplit: operating point infeasible: hydrostat: high-line pressure
+// 2560 bar above relief setting 450 bar". The cause's numbers are the
+// error's own, so its text is not repeated; an error with no quantity
+// (a loop that failed for another reason) gives the cause's text instead.
+// It appends into one buffer: maps format the reason of every infeasible
+// cell.
 func (e *LimitError) Error() string {
 	b := make([]byte, 0, 160)
 	if e.Err != nil {
@@ -117,37 +123,38 @@ func (e *LimitError) Error() string {
 	} else {
 		b = append(b, "<nil>"...)
 	}
-	b = append(b, ": "...)
-	b = append(b, e.Element...)
-	b = append(b, ": "...)
-	b = append(b, e.Quantity...)
-	b = append(b, ' ')
-	b = appendNum(b, e.Value, e.Unit)
-	b = append(b, " beyond limit "...)
-	b = appendNum(b, e.Limit, e.Unit)
-	if e.Cause != nil {
-		b = append(b, " ("...)
-		b = append(b, e.Cause.Error()...)
-		b = append(b, ')')
+	if e.Element != "" {
+		b = append(b, ": "...)
+		b = append(b, e.Element...)
 	}
-	return string(b)
+	b = append(b, ": "...)
+	if e.Quantity == "" {
+		if e.Cause != nil {
+			b = append(b, e.Cause.Error()...)
+		} else {
+			b = append(b, "limit crossed"...)
+		}
+		return string(b)
+	}
+	return string(appendLimit(b, e.Quantity, e.Value, e.Bound, e.Limit))
 }
 
-// appendNum appends v and its unit. Values are stored in SI; the text shows
-// pressures in bar and speeds in rpm, the units engineers read them in.
-func appendNum(b []byte, v float64, unit string) []byte {
-	switch unit {
-	case "Pa":
-		v, unit = units.Pressure(v).Bar(), "bar"
-	case "rad/s":
-		v, unit = units.AngularVelocity(v).RPM(), "rpm"
+// appendLimit appends "<quantity> <value> above|below <bound> <limit>".
+func appendLimit(b []byte, quantity string, v units.Measure, bound string, limit units.Measure) []byte {
+	b = append(b, quantity...)
+	b = append(b, ' ')
+	b = v.Append(b)
+	if v.SI < limit.SI {
+		b = append(b, " below "...)
+	} else {
+		b = append(b, " above "...)
 	}
-	b = strconv.AppendFloat(b, v, 'g', 6, 64)
-	if unit != "" {
-		b = append(b, ' ')
-		b = append(b, unit...)
+	if bound == "" {
+		bound = "limit"
 	}
-	return b
+	b = append(b, bound...)
+	b = append(b, ' ')
+	return limit.Append(b)
 }
 
 // Unwrap returns the sentinel (ErrInfeasible, and ErrUnreachable when the
@@ -193,18 +200,25 @@ func (e *ConvergenceError) Unwrap() []error {
 	return []error{ErrNoConvergence}
 }
 
-// InputError reports an invalid value in an operating point or a spec.
+// InputError reports an invalid value in an operating point or a spec: the
+// field, its value in the user's units and what a valid value is.
 type InputError struct {
 	Field  string
-	Value  float64
+	Value  units.Measure
 	Reason string
 }
 
 func (e *InputError) Error() string {
-	return fmt.Sprintf("%v: %s = %s: %s", ErrInput, e.Field, strconv.FormatFloat(e.Value, 'g', 6, 64), e.Reason)
+	b := make([]byte, 0, 96)
+	b = append(b, ErrInput.Error()...)
+	b = append(b, ": "...)
+	b = append(b, e.Field...)
+	b = append(b, " = "...)
+	b = e.Value.Append(b)
+	b = append(b, ": "...)
+	b = append(b, e.Reason...)
+	return string(b)
 }
 
 // Unwrap returns ErrInput.
 func (e *InputError) Unwrap() error { return ErrInput }
-
-func fmtNum(v float64, unit string) string { return string(appendNum(nil, v, unit)) }

@@ -56,7 +56,7 @@ type element struct {
 	// the solver's hot path copies nothing
 	lspec  hydrostat.LoopSpec
 	uspec  []hydrostat.UnitSpec
-	unames [][3]string // "<unit> rated pressure", "<unit> speed", "<unit> setting"
+	unames [][3]string // "<unit> pressure", "<unit> speed", "<unit> setting"
 }
 
 // rangeDef is one named range: which clutches and brakes are engaged.
@@ -326,11 +326,11 @@ func (b *Builder) Build() (Layout, error) {
 			l.loops = append(l.loops, i)
 			e.lspec = e.loop.Spec()
 			e.uspec = append(e.uspec, e.lspec.Pump.Spec())
-			e.unames = append(e.unames, [3]string{"pump rated pressure", "pump speed", "pump setting"})
+			e.unames = append(e.unames, [3]string{"pump pressure", "pump speed", "pump setting"})
 			for k, m := range e.lspec.Motors {
 				e.uspec = append(e.uspec, m.Spec())
 				n := "motor " + strconv.Itoa(k+1)
-				e.unames = append(e.unames, [3]string{n + " rated pressure", n + " speed", n + " setting"})
+				e.unames = append(e.unames, [3]string{n + " pressure", n + " speed", n + " setting"})
 			}
 		case GearKind:
 			e.index = len(l.gears)
@@ -573,8 +573,14 @@ func (l Layout) Ranges() int {
 	return len(l.l.ranges)
 }
 
-// RangeName returns the name of range i.
-func (l Layout) RangeName(i int) string { return l.l.ranges[i].name }
+// RangeName returns the name of range i, or "" when there is no range i
+// (an index out of range, or the zero Layout).
+func (l Layout) RangeName(i int) string {
+	if l.l == nil || i < 0 || i >= len(l.l.ranges) {
+		return ""
+	}
+	return l.l.ranges[i].name
+}
 
 // RangeIndex returns the index of the range named name, or -1.
 func (l Layout) RangeIndex(name string) int {

@@ -100,7 +100,7 @@ func (s *Solver) Interval(p Point) ([]SpeedInterval, error) {
 		V = math.Min(V, r.maxOut)
 	}
 	if V == 0 || math.IsInf(V, 0) {
-		return nil, &LimitError{Element: r.name, Quantity: "output speed", Err: ErrUnreachable}
+		return nil, &LimitError{Element: r.name, Err: ErrUnreachable, Cause: errNoSpeed}
 	}
 	const n = 200
 	at := func(i int) float64 { return -V + 2*V*float64(i)/n }
@@ -135,7 +135,7 @@ func (s *Solver) Interval(p Point) ([]SpeedInterval, error) {
 		}
 	}
 	if len(out) == 0 {
-		return nil, &LimitError{Element: r.name, Quantity: "output speed", Err: ErrUnreachable}
+		return nil, &LimitError{Element: r.name, Err: ErrUnreachable, Cause: errNoSpeed}
 	}
 	return out, nil
 }
@@ -364,3 +364,7 @@ func copyInto[T any](dst, src []T) []T {
 	copy(dst, src)
 	return dst
 }
+
+// errNoSpeed is the cause of an interval search that found no reachable
+// output speed.
+var errNoSpeed = errors.New("no output speed of the range is reachable at this input speed")

@@ -288,7 +288,7 @@ func TestLimitErrors(t *testing.T) {
 		quantity string
 	}{
 		// relief 500 bar: far too much torque at low speed
-		{"pressure", 100, 20000, ErrInfeasible, "relief pressure"},
+		{"pressure", 100, 20000, ErrInfeasible, "high-line pressure"},
 		// hand calculation: the motor turns at 5/0.8 = 6.25× the output, so
 		// 1200 rpm out needs it at 7500 rpm, above its 4500 rpm (the pump,
 		// at 0.5·(7000 − 12.5·1200) = −4000 rpm, is within its limit)

@@ -28,14 +28,14 @@ func (c SettingCurve) Empty() bool { return len(c.Speeds) == 0 }
 // ascending speeds >= 0 and settings in [0, 1].
 func (c SettingCurve) Validate() error {
 	if len(c.Speeds) != len(c.Settings) {
-		return &InputError{Field: "SettingCurve.Settings", Value: float64(len(c.Settings)), Reason: "one setting per speed needed"}
+		return &InputError{Field: "SettingCurve.Settings", Value: units.Plain(float64(len(c.Settings))), Reason: "one setting per speed needed"}
 	}
 	for i, w := range c.Speeds {
 		if bad(float64(w)) || w < 0 || (i > 0 && !(w > c.Speeds[i-1])) {
-			return &InputError{Field: fmt.Sprintf("SettingCurve.Speeds[%d]", i), Value: float64(w), Reason: "speeds must be finite, >= 0 and ascending"}
+			return &InputError{Field: fmt.Sprintf("SettingCurve.Speeds[%d]", i), Value: units.Of(w), Reason: "speeds must be finite, >= 0 and ascending"}
 		}
 		if x := c.Settings[i]; !(x >= 0 && x <= 1) {
-			return &InputError{Field: fmt.Sprintf("SettingCurve.Settings[%d]", i), Value: x, Reason: "setting magnitude outside [0, 1]"}
+			return &InputError{Field: fmt.Sprintf("SettingCurve.Settings[%d]", i), Value: units.Plain(x), Reason: "setting magnitude outside [0, 1]"}
 		}
 	}
 	return nil
@@ -272,13 +272,13 @@ func (s *Solver) checkSettings(p *Point) error {
 	l := s.l
 	for _, m := range p.Settings {
 		if m.Loop < 0 || m.Loop >= len(l.loops) {
-			return &InputError{Field: "Settings.Loop", Value: float64(m.Loop), Reason: "no such loop"}
+			return &InputError{Field: "Settings.Loop", Value: units.Plain(float64(m.Loop)), Reason: "no such loop"}
 		}
 		if m.Motor < 0 || m.Motor >= len(l.elems[l.loops[m.Loop]].shafts)-1 {
-			return &InputError{Field: "Settings.Motor", Value: float64(m.Motor), Reason: "no such motor in the loop"}
+			return &InputError{Field: "Settings.Motor", Value: units.Plain(float64(m.Motor)), Reason: "no such motor in the loop"}
 		}
 		if !(m.Setting >= -1 && m.Setting <= 1) {
-			return &InputError{Field: "Settings.Setting", Value: m.Setting, Reason: "outside [-1, 1]"}
+			return &InputError{Field: "Settings.Setting", Value: units.Plain(m.Setting), Reason: "outside [-1, 1]"}
 		}
 	}
 	return nil
@@ -310,7 +310,7 @@ func (s *Solver) SolveTotal(p Point, d TotalDemand, st *State) error {
 	}
 	l := s.l
 	if d.Weights != nil && len(d.Weights) != len(l.outputs) {
-		return &InputError{Field: "len(TotalDemand.Weights)", Value: float64(len(d.Weights)), Reason: "one weight per output, or nil"}
+		return &InputError{Field: "len(TotalDemand.Weights)", Value: units.Plain(float64(len(d.Weights))), Reason: "one weight per output, or nil"}
 	}
 	wt := func(i int) float64 {
 		if d.Weights == nil {
@@ -320,14 +320,14 @@ func (s *Solver) SolveTotal(p Point, d TotalDemand, st *State) error {
 	}
 	for i := range l.outputs {
 		if w := wt(i); bad(w) {
-			return &InputError{Field: "TotalDemand.Weights", Value: w, Reason: "not finite"}
+			return &InputError{Field: "TotalDemand.Weights", Value: units.Plain(w), Reason: "not finite"}
 		}
 	}
 	if bad(float64(d.Torque)) {
-		return &InputError{Field: "TotalDemand.Torque", Value: float64(d.Torque), Reason: "not finite"}
+		return &InputError{Field: "TotalDemand.Torque", Value: units.Of(d.Torque), Reason: "not finite"}
 	}
 	if wt(0) == 0 || l.elems[l.outputs[0]].kind != OutputKind {
-		return &InputError{Field: "TotalDemand", Value: wt(0), Reason: "the first output must have a given torque and a non-zero weight"}
+		return &InputError{Field: "TotalDemand", Value: units.Plain(wt(0)), Reason: "the first output must have a given torque and a non-zero weight"}
 	}
 	if len(s.outs) != len(p.Outputs) {
 		s.outs = make([]OutputDemand, len(p.Outputs))
@@ -414,14 +414,14 @@ func (s *Solver) BestSetting(p Point, q SettingSearch, st *State) (float64, unit
 		hi = 1
 	}
 	if !(lo >= -1 && hi <= 1 && lo <= hi) {
-		return 0, 0, &InputError{Field: "SettingSearch.Min/Max", Value: lo, Reason: "need -1 <= Min <= Max <= 1"}
+		return 0, 0, &InputError{Field: "SettingSearch.Min/Max", Value: units.Plain(lo), Reason: "need -1 <= Min <= Max <= 1"}
 	}
 	tol := q.Tolerance
 	if tol == 0 {
 		tol = 1e-4
 	}
 	if !(tol > 0) || bad(tol) {
-		return 0, 0, &InputError{Field: "SettingSearch.Tolerance", Value: tol, Reason: "must be positive and finite"}
+		return 0, 0, &InputError{Field: "SettingSearch.Tolerance", Value: units.Plain(tol), Reason: "must be positive and finite"}
 	}
 	buf := make([]MotorSetting, 0, len(p.Settings)+1)
 	for _, m := range p.Settings {
@@ -447,7 +447,7 @@ func (s *Solver) BestSetting(p Point, q SettingSearch, st *State) (float64, unit
 			e, err := q.Extra(st)
 			if err != nil || bad(float64(e)) {
 				if err == nil {
-					err = &InputError{Field: "SettingSearch.Extra", Value: finiteOr(float64(e), 0), Reason: "not finite"}
+					err = &InputError{Field: "SettingSearch.Extra", Value: units.Of(e), Reason: "not finite"}
 				}
 				return math.Inf(1), err
 			}

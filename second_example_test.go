@@ -46,8 +46,8 @@ func ExampleSecondMotor() {
 	fmt.Printf("settings: pump %.3f, motor %.3f, front motor %.3f\n", lr.Settings[0], lr.Settings[1], lr.Settings[2])
 	fmt.Printf("hydraulic share %.3f, efficiency %.3f\n", st.HydraulicShare, st.Efficiency)
 	for _, m := range st.Margins {
-		if m.Quantity == "output speed (range limit)" {
-			fmt.Printf("declutch margin %.0f rpm\n", units.AngularVelocity(m.Left()).RPM())
+		if m.Quantity == "output speed" && m.Element == "field" {
+			fmt.Printf("declutch margin %v\n", m.Left())
 		}
 	}
 	// Above the declutch speed only the single range drives.

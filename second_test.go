@@ -115,11 +115,11 @@ func TestDeclutch(t *testing.T) {
 	}
 	found := false
 	for _, m := range st.Margins {
-		if m.Quantity == "output speed (range limit)" {
+		if m.Quantity == "output speed" && m.Bound == boundRangeSpeed {
 			found = true
 			want := float64(units.RPM(600) - units.RPM(400))
-			if math.Abs(m.Left()-want) > 1e-9*want {
-				t.Errorf("declutch margin = %v rad/s, want %v", m.Left(), want)
+			if math.Abs(m.Left().SI-want) > 1e-9*want || m.Left().Kind != units.AngularVelocityKind {
+				t.Errorf("declutch margin = %v, want %v", m.Left(), units.AngularVelocity(want))
 			}
 		}
 	}

@@ -145,28 +145,28 @@ func bad(v float64) bool { return v-v != 0 }
 func (s *Solver) check(p *Point) error {
 	l := s.l
 	if p.Range < 0 || p.Range >= len(l.ranges) {
-		return &InputError{Field: "Range", Value: float64(p.Range), Reason: "no such range"}
+		return &InputError{Field: "Range", Value: units.Plain(float64(p.Range)), Reason: "no such range"}
 	}
 	if bad(float64(p.Input)) {
-		return &InputError{Field: "Input", Value: float64(p.Input), Reason: "not finite"}
+		return &InputError{Field: "Input", Value: units.Of(p.Input), Reason: "not finite"}
 	}
 	if len(p.Outputs) != len(l.outputs) {
-		return &InputError{Field: "len(Outputs)", Value: float64(len(p.Outputs)), Reason: "one demand per output needed"}
+		return &InputError{Field: "len(Outputs)", Value: units.Plain(float64(len(p.Outputs))), Reason: "one demand per output needed"}
 	}
 	for _, o := range p.Outputs {
 		if bad(float64(o.Speed)) {
-			return &InputError{Field: "Outputs.Speed", Value: float64(o.Speed), Reason: "not finite"}
+			return &InputError{Field: "Outputs.Speed", Value: units.Of(o.Speed), Reason: "not finite"}
 		}
 		if bad(float64(o.Torque)) {
-			return &InputError{Field: "Outputs.Torque", Value: float64(o.Torque), Reason: "not finite"}
+			return &InputError{Field: "Outputs.Torque", Value: units.Of(o.Torque), Reason: "not finite"}
 		}
 	}
 	if p.PTO != nil && len(p.PTO) != len(l.ptos) {
-		return &InputError{Field: "len(PTO)", Value: float64(len(p.PTO)), Reason: "one torque per PTO, or nil"}
+		return &InputError{Field: "len(PTO)", Value: units.Plain(float64(len(p.PTO))), Reason: "one torque per PTO, or nil"}
 	}
 	for _, t := range p.PTO {
 		if bad(float64(t)) {
-			return &InputError{Field: "PTO", Value: float64(t), Reason: "not finite"}
+			return &InputError{Field: "PTO", Value: units.Of(t), Reason: "not finite"}
 		}
 	}
 	return s.checkSettings(p)
@@ -220,8 +220,8 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 	}
 	if r.maxOut > 0 && math.Abs(s.outW[0]) > r.maxOut*(1+1e-12) {
 		s.fill(st, p, r, 0, 0)
-		return s.limitErr(LimitError{Element: r.name, Quantity: "output speed", Value: math.Abs(s.outW[0]),
-			Limit: r.maxOut, Unit: "rad/s", Err: ErrInfeasible})
+		return s.limitErr(LimitError{Element: r.name, Quantity: "output speed", Value: units.Of(units.AngularVelocity(math.Abs(s.outW[0]))),
+			Bound: boundRangeSpeed, Limit: units.Of(units.AngularVelocity(r.maxOut)), Err: ErrInfeasible})
 	}
 	// Speed limits of the units do not depend on the torques.
 	if err := s.unitSpeeds(); err != nil {
@@ -330,8 +330,8 @@ func (s *Solver) iterate(r *rangeDef, p *Point, update bool, it0 int) (bool, int
 			if lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge); lim > 0 && math.Abs(nd) > lim {
 				s.over[j]++
 				if s.over[j] >= 3 {
-					return false, it, s.limitErr(LimitError{Element: el.name, Quantity: "relief pressure",
-						Value: math.Abs(nd) + float64(el.lspec.Charge), Limit: float64(el.lspec.Relief), Unit: "Pa", Err: ErrInfeasible})
+					return false, it, s.limitErr(LimitError{Element: el.name, Quantity: "high-line pressure",
+						Value: units.Of(units.Pressure(math.Abs(nd)) + el.lspec.Charge), Bound: boundRelief, Limit: units.Of(el.lspec.Relief), Err: ErrInfeasible})
 				}
 				nd = math.Copysign(lim, nd)
 			} else {
@@ -488,8 +488,8 @@ func (s *Solver) bracket(r *rangeDef, p *Point) (bool, error) {
 		}
 	}
 	noBalance := func() error {
-		return s.limitErr(LimitError{Element: el.name, Quantity: "loop pressure (no torque balance up to 1.5 × relief)", Value: lim + float64(el.lspec.Charge),
-			Limit: float64(el.lspec.Relief), Unit: "Pa", Err: ErrInfeasible})
+		return s.limitErr(LimitError{Element: el.name, Quantity: "high-line pressure for a torque balance", Value: units.Of(units.Pressure(lim) + el.lspec.Charge),
+			Bound: boundRelief, Limit: units.Of(el.lspec.Relief), Err: ErrInfeasible})
 	}
 	if best < 0 {
 		return false, noBalance()
@@ -637,8 +637,8 @@ func (s *Solver) unitSpeeds() error {
 		for k, sh := range el.shafts {
 			ms := float64(el.uspec[k].MaxSpeed)
 			if ms > 0 && math.Abs(s.w[sh]) > ms*(1+1e-12) {
-				return s.limitErr(LimitError{Element: el.name, Quantity: el.unames[k][1], Value: math.Abs(s.w[sh]), Limit: ms,
-					Unit: "rad/s", Err: ErrInfeasible})
+				return s.limitErr(LimitError{Element: el.name, Quantity: el.unames[k][1], Value: units.Of(units.AngularVelocity(math.Abs(s.w[sh]))),
+					Bound: boundSpeed, Limit: units.Of(units.AngularVelocity(ms)), Err: ErrInfeasible})
 			}
 		}
 	}
@@ -759,8 +759,8 @@ func (s *Solver) loopLimit(name string, hl *hydrostat.LimitError) error {
 	if errors.Is(cause, hydrostat.ErrSettingLimit) {
 		sent = ErrUnreachable
 	}
-	return s.limitErr(LimitError{Element: name, Quantity: cause.Quantity, Value: finiteOr(cause.Value, 0),
-		Limit: finiteOr(cause.Limit, 0), Unit: cause.Unit, Err: sent, Cause: cause})
+	return s.limitErr(LimitError{Element: name, Quantity: cause.Quantity, Value: finiteMeasure(cause.Value),
+		Bound: cause.Bound, Limit: finiteMeasure(cause.Limit), Err: sent, Cause: cause})
 }
 
 // slabSize is the number of errors a slab holds.
@@ -821,8 +821,8 @@ func loopErr(name string, err error, st *hydrostat.LoopState) error {
 		if errors.Is(err, hydrostat.ErrSettingLimit) {
 			sent = ErrUnreachable
 		}
-		return &LimitError{Element: name, Quantity: le.Quantity, Value: finiteOr(le.Value, 0), Limit: finiteOr(le.Limit, 0),
-			Unit: le.Unit, Err: sent, Cause: err}
+		return &LimitError{Element: name, Quantity: le.Quantity, Value: finiteMeasure(le.Value), Bound: le.Bound,
+			Limit: finiteMeasure(le.Limit), Err: sent, Cause: err}
 	}
 	if errors.Is(err, hydrostat.ErrSettingLimit) || errors.Is(err, hydrostat.ErrNoSolution) {
 		v := 0.0
@@ -833,10 +833,10 @@ func loopErr(name string, err error, st *hydrostat.LoopState) error {
 				}
 			}
 		}
-		return &LimitError{Element: name, Quantity: "setting (none found; value is the last setting tried)", Value: v, Limit: 1,
-			Err: ErrUnreachable, Cause: err}
+		return &LimitError{Element: name, Quantity: "setting (none found; value is the last setting tried)", Value: units.Plain(v),
+			Bound: boundFull, Limit: units.Plain(1), Err: ErrUnreachable, Cause: err}
 	}
-	return &LimitError{Element: name, Quantity: "loop", Value: 0, Limit: 0, Err: ErrInfeasible, Cause: err}
+	return &LimitError{Element: name, Err: ErrInfeasible, Cause: err}
 }
 
 // unitTorque returns the torque of unit k (0 = pump) of loop state st.
@@ -970,7 +970,7 @@ func (s *Solver) linearise(j int) error {
 		u := s.unit0[j] + k
 		t0 := unitTorque(&s.loopA[j], k)
 		if bad(t0) || bad(s.ld[u]) {
-			return &LimitError{Element: el.name, Quantity: "unit torque", Value: finiteOr(t0, 0), Err: ErrInfeasible}
+			return &LimitError{Element: el.name, Err: ErrInfeasible, Cause: errUnitTorque}
 		}
 		s.lt0[u] = t0
 	}
@@ -1048,3 +1048,13 @@ func (s *Solver) directions(it int) bool {
 	}
 	return changed
 }
+
+// finiteMeasure returns m with a NaN or infinite value replaced by 0.
+func finiteMeasure(m units.Measure) units.Measure {
+	m.SI = finiteOr(m.SI, 0)
+	return m
+}
+
+// errUnitTorque is the cause of a loop whose unit torque or its slope is
+// not finite at a point.
+var errUnitTorque = errors.New("unit torque not finite at this point")

@@ -81,18 +81,58 @@ type LoopResult struct {
 	HydraulicPower units.Power
 }
 
-// Margin is the distance of one quantity from its limit, in SI units
-// (Pa, rad/s, or none for a setting). Value is the magnitude reached.
+// Margin is the distance of one quantity from its limit, as typed measures
+// that print in the trade's units. Value is the magnitude reached.
 type Margin struct {
 	Element  string
-	Quantity string
-	Value    float64
-	Limit    float64
-	Unit     string
+	Quantity string        // "high-line pressure", "pump pressure", "motor speed", "pump setting", ...
+	Value    units.Measure // the magnitude reached
+	Bound    string        // what the limit is: "relief setting", "rated pressure", "peak pressure", "maximum speed", "full displacement"
+	Limit    units.Measure // zero when Unchecked
+	// Unchecked means the limit is not rated (zero in the unit's spec): the
+	// value is reported but nothing was checked against it.
+	Unchecked bool
 }
 
-// Left returns Limit − Value: negative when the limit is crossed.
-func (m Margin) Left() float64 { return m.Limit - m.Value }
+// Left returns Limit − Value in their unit: negative when the limit is
+// crossed. It is zero for an unchecked margin.
+func (m Margin) Left() units.Measure {
+	if m.Unchecked {
+		return units.Measure{Kind: m.Value.Kind}
+	}
+	return m.Limit.Sub(m.Value)
+}
+
+// Crossed reports whether the value lies beyond the limit (by more than
+// rounding: 1e-12 of the limit). An unchecked margin is never crossed.
+func (m Margin) Crossed() bool {
+	return !m.Unchecked && m.Limit.SI-m.Value.SI < -1e-12*m.Limit.SI
+}
+
+// String returns "<element>: <quantity> <value>, <bound> <limit>",
+// "<element>: <quantity> <value> above <bound> <limit>" when the limit is
+// crossed, or "<element>: <quantity> <value>, <bound> not rated: not
+// checked" when there is no limit.
+func (m Margin) String() string {
+	b := make([]byte, 0, 96)
+	b = append(b, m.Element...)
+	b = append(b, ": "...)
+	if m.Crossed() {
+		return string(appendLimit(b, m.Quantity, m.Value, m.Bound, m.Limit))
+	}
+	b = append(b, m.Quantity...)
+	b = append(b, ' ')
+	b = m.Value.Append(b)
+	b = append(b, ", "...)
+	b = append(b, m.Bound...)
+	if m.Unchecked {
+		b = append(b, " not rated: not checked"...)
+		return string(b)
+	}
+	b = append(b, ' ')
+	b = m.Limit.Append(b)
+	return string(b)
+}
 
 // State is the full steady state at an operating point. A State is filled by
 // Solver.Solve and can be reused: its slices are kept and overwritten.
@@ -140,9 +180,12 @@ type State struct {
 	// return power to their shafts. Zero when no power enters.
 	PumpShare float64
 
-	// Margins lists, per loop: loop pressure against the relief setting,
-	// pressure against each unit's rated (continuous) pressure, each unit's
-	// speed against its maximum, each unit's setting against 1.
+	// Margins lists, per loop: the high-line pressure against the relief
+	// setting, the loop pressure against each unit's rated (continuous) and
+	// peak pressure, each unit's speed against its maximum, each unit's
+	// setting against full displacement. A limit the spec leaves at zero
+	// (not rated) is listed with Unchecked set, so it is never silently
+	// skipped.
 	Margins []Margin
 	// Flags lists the margins that are crossed but do not make the point
 	// infeasible (rated continuous pressure exceeded below the relief).
@@ -407,7 +450,7 @@ func (st *State) size(l *layout) {
 			m := len(l.elems[e].shafts) - 1
 			st.Loops[j].Motors = make([]hydrostat.Point, m)
 			st.Loops[j].Settings = make([]float64, m+1)
-			nm += 3*(m+1) + 1
+			nm += 4*(m+1) + 1
 		}
 		nm++ // the range's speed limit
 		st.Margins = make([]Margin, 0, nm)
@@ -434,10 +477,23 @@ func (st *State) size(l *layout) {
 	}
 }
 
+// Bounds of the margins.
+const (
+	boundRelief = "relief setting"
+	boundRated  = "rated pressure"
+	boundPeak   = "peak pressure"
+	boundSpeed  = "maximum speed"
+	boundFull   = "full displacement"
+	// boundRangeSpeed is a range's speed limit (a second motor's declutch
+	// speed).
+	boundRangeSpeed = "range's maximum output speed"
+)
+
 // margins lists the distance of every loop quantity from its limit in
 // st.Margins (not for a Brief st), the crossed ratings in st.Flags, the
 // binding margin in st.Binding, and keeps the first infeasible margin for
-// limits. With known false (no torques yet) only the lists are cleared.
+// limits. A limit the spec leaves at zero is listed as Unchecked. With
+// known false (no torques yet) only the lists are cleared.
 func (s *Solver) margins(st *State, known bool) {
 	l := s.l
 	st.Margins = st.Margins[:0]
@@ -448,49 +504,52 @@ func (s *Solver) margins(st *State, known bool) {
 		return
 	}
 	room := math.Inf(1)
-	add := func(m Margin, rated bool) {
+	add := func(m Margin) {
 		if !st.Brief {
 			st.Margins = append(st.Margins, m)
 		}
-		if rated {
-			if m.Left() < 0 {
+		if m.Unchecked {
+			return
+		}
+		if m.Bound == boundRated {
+			if m.Crossed() {
 				st.Flags = append(st.Flags, m)
 			}
 			return // a rating is a flag, not a limit
 		}
-		if r := m.Left() / m.Limit; r < room {
+		if r := m.Left().SI / m.Limit.SI; r < room {
 			room, st.Binding = r, m
 		}
-		if !s.hasBad && m.Left() < -1e-12*m.Limit {
+		if !s.hasBad && m.Crossed() {
 			s.bad, s.hasBad = m, true
 		}
 	}
 	if r := &l.ranges[st.Range]; r.maxOut > 0 {
-		// The range's speed limit (a second motor's declutch speed).
-		add(Margin{Element: r.name, Quantity: "output speed (range limit)",
-			Value: math.Abs(s.outW[0]), Limit: r.maxOut, Unit: "rad/s"}, false)
+		add(Margin{Element: r.name, Quantity: "output speed", Value: units.Of(units.AngularVelocity(math.Abs(s.outW[0]))),
+			Bound: boundRangeSpeed, Limit: units.Of(units.AngularVelocity(r.maxOut))})
 	}
 	for j, e := range l.loops {
 		el := &l.elems[e]
 		spec := &el.lspec
 		ls := &st.Loops[j]
 		high := float64(spec.Charge) + math.Abs(float64(ls.Pressure))
-		if spec.Relief > 0 {
-			add(Margin{Element: el.name, Quantity: "pressure", Value: high, Limit: float64(spec.Relief), Unit: "Pa"}, false)
-		}
+		add(Margin{Element: el.name, Quantity: "high-line pressure", Value: units.Of(units.Pressure(high)),
+			Bound: boundRelief, Limit: units.Of(spec.Relief), Unchecked: spec.Relief <= 0})
+		dp := units.Of(units.Pressure(math.Abs(float64(ls.Pressure))))
 		for k := range el.shafts {
 			pt := &ls.Pump
 			if k > 0 {
 				pt = &ls.Motors[k-1]
 			}
 			us := &el.uspec[k]
-			if us.RatedPressure > 0 {
-				add(Margin{Element: el.name, Quantity: el.unames[k][0], Value: math.Abs(float64(ls.Pressure)), Limit: float64(us.RatedPressure), Unit: "Pa"}, true)
-			}
-			if us.MaxSpeed > 0 {
-				add(Margin{Element: el.name, Quantity: el.unames[k][1], Value: math.Abs(float64(pt.Speed)), Limit: float64(us.MaxSpeed), Unit: "rad/s"}, false)
-			}
-			add(Margin{Element: el.name, Quantity: el.unames[k][2], Value: math.Abs(pt.Setting), Limit: 1}, false)
+			add(Margin{Element: el.name, Quantity: el.unames[k][0], Value: dp, Bound: boundRated,
+				Limit: units.Of(us.RatedPressure), Unchecked: us.RatedPressure <= 0})
+			add(Margin{Element: el.name, Quantity: el.unames[k][0], Value: dp, Bound: boundPeak,
+				Limit: units.Of(us.PeakPressure), Unchecked: us.PeakPressure <= 0})
+			add(Margin{Element: el.name, Quantity: el.unames[k][1], Value: units.Of(units.AngularVelocity(math.Abs(float64(pt.Speed)))),
+				Bound: boundSpeed, Limit: units.Of(us.MaxSpeed), Unchecked: us.MaxSpeed <= 0})
+			add(Margin{Element: el.name, Quantity: el.unames[k][2], Value: units.Plain(math.Abs(pt.Setting)),
+				Bound: boundFull, Limit: units.Plain(1)})
 		}
 	}
 }
@@ -503,8 +562,8 @@ func (s *Solver) limits() error {
 	}
 	m := s.bad
 	sent := ErrInfeasible
-	if len(m.Quantity) > 7 && m.Quantity[len(m.Quantity)-7:] == "setting" {
+	if m.Bound == boundFull {
 		sent = ErrUnreachable
 	}
-	return s.limitErr(LimitError{Element: m.Element, Quantity: m.Quantity, Value: m.Value, Limit: m.Limit, Unit: m.Unit, Err: sent})
+	return s.limitErr(LimitError{Element: m.Element, Quantity: m.Quantity, Value: m.Value, Bound: m.Bound, Limit: m.Limit, Err: sent})
 }

@@ -120,12 +120,15 @@ func axis(from, to float64, n int) []float64 {
 	return out
 }
 
-func checkAxis(field string, from, to float64, n int) error {
-	if bad(from) || bad(to) {
+func checkAxis(field string, from, to units.Measure, n int) error {
+	if bad(from.SI) {
 		return &InputError{Field: field, Value: from, Reason: "not finite"}
 	}
+	if bad(to.SI) {
+		return &InputError{Field: field, Value: to, Reason: "not finite"}
+	}
 	if n < 2 || n > 1<<20 {
-		return &InputError{Field: field + " steps", Value: float64(n), Reason: "need 2 to 2^20 steps"}
+		return &InputError{Field: field + " steps", Value: units.Plain(float64(n)), Reason: "need 2 to 2^20 steps"}
 	}
 	return nil
 }
@@ -229,10 +232,10 @@ func binding(ms []Margin) Margin {
 	var b Margin
 	best := math.Inf(1)
 	for _, m := range ms {
-		if m.Limit <= 0 {
+		if m.Unchecked || m.Limit.SI <= 0 {
 			continue
 		}
-		if r := m.Left() / m.Limit; r < best {
+		if r := m.Left().SI / m.Limit.SI; r < best {
 			b, best = m, r
 		}
 	}
@@ -250,14 +253,14 @@ func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
 	if err := l.checkSpec(spec.Range, spec.Input, spec.PTO); err != nil {
 		return Sweep{}, err
 	}
-	if err := checkAxis("Sweep speed", float64(spec.From), float64(spec.To), spec.Steps); err != nil {
+	if err := checkAxis("Sweep speed", units.Of(spec.From), units.Of(spec.To), spec.Steps); err != nil {
 		return Sweep{}, err
 	}
 	if bad(float64(spec.Torque)) {
-		return Sweep{}, &InputError{Field: "Torque", Value: float64(spec.Torque), Reason: "not finite"}
+		return Sweep{}, &InputError{Field: "Torque", Value: units.Of(spec.Torque), Reason: "not finite"}
 	}
 	if bad(float64(spec.Power)) {
-		return Sweep{}, &InputError{Field: "Power", Value: float64(spec.Power), Reason: "not finite"}
+		return Sweep{}, &InputError{Field: "Power", Value: units.Of(spec.Power), Reason: "not finite"}
 	}
 	vs := axis(float64(spec.From), float64(spec.To), spec.Steps)
 	p := l.point(spec.Input, spec.PTO)
@@ -358,10 +361,10 @@ func (l Layout) Map(spec MapSpec) (Map, error) {
 	if err := l.checkSpec(spec.Range, spec.Input, spec.PTO); err != nil {
 		return Map{}, err
 	}
-	if err := checkAxis("Map speed", float64(spec.SpeedFrom), float64(spec.SpeedTo), spec.SpeedSteps); err != nil {
+	if err := checkAxis("Map speed", units.Of(spec.SpeedFrom), units.Of(spec.SpeedTo), spec.SpeedSteps); err != nil {
 		return Map{}, err
 	}
-	if err := checkAxis("Map torque", float64(spec.TorqueFrom), float64(spec.TorqueTo), spec.TorqueSteps); err != nil {
+	if err := checkAxis("Map torque", units.Of(spec.TorqueFrom), units.Of(spec.TorqueTo), spec.TorqueSteps); err != nil {
 		return Map{}, err
 	}
 	vs := axis(float64(spec.SpeedFrom), float64(spec.SpeedTo), spec.SpeedSteps)
@@ -410,13 +413,13 @@ func (l Layout) checkSpec(rg int, in units.AngularVelocity, pto []units.Torque) 
 		return &LayoutError{Reason: "zero Layout", Err: ErrLayout}
 	}
 	if rg != Auto && (rg < 0 || rg >= len(l.l.ranges)) {
-		return &InputError{Field: "Range", Value: float64(rg), Reason: "no such range"}
+		return &InputError{Field: "Range", Value: units.Plain(float64(rg)), Reason: "no such range"}
 	}
 	if bad(float64(in)) {
-		return &InputError{Field: "Input", Value: float64(in), Reason: "not finite"}
+		return &InputError{Field: "Input", Value: units.Of(in), Reason: "not finite"}
 	}
 	if pto != nil && len(pto) != len(l.l.ptos) {
-		return &InputError{Field: "len(PTO)", Value: float64(len(pto)), Reason: "one torque per PTO, or nil"}
+		return &InputError{Field: "len(PTO)", Value: units.Plain(float64(len(pto))), Reason: "one torque per PTO, or nil"}
 	}
 	return nil
 }
@@ -442,9 +445,9 @@ func (c Cell) record(design string, in units.AngularVelocity, names []string) []
 		rg = names[c.Range]
 	}
 	bind, left := "", ""
-	if c.Binding.Limit > 0 {
+	if c.Binding.Limit.SI > 0 {
 		bind = c.Binding.Element + " " + c.Binding.Quantity
-		left = f(100 * c.Binding.Left() / c.Binding.Limit)
+		left = f(100 * c.Binding.Left().SI / c.Binding.Limit.SI)
 	}
 	return append(head, "true", rg,
 		f(float64(c.InputTorque)), f(c.InputPower.Kilowatts()), f(c.OutputPower.Kilowatts()), f(c.Loss.Kilowatts()),

@@ -2,7 +2,8 @@ package hydrostat
 
 import (
 	"errors"
-	"strconv"
+
+	"github.com/powersplit-dev/powersplit/units"
 )
 
 // Sentinel errors. A *LimitError unwraps to one of ErrPressureLimit,
@@ -36,23 +37,38 @@ var (
 )
 
 // A LimitError reports a crossed rated limit: which quantity, its value and
-// the limit, in the unit named by Unit ("bar", "rpm" or "" for a relative
-// setting). Err is ErrPressureLimit, ErrSpeedLimit or ErrSettingLimit.
+// the limit, as typed measures that print in the trade's units (bar, rpm,
+// a plain number for a relative setting). Err is ErrPressureLimit,
+// ErrSpeedLimit or ErrSettingLimit.
 type LimitError struct {
-	Quantity     string // e.g. "pump speed", "relief pressure", "motor setting"
-	Value, Limit float64
-	Unit         string
-	Err          error
+	Quantity string        // e.g. "pump speed", "high-line pressure", "motor setting"
+	Value    units.Measure // the value reached or needed
+	Bound    string        // what the limit is: "relief setting", "peak pressure", "maximum speed", "full displacement", ...; "" reads "limit"
+	Limit    units.Measure
+	Err      error
 }
 
-// Error returns a message naming the quantity, its value and the limit.
+// Error returns "hydrostat: <quantity> <value> above <bound> <limit>"
+// ("below" when the value lies under the limit), for example "hydrostat:
+// pump speed 3100 rpm above maximum speed 2800 rpm".
 func (e *LimitError) Error() string {
-	u := ""
-	if e.Unit != "" {
-		u = " " + e.Unit
+	b := make([]byte, 0, 96)
+	b = append(b, "hydrostat: "...)
+	b = append(b, e.Quantity...)
+	b = append(b, ' ')
+	b = e.Value.Append(b)
+	if e.Value.SI < e.Limit.SI {
+		b = append(b, " below "...)
+	} else {
+		b = append(b, " above "...)
 	}
-	return "hydrostat: " + e.Quantity + " " + strconv.FormatFloat(e.Value, 'g', 6, 64) + u +
-		" beyond limit " + strconv.FormatFloat(e.Limit, 'g', 6, 64) + u
+	if e.Bound == "" {
+		b = append(b, "limit"...)
+	} else {
+		b = append(b, e.Bound...)
+	}
+	b = append(b, ' ')
+	return string(e.Limit.Append(b))
 }
 
 // Unwrap returns the finer sentinel (ErrPressureLimit, ErrSpeedLimit or ErrSettingLimit).

@@ -106,7 +106,7 @@ func ExampleLoop_At() {
 	// ratio 0.5: pump 0.672 motor 1.000 η 0.858
 	// ratio 1.0: pump 1.000 motor 0.768 η 0.887
 	// ratio 2.0: pump 1.000 motor 0.384 η 0.843
-	// ratio 5.0: hydrostat: motor setting 0.153654 beyond limit 0.2
+	// ratio 5.0: hydrostat: motor setting 0.153654 below schedule's minimum motor setting 0.2
 }
 
 func ExampleLoop_Solve() {

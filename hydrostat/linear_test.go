@@ -147,9 +147,9 @@ func TestPropertyClosedFormSettings(t *testing.T) {
 		// motors hardly respond to their setting and the value is only a
 		// direction).
 		var la, lb *LimitError
-		if errors.As(ea, &la) && errors.As(eb, &lb) && math.Abs(lb.Value) < 10 &&
-			math.Abs(la.Value-lb.Value) > 1e-6*math.Max(1, math.Abs(lb.Value)) {
-			t.Fatalf("needed setting: closed form %g, search %g", la.Value, lb.Value)
+		if errors.As(ea, &la) && errors.As(eb, &lb) && math.Abs(lb.Value.SI) < 10 &&
+			math.Abs(la.Value.SI-lb.Value.SI) > 1e-6*math.Max(1, math.Abs(lb.Value.SI)) {
+			t.Fatalf("needed setting: closed form %v, search %v", la.Value, lb.Value)
 		}
 	})
 }
@@ -161,7 +161,7 @@ func TestPropertyClosedFormSettings(t *testing.T) {
 // setting serves.
 func flatTie(a, b error) bool {
 	var le *LimitError
-	return errors.Is(a, ErrNoSolution) && errors.As(b, &le) && errors.Is(b, ErrSettingLimit) && math.Abs(le.Value) > 1e6
+	return errors.Is(a, ErrNoSolution) && errors.As(b, &le) && errors.Is(b, ErrSettingLimit) && math.Abs(le.Value.SI) > 1e6
 }
 
 func sameKind(a, b error) bool {

@@ -166,11 +166,11 @@ func (l Loop) Settings(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angu
 		return fmt.Errorf("%w: zero Loop", ErrInvalid)
 	}
 	if !finite(float64(pumpSpeed)) || !finite(float64(dp)) {
-		return fmt.Errorf("%w: pump speed %v, pressure %v", ErrInvalid, float64(pumpSpeed), float64(dp))
+		return fmt.Errorf("%w: pump speed %v, pressure %v", ErrInvalid, pumpSpeed, dp)
 	}
 	for _, w := range motorSpeeds {
 		if !finite(float64(w)) {
-			return fmt.Errorf("%w: motor speed %v", ErrInvalid, float64(w))
+			return fmt.Errorf("%w: motor speed %v", ErrInvalid, w)
 		}
 	}
 	return l.sched.Settings(l, pumpSpeed, motorSpeeds, dp, settings)
@@ -265,11 +265,11 @@ func (l Loop) atQ(sched Schedule, pumpSpeed units.AngularVelocity, motorSpeeds [
 		return fmt.Errorf("%w: %d motor speeds for %d motors", ErrInvalid, len(motorSpeeds), n)
 	}
 	if !finite(float64(pumpSpeed)) || !finite(float64(dp)) {
-		return fmt.Errorf("%w: pump speed %v, pressure %v", ErrInvalid, float64(pumpSpeed), float64(dp))
+		return fmt.Errorf("%w: pump speed %v, pressure %v", ErrInvalid, pumpSpeed, dp)
 	}
 	for _, w := range motorSpeeds {
 		if !finite(float64(w)) {
-			return fmt.Errorf("%w: motor speed %v", ErrInvalid, float64(w))
+			return fmt.Errorf("%w: motor speed %v", ErrInvalid, w)
 		}
 	}
 	st.size(n)
@@ -312,7 +312,7 @@ func (l Loop) atQ(sched Schedule, pumpSpeed units.AngularVelocity, motorSpeeds [
 // and its units that st crosses, if any.
 func (l *Loop) crossed(st *LoopState) {
 	if st.High > l.spec.Relief {
-		st.Limit = LimitError{Quantity: "relief pressure", Value: st.High.Bar(), Limit: l.spec.Relief.Bar(), Unit: "bar", Err: ErrPressureLimit}
+		st.Limit = LimitError{Quantity: "high-line pressure", Value: units.Of(st.High), Bound: "relief setting", Limit: units.Of(l.spec.Relief), Err: ErrPressureLimit}
 		return
 	}
 	if l.spec.Pump.crossed(&st.Pump, &l.names[0], &st.Limit) {
@@ -325,12 +325,12 @@ func (l *Loop) crossed(st *LoopState) {
 	}
 	// A setting below a unit's swing (only a custom schedule gives one).
 	if x := st.Settings[0]; l.spec.Pump.belowSwing(x) {
-		st.Limit = LimitError{Quantity: "pump setting", Value: x, Limit: 0, Err: ErrSettingLimit}
+		st.Limit = LimitError{Quantity: "pump setting", Value: units.Plain(x), Bound: "zero (the unit swings to one side only)", Limit: units.Plain(0), Err: ErrSettingLimit}
 		return
 	}
 	for i := range st.Motors {
 		if x := st.Settings[i+1]; l.spec.Motors[i].belowSwing(x) {
-			st.Limit = LimitError{Quantity: "motor setting", Value: x, Limit: 0, Err: ErrSettingLimit}
+			st.Limit = LimitError{Quantity: "motor setting", Value: units.Plain(x), Bound: "zero (the unit swings to one side only)", Limit: units.Plain(0), Err: ErrSettingLimit}
 			return
 		}
 	}
@@ -416,14 +416,14 @@ func (l Loop) Solve(in LoopInput) (LoopState, error) {
 		return LoopState{}, fmt.Errorf("%w: need %d motor speeds, torques and (optional) settings", ErrInvalid, n)
 	}
 	if !finite(float64(in.PumpSpeed)) {
-		return LoopState{}, fmt.Errorf("%w: pump speed %v", ErrInvalid, float64(in.PumpSpeed))
+		return LoopState{}, fmt.Errorf("%w: pump speed %v", ErrInvalid, in.PumpSpeed)
 	}
 	for i := range n {
 		if !finite(float64(in.MotorSpeeds[i])) || !finite(float64(in.MotorTorques[i])) {
 			return LoopState{}, fmt.Errorf("%w: motor %d speed or torque not finite", ErrInvalid, i)
 		}
 		if in.MotorSettings != nil && (!finite(in.MotorSettings[i]) || math.Abs(in.MotorSettings[i]) > 1) {
-			return LoopState{}, &LimitError{Quantity: fmt.Sprintf("motor %d setting", i), Value: in.MotorSettings[i], Limit: 1, Err: ErrSettingLimit}
+			return LoopState{}, &LimitError{Quantity: fmt.Sprintf("motor %d setting", i+1), Value: units.Plain(in.MotorSettings[i]), Bound: "full displacement", Limit: units.Plain(math.Copysign(1, in.MotorSettings[i])), Err: ErrSettingLimit}
 		}
 	}
 	st := LoopState{}
@@ -502,7 +502,7 @@ func (l Loop) Solve(in LoopInput) (LoopState, error) {
 		if !finite(v) {
 			return st, fmt.Errorf("%w: the torque demand cannot be met at any pressure up to relief", ErrNoSolution)
 		}
-		return st, &LimitError{Quantity: "relief pressure", Value: units.Pressure(v).Bar(), Limit: l.spec.Relief.Bar(), Unit: "bar", Err: ErrPressureLimit}
+		return st, &LimitError{Quantity: "high-line pressure needed", Value: units.Of(units.Pressure(v)), Bound: "relief setting", Limit: units.Of(l.spec.Relief), Err: ErrPressureLimit}
 	}
 	return st, l.at(sched, in.PumpSpeed, in.MotorSpeeds, units.Pressure(dp), &st)
 }

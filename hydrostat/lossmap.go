@@ -53,14 +53,14 @@ func NewMap(s MapSpec) (Map, error) {
 	for i, w := range s.Speeds {
 		xs[i] = float64(w)
 		if !(xs[i] >= 0) {
-			return Map{}, fmt.Errorf("%w: map speed %v", ErrInvalid, xs[i])
+			return Map{}, fmt.Errorf("%w: map speed %v", ErrInvalid, w)
 		}
 	}
 	ys := make([]float64, len(s.Pressures))
 	for i, p := range s.Pressures {
 		ys[i] = float64(p)
 		if !(ys[i] >= 0) {
-			return Map{}, fmt.Errorf("%w: map pressure %v", ErrInvalid, ys[i])
+			return Map{}, fmt.Errorf("%w: map pressure %v", ErrInvalid, p)
 		}
 	}
 	tables := [4][][][]float64{s.Volumetric, s.HydroMechanical, s.MotoringVolumetric, s.MotoringHydroMechanical}

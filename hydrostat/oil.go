@@ -49,9 +49,16 @@ const (
 func NewOil(s OilSpec) (Oil, error) {
 	t1, t2 := float64(s.T1), float64(s.T2)
 	n1, n2 := s.Nu1.Centistokes(), s.Nu2.Centistokes()
-	for _, v := range []float64{t1, t2, n1, n2, float64(s.Density), float64(s.DensityTemperature), s.Expansion, float64(s.BulkModulus)} {
-		if !finite(v) || v < 0 {
-			return Oil{}, fmt.Errorf("%w: oil property %v must be finite and ≥ 0", ErrInvalid, v)
+	for _, v := range []struct {
+		name string
+		x    units.Measure
+	}{
+		{"T1", units.Of(s.T1)}, {"T2", units.Of(s.T2)}, {"Nu1", units.Of(s.Nu1)}, {"Nu2", units.Of(s.Nu2)},
+		{"Density", units.Of(s.Density)}, {"DensityTemperature", units.Of(s.DensityTemperature)},
+		{"Expansion", units.Plain(s.Expansion)}, {"BulkModulus", units.Of(s.BulkModulus)},
+	} {
+		if !finite(v.x.SI) || v.x.SI < 0 {
+			return Oil{}, fmt.Errorf("%w: oil property %s = %v must be finite and ≥ 0", ErrInvalid, v.name, v.x)
 		}
 	}
 	if !(t1 > 0) || !(t2 > 0) || t1 == t2 {

@@ -107,7 +107,7 @@ func (p Pinned) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeeds []
 		if gb == ga || !finite(need) {
 			return fmt.Errorf("%w: no pump setting gives flow continuity", ErrNoSolution)
 		}
-		return &LimitError{Quantity: "pump setting", Value: need, Limit: math.Copysign(1, need), Err: ErrSettingLimit}
+		return &LimitError{Quantity: "pump setting", Value: units.Plain(need), Bound: "full displacement", Limit: units.Plain(math.Copysign(1, need)), Err: ErrSettingLimit}
 	}
 	// The pump at full: swing the free motors back.
 	h := func(s float64) float64 {
@@ -142,7 +142,7 @@ func (p Pinned) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpeeds []
 	if need > 1 {
 		lim = 1
 	}
-	return &LimitError{Quantity: "motor setting", Value: need, Limit: lim, Err: ErrSettingLimit}
+	return (setLimit{hit: true, need: need, lim: lim}).err()
 }
 
 // WithSchedule returns a copy of the loop that chooses its settings by

@@ -184,7 +184,16 @@ func (s setLimit) value() LimitError {
 	if s.pump {
 		q = "pump setting"
 	}
-	return LimitError{Quantity: q, Value: s.need, Limit: s.lim, Err: ErrSettingLimit}
+	return LimitError{Quantity: q, Value: units.Plain(s.need), Bound: s.bound(), Limit: units.Plain(s.lim), Err: ErrSettingLimit}
+}
+
+// bound names the limit: full displacement, or the schedule's minimum
+// motor setting.
+func (s setLimit) bound() string {
+	if s.pump || math.Abs(s.lim) == 1 {
+		return "full displacement"
+	}
+	return "schedule's minimum motor setting"
 }
 
 func (s setLimit) err() error {
@@ -453,7 +462,7 @@ func (f fixedMotors) Settings(l Loop, pumpSpeed units.AngularVelocity, motorSpee
 		if !finite(need) {
 			return fmt.Errorf("%w: no pump setting gives flow continuity", ErrNoSolution)
 		}
-		return &LimitError{Quantity: "pump setting", Value: need, Limit: math.Copysign(1, need), Err: ErrSettingLimit}
+		return &LimitError{Quantity: "pump setting", Value: units.Plain(need), Bound: "full displacement", Limit: units.Plain(math.Copysign(1, need)), Err: ErrSettingLimit}
 	}
 	x, e := numeric.Brent(g, -1, 1, 0, 200)
 	if ferr != nil {

@@ -117,7 +117,7 @@ func TestMotorToZero(t *testing.T) {
 	l = swingLoop(t, SwingUnstated, SwingToZero, demoWilson, nil)
 	err := l.At(0, wm, units.Bar(300), &st)
 	var le *LimitError
-	if !errors.As(err, &le) || !errors.Is(err, ErrSettingLimit) || !(le.Value < 0) || le.Limit != 0 {
+	if !errors.As(err, &le) || !errors.Is(err, ErrSettingLimit) || !(le.Value.SI < 0) || le.Limit.SI != 0 {
 		t.Fatalf("lossy to-zero motor at a standing pump: %v, want a setting limit below 0", err)
 	}
 	// Find the pump speed where the motor setting is zero and check that
@@ -165,7 +165,7 @@ func TestSwingLimits(t *testing.T) {
 	var st LoopState
 	err = l.At(units.RPM(2000), []units.AngularVelocity{units.RPM(-800)}, units.Bar(200), &st)
 	var le *LimitError
-	if !errors.As(err, &le) || le.Quantity != "pump setting" || !(le.Value < 0) {
+	if !errors.As(err, &le) || le.Quantity != "pump setting" || !(le.Value.SI < 0) {
 		t.Errorf("to-zero pump asked to reverse: %v", err)
 	}
 	if st.Settings[0] != 0 {

@@ -135,17 +135,17 @@ func finite(x float64) bool { return x-x == 0 }
 func NewUnit(s UnitSpec) (Unit, error) {
 	for _, v := range []struct {
 		name string
-		x    float64
+		x    units.Measure
 	}{
-		{"maximum displacement", float64(s.MaxDisplacement)},
-		{"maximum speed", float64(s.MaxSpeed)},
-		{"rated pressure", float64(s.RatedPressure)},
-		{"peak pressure", float64(s.PeakPressure)},
-		{"piston diameter", float64(s.PistonDiameter)},
-		{"pitch diameter", float64(s.PitchDiameter)},
-		{"maximum angle", float64(s.MaxAngle)},
+		{"maximum displacement", units.Of(s.MaxDisplacement)},
+		{"maximum speed", units.Of(s.MaxSpeed)},
+		{"rated pressure", units.Of(s.RatedPressure)},
+		{"peak pressure", units.Of(s.PeakPressure)},
+		{"piston diameter", units.Of(s.PistonDiameter)},
+		{"pitch diameter", units.Of(s.PitchDiameter)},
+		{"maximum angle", units.Of(s.MaxAngle)},
 	} {
-		if !finite(v.x) || v.x < 0 {
+		if !finite(v.x.SI) || v.x.SI < 0 {
 			return Unit{}, fmt.Errorf("%w: %s %v must be finite and non-negative", ErrInvalid, v.name, v.x)
 		}
 	}
@@ -207,7 +207,7 @@ func (u Unit) Displacement(setting float64) units.Displacement {
 // axis. It needs MaxAngle in the spec.
 func (u Unit) AngleFromSetting(setting float64) (units.Angle, error) {
 	if !finite(setting) || math.Abs(setting) > 1 {
-		return 0, &LimitError{Quantity: "setting", Value: setting, Limit: 1, Err: ErrSettingLimit}
+		return 0, &LimitError{Quantity: "setting", Value: units.Plain(setting), Bound: "full displacement", Limit: units.Plain(math.Copysign(1, setting)), Err: ErrSettingLimit}
 	}
 	a := float64(u.spec.MaxAngle)
 	if !(a > 0) {
@@ -228,10 +228,10 @@ func (u Unit) SettingFromAngle(angle units.Angle) (float64, error) {
 	}
 	x := float64(angle)
 	if !finite(x) {
-		return 0, fmt.Errorf("%w: angle %v", ErrInvalid, x)
+		return 0, fmt.Errorf("%w: angle %v", ErrInvalid, units.Angle(x))
 	}
 	if math.Abs(x) > a*(1+1e-12) {
-		return 0, &LimitError{Quantity: "angle", Value: units.Angle(x).Degrees(), Limit: units.Angle(a).Degrees(), Unit: "°", Err: ErrSettingLimit}
+		return 0, &LimitError{Quantity: "angle", Value: units.Of(units.Angle(x)), Bound: "maximum angle", Limit: units.Of(units.Angle(math.Copysign(a, x))), Err: ErrSettingLimit}
 	}
 	var s float64
 	if u.spec.Kind == BentAxis {
@@ -306,7 +306,7 @@ func (o Oil) at(t units.Temperature) (fluid, error) {
 	}
 	tk := float64(t)
 	if !finite(tk) || tk <= 0 {
-		return fluid{}, fmt.Errorf("%w: temperature %v", ErrInvalid, tk)
+		return fluid{}, fmt.Errorf("%w: temperature %v", ErrInvalid, t)
 	}
 	f := fluid{mu: float64(o.DynamicViscosity(t)), rho: float64(o.Density(t)), beta: float64(o.spec.BulkModulus), temp: t}
 	if !(f.mu > 0) || !finite(f.mu) || !(f.rho > 0) {
@@ -350,7 +350,7 @@ func (u *Unit) belowSwing(x float64) bool {
 // swingErr returns a *LimitError when x lies outside the unit's swing.
 func (u *Unit) swingErr(x float64, name string) error {
 	if u.belowSwing(x) {
-		return &LimitError{Quantity: name, Value: x, Limit: 0, Err: ErrSettingLimit}
+		return &LimitError{Quantity: name, Value: units.Plain(x), Bound: "zero (the unit swings to one side only)", Limit: units.Plain(0), Err: ErrSettingLimit}
 	}
 	return nil
 }
@@ -371,10 +371,10 @@ func (u *Unit) eval(x, w, dp float64, f fluid, p *Point) error {
 		return fmt.Errorf("%w: unit not built with NewUnit", ErrInvalid)
 	}
 	if !finite(x) || !finite(w) || !finite(dp) {
-		return fmt.Errorf("%w: setting %v, speed %v, pressure %v", ErrInvalid, x, w, dp)
+		return fmt.Errorf("%w: setting %v, speed %v, pressure %v", ErrInvalid, x, units.AngularVelocity(w), units.Pressure(dp))
 	}
 	if math.Abs(x) > 1 {
-		return &LimitError{Quantity: "setting", Value: x, Limit: 1, Err: ErrSettingLimit}
+		return &LimitError{Quantity: "setting", Value: units.Plain(x), Bound: "full displacement", Limit: units.Plain(math.Copysign(1, x)), Err: ErrSettingLimit}
 	}
 	qi := x * u.dmax * w
 	ti := dp * x * u.dmax
@@ -397,7 +397,7 @@ func (u *Unit) eval(x, w, dp float64, f fluid, p *Point) error {
 		}
 		leak, tau = float64(ls.Leakage), float64(ls.Torque)
 		if !(leak >= 0) || !(tau >= 0) || math.IsInf(leak, 0) || math.IsInf(tau, 0) {
-			return fmt.Errorf("%w: leakage %v, loss torque %v", ErrModel, leak, tau)
+			return fmt.Errorf("%w: leakage %v, loss torque %v", ErrModel, units.VolumeFlow(leak), units.Torque(tau))
 		}
 	} else if u.spec.Loss != nil {
 		ls, err := u.spec.Loss.Losses(Condition{
@@ -411,7 +411,7 @@ func (u *Unit) eval(x, w, dp float64, f fluid, p *Point) error {
 		}
 		leak, tau = float64(ls.Leakage), float64(ls.Torque)
 		if !(leak >= 0) || !(tau >= 0) || math.IsInf(leak, 0) || math.IsInf(tau, 0) {
-			return fmt.Errorf("%w: leakage %v, loss torque %v", ErrModel, leak, tau)
+			return fmt.Errorf("%w: leakage %v, loss torque %v", ErrModel, units.VolumeFlow(leak), units.Torque(tau))
 		}
 	}
 	q := qi - sgn(dp)*leak
@@ -472,11 +472,11 @@ func (u *Unit) limits(p *Point) error {
 // names (pressure, speed).
 func (u *Unit) crossed(p *Point, names *[2]string, e *LimitError) bool {
 	if pk := float64(u.spec.PeakPressure); pk > 0 && math.Abs(float64(p.Pressure)) > pk {
-		*e = LimitError{Quantity: names[0], Value: math.Abs(p.Pressure.Bar()), Limit: u.spec.PeakPressure.Bar(), Unit: "bar", Err: ErrPressureLimit}
+		*e = LimitError{Quantity: names[0], Value: units.Of(units.Pressure(math.Abs(float64(p.Pressure)))), Bound: "peak pressure", Limit: units.Of(u.spec.PeakPressure), Err: ErrPressureLimit}
 		return true
 	}
 	if ms := float64(u.spec.MaxSpeed); ms > 0 && math.Abs(float64(p.Speed)) > ms {
-		*e = LimitError{Quantity: names[1], Value: math.Abs(p.Speed.RPM()), Limit: u.spec.MaxSpeed.RPM(), Unit: "rpm", Err: ErrSpeedLimit}
+		*e = LimitError{Quantity: names[1], Value: units.Of(units.AngularVelocity(math.Abs(float64(p.Speed)))), Bound: "maximum speed", Limit: units.Of(u.spec.MaxSpeed), Err: ErrSpeedLimit}
 		return true
 	}
 	return false
@@ -500,7 +500,7 @@ func (u Unit) PressureFor(setting float64, w units.AngularVelocity, t units.Torq
 		return Point{}, err
 	}
 	if !finite(float64(t)) {
-		return Point{}, fmt.Errorf("%w: torque %v", ErrInvalid, float64(t))
+		return Point{}, fmt.Errorf("%w: torque %v", ErrInvalid, t)
 	}
 	var p Point
 	if err := u.eval(setting, float64(w), 0, f, &p); err != nil {
@@ -534,7 +534,7 @@ func (u Unit) PressureFor(setting float64, w units.AngularVelocity, t units.Torq
 		if e := u.eval(setting, float64(w), dp, f, &p); e != nil {
 			return Point{}, e
 		}
-		return p, &LimitError{Quantity: "unit pressure", Value: math.Abs(need) / 1e5, Limit: pmax / 1e5, Unit: "bar", Err: ErrPressureLimit}
+		return p, &LimitError{Quantity: "unit pressure needed", Value: units.Of(units.Pressure(math.Abs(need))), Bound: "peak pressure", Limit: units.Of(units.Pressure(pmax)), Err: ErrPressureLimit}
 	}
 	dp, err := numeric.Brent(g, -pmax, pmax, 1e-12*pmax, 200)
 	if ferr != nil {

@@ -376,7 +376,7 @@ func TestUnitLimitsAndErrors(t *testing.T) {
 	oil, temp := VG46, units.Celsius(60)
 	p, err := u.At(0.5, units.RPM(3500), units.Bar(100), oil, temp)
 	var le *LimitError
-	if !errors.As(err, &le) || !errors.Is(err, ErrSpeedLimit) || !errors.Is(err, ErrLimit) || le.Limit != 3000 {
+	if !errors.As(err, &le) || !errors.Is(err, ErrSpeedLimit) || !errors.Is(err, ErrLimit) || le.Limit != units.Of(units.RPM(3000)) {
 		t.Errorf("overspeed err = %v", err)
 	}
 	if p.Flow == 0 {

@@ -121,8 +121,15 @@ func (t *table) displayFor(v float64) unit {
 
 // format writes v with six significant digits in a unit chosen for its size.
 func (t *table) format(v float64) string {
+	return string(t.appendFormat(make([]byte, 0, 24), v))
+}
+
+// appendFormat appends what format writes to b.
+func (t *table) appendFormat(b []byte, v float64) []byte {
 	u := t.displayFor(v)
-	return strconv.FormatFloat((v-u.offset)/u.scale, 'g', 6, 64) + " " + u.symbols[0]
+	b = strconv.AppendFloat(b, (v-u.offset)/u.scale, 'g', 6, 64)
+	b = append(b, ' ')
+	return append(b, u.symbols[0]...)
 }
 
 // marshal writes v so that parse gives back exactly v: in the display unit

@@ -197,7 +197,7 @@ func TestEngine(t *testing.T) {
 	if _, err := e.MaxTorque(units.RPM(2500)); !errors.As(err, &le) || !errors.Is(err, vehicle.ErrEngineLimit) {
 		t.Errorf("MaxTorque(2500 rpm) error = %v", err)
 	}
-	if _, err := e.FuelRate(units.RPM(1400), 950); !errors.As(err, &le) || le.Limit != 890 {
+	if _, err := e.FuelRate(units.RPM(1400), 950); !errors.As(err, &le) || le.Limit.SI != 890 {
 		t.Errorf("FuelRate above curve error = %v", err)
 	}
 	// The Willans demo map: SFC falls with load at fixed speed.

@@ -248,7 +248,7 @@ func Simulate(v *Vehicle, s Strategy, cycle []Segment, opt Options) (Day, error)
 		opt.Step = time.Second
 	}
 	if opt.Step < time.Millisecond {
-		return Day{}, invalid("Options.Step", opt.Step.Seconds(), "must be at least 1 ms")
+		return Day{}, invalid("Options.Step (s)", opt.Step.Seconds(), "must be at least 1 ms")
 	}
 	if opt.MaxSteps == 0 {
 		opt.MaxSteps = 1_000_000
@@ -320,30 +320,30 @@ func (g Segment) pieces(opt Options) ([]piece, error) {
 	}
 	switch g.Kind {
 	case FieldPass:
-		if err := positive("Segment.Speed", v); err != nil {
+		if err := positive("Segment.Speed", g.Speed); err != nil {
 			return nil, err
 		}
-		if err := positive("Segment.Distance", float64(g.Distance)); err != nil {
+		if err := positive("Segment.Distance", g.Distance); err != nil {
 			return nil, err
 		}
 		return out, add(float64(g.Distance)/v, v, v, g.Grade)
 	case HeadlandTurn:
-		if err := positive("Segment.Speed", v); err != nil {
+		if err := positive("Segment.Speed", g.Speed); err != nil {
 			return nil, err
 		}
 		if g.Duration <= 0 {
-			return nil, invalid("Segment.Duration", g.Duration.Seconds(), "must be positive")
+			return nil, invalid("Segment.Duration (s)", g.Duration.Seconds(), "must be positive")
 		}
 		return out, add(g.Duration.Seconds(), v, v, g.Grade)
 	case RoadTransfer:
-		if err := positive("Segment.Speed", v); err != nil {
+		if err := positive("Segment.Speed", g.Speed); err != nil {
 			return nil, err
 		}
 		if len(g.Profile) == 0 {
-			return nil, invalid("Segment.Profile", 0, "needs at least one stretch")
+			return nil, invalid("Segment.Profile", 0.0, "needs at least one stretch")
 		}
 		for _, st := range g.Profile {
-			if err := positive("Stretch.Length", float64(st.Length)); err != nil {
+			if err := positive("Stretch.Length", st.Length); err != nil {
 				return nil, err
 			}
 			if !finite(st.Grade) || math.Abs(st.Grade) > 1 {
@@ -356,7 +356,7 @@ func (g Segment) pieces(opt Options) ([]piece, error) {
 		return out, nil
 	case StationaryPTO:
 		if g.Duration <= 0 {
-			return nil, invalid("Segment.Duration", g.Duration.Seconds(), "must be positive")
+			return nil, invalid("Segment.Duration (s)", g.Duration.Seconds(), "must be positive")
 		}
 		return out, add(g.Duration.Seconds(), 0, 0, g.Grade)
 	case Accelerate:
@@ -364,13 +364,13 @@ func (g Segment) pieces(opt Options) ([]piece, error) {
 		if err := nonNegative("Segment.StartSpeed", v0); err != nil {
 			return nil, err
 		}
-		if err := positive("Segment.Speed", v); err != nil {
+		if err := positive("Segment.Speed", g.Speed); err != nil {
 			return nil, err
 		}
 		if v <= v0 {
 			return nil, invalid("Segment.Speed", v, "must exceed StartSpeed")
 		}
-		if err := positive("Segment.Acceleration", float64(g.Acceleration)); err != nil {
+		if err := positive("Segment.Acceleration", g.Acceleration); err != nil {
 			return nil, err
 		}
 		return out, add((v-v0)/float64(g.Acceleration), v0, v, g.Grade)

@@ -78,14 +78,14 @@ func NewEngine(s EngineSpec) (*Engine, error) {
 	ys := make([]float64, n)
 	for i := range n {
 		xs[i], ys[i] = float64(s.CurveSpeeds[i]), float64(s.CurveTorques[i])
-		if err := positive("EngineSpec.CurveSpeeds", xs[i]); err != nil {
+		if err := positive("EngineSpec.CurveSpeeds", units.AngularVelocity(xs[i])); err != nil {
 			return nil, err
 		}
-		if err := positive("EngineSpec.CurveTorques", ys[i]); err != nil {
+		if err := positive("EngineSpec.CurveTorques", units.Torque(ys[i])); err != nil {
 			return nil, err
 		}
 		if i > 0 && xs[i] <= xs[i-1] {
-			return nil, invalid("EngineSpec.CurveSpeeds", xs[i], "must be strictly increasing")
+			return nil, invalid("EngineSpec.CurveSpeeds", units.AngularVelocity(xs[i]), "must be strictly increasing")
 		}
 	}
 	e := &Engine{lo: xs[0], hi: xs[n-1], idle: s.Idle, rated: s.Rated, fuel: s.Fuel}
@@ -96,10 +96,10 @@ func NewEngine(s EngineSpec) (*Engine, error) {
 		e.idle = units.AngularVelocity(e.lo)
 	}
 	if !finite(float64(e.idle)) || float64(e.idle) < e.lo || float64(e.idle) > e.hi {
-		return nil, invalid("EngineSpec.Idle", float64(e.idle), "must lie on the torque curve")
+		return nil, invalid("EngineSpec.Idle", units.AngularVelocity(e.idle), "must lie on the torque curve")
 	}
 	if !finite(float64(e.rated)) || float64(e.rated) < float64(e.idle) || float64(e.rated) > e.hi {
-		return nil, invalid("EngineSpec.Rated", float64(e.rated), "must lie on the torque curve, at or above idle")
+		return nil, invalid("EngineSpec.Rated", units.AngularVelocity(e.rated), "must lie on the torque curve, at or above idle")
 	}
 	e.ratedPower = units.PowerFromTorque(units.Torque(e.curve.Predict(float64(e.rated))), e.rated)
 	if e.fuel.Density == 0 {
@@ -108,10 +108,10 @@ func NewEngine(s EngineSpec) (*Engine, error) {
 	if e.fuel.HeatingValue == 0 {
 		e.fuel.HeatingValue = DieselHeatingValue
 	}
-	if err := positive("Fuel.Density", float64(e.fuel.Density)); err != nil {
+	if err := positive("Fuel.Density", e.fuel.Density); err != nil {
 		return nil, err
 	}
-	if err := positive("Fuel.HeatingValue", float64(e.fuel.HeatingValue)); err != nil {
+	if err := positive("Fuel.HeatingValue", e.fuel.HeatingValue); err != nil {
 		return nil, err
 	}
 	if s.Map != nil {
@@ -135,14 +135,14 @@ func (e *Engine) buildMap(m *FuelMap) error {
 	ys := make([]float64, nt)
 	for j, t := range m.Torques {
 		ys[j] = float64(t)
-		if err := positive("FuelMap.Torques", ys[j]); err != nil {
+		if err := positive("FuelMap.Torques", units.Torque(ys[j])); err != nil {
 			return err
 		}
 	}
 	z := make([][]float64, ns)
 	for i, w := range m.Speeds {
 		xs[i] = float64(w)
-		if err := positive("FuelMap.Speeds", xs[i]); err != nil {
+		if err := positive("FuelMap.Speeds", units.AngularVelocity(xs[i])); err != nil {
 			return err
 		}
 		if len(m.SFC[i]) != nt {
@@ -150,7 +150,7 @@ func (e *Engine) buildMap(m *FuelMap) error {
 		}
 		z[i] = make([]float64, nt)
 		for j, b := range m.SFC[i] {
-			if err := positive("FuelMap.SFC", float64(b)); err != nil {
+			if err := positive("FuelMap.SFC", b); err != nil {
 				return err
 			}
 			z[i][j] = float64(b) * ys[j] * xs[i]
@@ -161,7 +161,7 @@ func (e *Engine) buildMap(m *FuelMap) error {
 		return invalid("FuelMap", math.NaN(), err.Error())
 	}
 	if xs[0] > e.lo || xs[ns-1] < e.hi {
-		return invalid("FuelMap.Speeds", xs[0], "must cover the torque curve's speed range")
+		return invalid("FuelMap.Speeds", units.AngularVelocity(xs[0]), "must cover the torque curve's speed range")
 	}
 	e.fuelGrid, e.tMin, e.t2, e.hasMap = g, ys[0], ys[1], true
 	return nil
@@ -189,13 +189,13 @@ func (e *Engine) Fuel() Fuel { return e.fuel }
 func (e *Engine) MaxTorque(w units.AngularVelocity) (units.Torque, error) {
 	x := float64(w)
 	if math.IsNaN(x) {
-		return 0, invalid("engine speed", x, "must be a number")
+		return 0, invalid("engine speed", w, "must be a number")
 	}
 	if x < e.lo*(1-1e-12) {
-		return 0, &LimitError{Quantity: "engine speed", Value: x, Limit: e.lo, Unit: "rad/s", Err: ErrEngineLimit}
+		return 0, &LimitError{Quantity: "engine speed", Value: units.Of(w), Bound: "lowest speed of the full-load curve", Limit: units.Of(units.AngularVelocity(e.lo)), Err: ErrEngineLimit}
 	}
 	if x > e.hi*(1+1e-12) {
-		return 0, &LimitError{Quantity: "engine speed", Value: x, Limit: e.hi, Unit: "rad/s", Err: ErrEngineLimit}
+		return 0, &LimitError{Quantity: "engine speed", Value: units.Of(w), Bound: "highest speed of the full-load curve", Limit: units.Of(units.AngularVelocity(e.hi)), Err: ErrEngineLimit}
 	}
 	return units.Torque(e.curve.Predict(x)), nil
 }
@@ -204,14 +204,14 @@ func (e *Engine) MaxTorque(w units.AngularVelocity) (units.Torque, error) {
 // is negative.
 func (e *Engine) check(w units.AngularVelocity, t units.Torque) error {
 	if !finite(float64(t)) || t < 0 {
-		return invalid("engine torque", float64(t), "must be finite and not negative")
+		return invalid("engine torque", t, "must be finite and not negative")
 	}
 	max, err := e.MaxTorque(w)
 	if err != nil {
 		return err
 	}
 	if t > max*(1+1e-12) {
-		return &LimitError{Quantity: "engine torque", Value: float64(t), Limit: float64(max), Unit: "N·m", Err: ErrEngineLimit}
+		return &LimitError{Quantity: "engine torque", Value: units.Of(t), Bound: "full-load torque", Limit: units.Of(max), EngineSpeed: w, Err: ErrEngineLimit}
 	}
 	return nil
 }
@@ -239,7 +239,7 @@ func (e *Engine) FuelRate(w units.AngularVelocity, t units.Torque) (units.MassFl
 		if tt >= e.tMin {
 			f, err := e.fuelGrid.At(float64(w), tt)
 			if err != nil {
-				return 0, &LimitError{Quantity: "engine speed", Value: float64(w), Limit: e.hi, Unit: "rad/s", Err: ErrEngineLimit}
+				return 0, &LimitError{Quantity: "engine speed", Value: units.Of(w), Bound: "highest speed of the fuel map", Limit: units.Of(units.AngularVelocity(e.hi)), Err: ErrEngineLimit}
 			}
 			return units.MassFlow(f), nil
 		}
@@ -247,7 +247,7 @@ func (e *Engine) FuelRate(w units.AngularVelocity, t units.Torque) (units.MassFl
 		f1, err1 := e.fuelGrid.At(float64(w), e.tMin)
 		f2, err2 := e.fuelGrid.At(float64(w), e.t2)
 		if err1 != nil || err2 != nil {
-			return 0, &LimitError{Quantity: "engine speed", Value: float64(w), Limit: e.hi, Unit: "rad/s", Err: ErrEngineLimit}
+			return 0, &LimitError{Quantity: "engine speed", Value: units.Of(w), Bound: "highest speed of the fuel map", Limit: units.Of(units.AngularVelocity(e.hi)), Err: ErrEngineLimit}
 		}
 		f := f1 + (f2-f1)/(e.t2-e.tMin)*(tt-e.tMin)
 		return units.MassFlow(math.Max(f, 0)), nil
@@ -275,7 +275,7 @@ func D497Fuel(x, n float64, rated units.Power) units.VolumeFlow {
 // SpecificFuel returns the brake specific fuel consumption at speed w and
 // torque t > 0.
 func (e *Engine) SpecificFuel(w units.AngularVelocity, t units.Torque) (units.SpecificFuelConsumption, error) {
-	if err := positive("engine torque", float64(t)); err != nil {
+	if err := positive("engine torque", t); err != nil {
 		return 0, err
 	}
 	m, err := e.FuelRate(w, t)

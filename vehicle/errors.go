@@ -4,6 +4,8 @@ import (
 	"errors"
 	"fmt"
 	"time"
+
+	"github.com/powersplit-dev/powersplit/units"
 )
 
 // Sentinel errors of the package. Every error this package returns wraps
@@ -33,19 +35,51 @@ var (
 	ErrEmptyCycle = errors.New("vehicle: empty duty cycle")
 )
 
-// A LimitError records a quantity that crossed a limit. Value and Limit are
-// in the SI unit named by Unit. It wraps one of the sentinel errors.
+// A LimitError records a quantity that crossed a limit, as typed measures
+// that print in the trade's units (rpm, N·m, kW, kN). It wraps one of the
+// sentinel errors.
 type LimitError struct {
-	Quantity string  // what was limited, e.g. "engine torque"
-	Value    float64 // the value demanded, in Unit
-	Limit    float64 // the limit it crossed, in Unit
-	Unit     string  // the SI unit of Value and Limit, e.g. "N·m"
-	Err      error   // the sentinel: ErrEngineLimit, ErrTraction, ...
+	Quantity string        // what was limited, e.g. "engine torque"
+	Value    units.Measure // the value demanded
+	Bound    string        // what the limit is, e.g. "full-load torque"; "" reads "limit"
+	Limit    units.Measure // the limit it crossed
+	// EngineSpeed is the engine speed at which an engine limit (full-load
+	// torque, fuel map) was crossed; zero when none applies.
+	EngineSpeed units.AngularVelocity
+	Err         error // the sentinel: ErrEngineLimit, ErrTraction, ...
 }
 
-// Error returns the message, naming the quantity, the value and the limit.
+// Error returns the message, naming the quantity, the value and the limit,
+// for example "vehicle: beyond the engine's limits: engine torque 1250 N·m
+// above full-load torque 1100 N·m at 1900 rpm".
 func (e *LimitError) Error() string {
-	return fmt.Sprintf("%v: %s %.6g %s beyond limit %.6g %s", e.Err, e.Quantity, e.Value, e.Unit, e.Limit, e.Unit)
+	b := make([]byte, 0, 128)
+	if e.Err != nil {
+		b = append(b, e.Err.Error()...)
+	} else {
+		b = append(b, "vehicle"...)
+	}
+	b = append(b, ": "...)
+	b = append(b, e.Quantity...)
+	b = append(b, ' ')
+	b = e.Value.Append(b)
+	if e.Value.SI < e.Limit.SI {
+		b = append(b, " below "...)
+	} else {
+		b = append(b, " above "...)
+	}
+	if e.Bound == "" {
+		b = append(b, "limit"...)
+	} else {
+		b = append(b, e.Bound...)
+	}
+	b = append(b, ' ')
+	b = e.Limit.Append(b)
+	if e.EngineSpeed != 0 {
+		b = append(b, " at "...)
+		b = units.Of(e.EngineSpeed).Append(b)
+	}
+	return string(b)
 }
 
 // Unwrap returns the sentinel error so that errors.Is finds it.
@@ -53,17 +87,17 @@ func (e *LimitError) Unwrap() error { return e.Err }
 
 // An InputError records an invalid input field.
 type InputError struct {
-	Field  string  // the field or argument, e.g. "Spec.Mass"
-	Value  float64 // the offending value; NaN when the field is missing or not a number
-	Reason string  // what a valid value is, e.g. "must be positive"
+	Field  string        // the field or argument, e.g. "Spec.Mass"
+	Value  units.Measure // the offending value in its unit; NaN when the field is missing or not a number
+	Reason string        // what a valid value is, e.g. "must be positive"
 }
 
 // Error returns the message. A missing field (Value NaN) is named without a value.
 func (e *InputError) Error() string {
-	if e.Value != e.Value {
+	if e.Value.SI != e.Value.SI {
 		return fmt.Sprintf("%v: %s %s", ErrInvalid, e.Field, e.Reason)
 	}
-	return fmt.Sprintf("%v: %s = %.6g %s", ErrInvalid, e.Field, e.Value, e.Reason)
+	return fmt.Sprintf("%v: %s = %v %s", ErrInvalid, e.Field, e.Value, e.Reason)
 }
 
 // Unwrap returns ErrInvalid.
@@ -85,6 +119,8 @@ func (e *SegmentError) Error() string {
 // Unwrap returns the cause.
 func (e *SegmentError) Unwrap() error { return e.Err }
 
-func invalid(field string, v float64, reason string) error {
-	return &InputError{Field: field, Value: v, Reason: reason}
+// invalid returns an *InputError for field; a NaN v means the field is
+// missing or not a number.
+func invalid[Q units.Quantity | float64](field string, v Q, reason string) error {
+	return &InputError{Field: field, Value: units.Of(v), Reason: reason}
 }

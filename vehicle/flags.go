@@ -1,7 +1,6 @@
 package vehicle
 
 import (
-	"math"
 	"strconv"
 	"time"
 
@@ -14,51 +13,26 @@ import (
 // they are reported, never hidden.
 type Flag struct {
 	// Name says what crossed its rating, for example
-	// "hydrostat: pump rated pressure" or "rear tyre load".
+	// "hydrostat: pump pressure" or "tyre load".
 	Name string
 	// Value is the magnitude reached (the largest, in a segment's or a
-	// day's flags) and Limit the rating, both in the SI unit Unit ("Pa",
-	// "rad/s", "N").
-	Value, Limit float64
-	Unit         string
+	// day's flags) and Limit the rating, as typed measures that print in
+	// the trade's units.
+	Value, Limit units.Measure
 	// Time is the time spent beyond the rating: zero at a single point,
 	// summed over the steps of a segment or a day.
 	Time time.Duration
 }
 
 // String returns "<name> <value> above rated <limit>[ for <time>]", with
-// values in the trade's units: "hydrostat: pump rated pressure 290 bar
-// above rated 150 bar for 42 min".
+// values in the trade's units: "hydrostat: pump pressure 290 bar above
+// rated 150 bar for 42 min".
 func (f Flag) String() string {
-	s := f.Name + " " + quantity(f.Value, f.Unit) + " above rated " + quantity(f.Limit, f.Unit)
+	s := f.Name + " " + f.Value.String() + " above rated " + f.Limit.String()
 	if f.Time > 0 {
 		s += " for " + minutes(f.Time)
 	}
 	return s
-}
-
-// quantity formats an SI value in the trade's unit, to 3 significant digits
-// (whole units from 100 up).
-func quantity(v float64, unit string) string {
-	g := func(x float64, u string) string {
-		if math.Abs(x) >= 100 {
-			return strconv.FormatFloat(x, 'f', 0, 64) + " " + u
-		}
-		return strconv.FormatFloat(x, 'g', 3, 64) + " " + u
-	}
-	switch unit {
-	case "Pa":
-		return g(units.Pressure(v).Bar(), "bar")
-	case "rad/s":
-		return g(units.AngularVelocity(v).RPM(), "rpm")
-	case "N":
-		return g(v/1e3, "kN")
-	case "W":
-		return g(v/1e3, "kW")
-	case "N·m":
-		return g(v, "N·m")
-	}
-	return g(v, unit)
 }
 
 // minutes formats a duration as "42 min", or in seconds below a minute.
@@ -76,7 +50,9 @@ func addFlags(acc []Flag, fs []Flag, dt time.Duration) []Flag {
 		found := false
 		for i := range acc {
 			if acc[i].Name == f.Name {
-				acc[i].Value = max(acc[i].Value, f.Value)
+				if f.Value.SI > acc[i].Value.SI {
+					acc[i].Value = f.Value
+				}
 				acc[i].Time += dt
 				found = true
 				break

@@ -13,11 +13,11 @@ func TestFlagText(t *testing.T) {
 		f    Flag
 		want string
 	}{
-		{Flag{Name: "hydrostat: pump rated pressure", Value: float64(units.Bar(290)), Limit: float64(units.Bar(150)), Unit: "Pa", Time: 42 * time.Minute},
-			"hydrostat: pump rated pressure 290 bar above rated 150 bar for 42 min"},
-		{Flag{Name: FlagTyreOverload, Value: 31500, Limit: 30000, Unit: "N", Time: 12 * time.Second},
+		{Flag{Name: "hydrostat: pump pressure", Value: units.Of(units.Bar(290)), Limit: units.Of(units.Bar(150)), Time: 42 * time.Minute},
+			"hydrostat: pump pressure 290 bar above rated 150 bar for 42 min"},
+		{Flag{Name: FlagTyreOverload, Value: units.Of(units.Newtons(31500)), Limit: units.Of(units.Newtons(30000)), Time: 12 * time.Second},
 			"tyre load 31.5 kN above rated 30 kN for 12 s"},
-		{Flag{Name: "hydrostat: motor speed", Value: float64(units.RPM(4620)), Limit: float64(units.RPM(4500)), Unit: "rad/s"},
+		{Flag{Name: "hydrostat: motor speed", Value: units.Of(units.RPM(4620)), Limit: units.Of(units.RPM(4500))},
 			"hydrostat: motor speed 4620 rpm above rated 4500 rpm"},
 	} {
 		if got := c.f.String(); got != c.want {
@@ -30,17 +30,17 @@ func TestFlagText(t *testing.T) {
 // largest value and the summed time.
 func TestAddFlags(t *testing.T) {
 	t.Parallel()
-	p := Flag{Name: "p", Value: 2, Limit: 1, Unit: "Pa"}
-	q := Flag{Name: "q", Value: 5, Limit: 4, Unit: "N"}
+	p := Flag{Name: "p", Value: units.Plain(2), Limit: units.Plain(1)}
+	q := Flag{Name: "q", Value: units.Plain(5), Limit: units.Plain(4)}
 	var acc []Flag
 	acc = addFlags(acc, []Flag{p}, time.Second)
-	p.Value = 3
+	p.Value = units.Plain(3)
 	acc = addFlags(acc, []Flag{p, q}, 2*time.Second)
-	if len(acc) != 2 || acc[0].Value != 3 || acc[0].Time != 3*time.Second || acc[1].Time != 2*time.Second {
+	if len(acc) != 2 || acc[0].Value.SI != 3 || acc[0].Time != 3*time.Second || acc[1].Time != 2*time.Second {
 		t.Errorf("addFlags = %+v", acc)
 	}
-	d := Day{Segments: []SegmentResult{{Flags: acc}, {Flags: []Flag{{Name: "p", Value: 2.5, Time: time.Minute}}}}}
-	if got := d.Flags(); len(got) != 2 || got[0].Time != time.Minute+3*time.Second || got[0].Value != 3 {
+	d := Day{Segments: []SegmentResult{{Flags: acc}, {Flags: []Flag{{Name: "p", Value: units.Plain(2.5), Time: time.Minute}}}}}
+	if got := d.Flags(); len(got) != 2 || got[0].Time != time.Minute+3*time.Second || got[0].Value.SI != 3 {
 		t.Errorf("Day.Flags() = %+v", got)
 	}
 }

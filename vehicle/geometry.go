@@ -21,19 +21,19 @@ type Geometry struct {
 }
 
 func (g *Geometry) validate() error {
-	if err := positive("Geometry.Wheelbase", float64(g.Wheelbase)); err != nil {
+	if err := positive("Geometry.Wheelbase", g.Wheelbase); err != nil {
 		return err
 	}
-	if err := positive("Geometry.CentreOfMass", float64(g.CentreOfMass)); err != nil {
+	if err := positive("Geometry.CentreOfMass", g.CentreOfMass); err != nil {
 		return err
 	}
 	if g.CentreOfMass >= g.Wheelbase {
-		return invalid("Geometry.CentreOfMass", float64(g.CentreOfMass), "must be less than the wheelbase")
+		return invalid("Geometry.CentreOfMass", g.CentreOfMass, "must be less than the wheelbase")
 	}
-	if err := nonNegative("Geometry.CentreOfMassHeight", float64(g.CentreOfMassHeight)); err != nil {
+	if err := nonNegative("Geometry.CentreOfMassHeight", g.CentreOfMassHeight); err != nil {
 		return err
 	}
-	return nonNegative("Geometry.HitchHeight", float64(g.HitchHeight))
+	return nonNegative("Geometry.HitchHeight", g.HitchHeight)
 }
 
 // AxleLoads returns the front and rear axle loads under demand d, from the
@@ -61,7 +61,7 @@ func (v *Vehicle) AxleLoads(d Demand) (front, rear units.Force, err error) {
 	normal := m * gr * cosGrade(d.Grade)
 	wf := (m*gr*(x*cosGrade(d.Grade)-h*sinGrade(d.Grade)) - m*float64(d.Acceleration)*h - hitch*float64(g.HitchHeight)) / L
 	if !(wf > 0) {
-		return 0, 0, &LimitError{Quantity: "front axle load", Value: wf, Limit: 0, Unit: "N", Err: ErrStability}
+		return 0, 0, &LimitError{Quantity: "front axle load", Value: units.Of(units.Force(wf)), Bound: "zero load", Limit: units.Of(units.Force(0)), Err: ErrStability}
 	}
 	return units.Force(wf), units.Force(normal - wf), nil
 }

@@ -119,7 +119,7 @@ func (r DraftRow) Draft(t Texture, v units.Speed, width float64, depth units.Len
 	if t < Fine || t > Coarse {
 		return 0, invalid("Texture", float64(t), "must be Fine, Medium or Coarse")
 	}
-	if err := nonNegative("speed", float64(v)); err != nil {
+	if err := nonNegative("speed", v); err != nil {
 		return 0, err
 	}
 	if err := positive("width", width); err != nil {
@@ -127,7 +127,7 @@ func (r DraftRow) Draft(t Texture, v units.Speed, width float64, depth units.Len
 	}
 	T := 1.0
 	if !r.Minor {
-		if err := positive("depth", float64(depth)); err != nil {
+		if err := positive("depth", depth); err != nil {
 			return 0, err
 		}
 		T = depth.Centimetres()
@@ -166,10 +166,10 @@ func (r PTORow) Power(width units.Length, feed units.MassFlow) (units.Power, err
 	if !finite(float64(r.A), float64(r.B), r.C) || r.A < 0 || r.B < 0 || r.C < 0 {
 		return 0, invalid("PTORow", math.NaN(), "parameters must be finite and not negative")
 	}
-	if err := nonNegative("width", float64(width)); err != nil {
+	if err := nonNegative("width", width); err != nil {
 		return 0, err
 	}
-	if err := nonNegative("feed", float64(feed)); err != nil {
+	if err := nonNegative("feed", feed); err != nil {
 		return 0, err
 	}
 	kwhPerTonne := r.C * 3.6e6 / 1000 // J per kg

@@ -33,13 +33,16 @@ func FromLayout(l powersplit.Layout) (*LayoutDrive, error) {
 		return nil, invalid("layout outputs", float64(n), "must be exactly one")
 	}
 	if l.Ranges() < 1 {
-		return nil, invalid("layout ranges", 0, "needs at least one range")
+		return nil, invalid("layout ranges", 0.0, "needs at least one range")
 	}
 	return &LayoutDrive{layout: l, solver: powersplit.NewSolver(l), outs: make([]powersplit.OutputDemand, 1)}, nil
 }
 
 // Ranges implements Transmission.
 func (d *LayoutDrive) Ranges() int { return d.layout.Ranges() }
+
+// RangeName implements RangeNamer with the layout's range names.
+func (d *LayoutDrive) RangeName(i int) string { return d.layout.RangeName(i) }
 
 // Layout returns the adapted layout.
 func (d *LayoutDrive) Layout() powersplit.Layout { return d.layout }
@@ -88,7 +91,7 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 		}
 	}
 	for _, m := range st.Flags {
-		p.Flags = append(p.Flags, Flag{Name: m.Element + ": " + m.Quantity, Value: m.Value, Limit: m.Limit, Unit: m.Unit})
+		p.Flags = append(p.Flags, Flag{Name: m.Element + ": " + m.Quantity, Value: m.Value, Limit: m.Limit})
 	}
 	return p, nil
 }

@@ -40,7 +40,7 @@ func EngineSpeed(ratio float64, s units.AngularVelocity) (units.AngularVelocity,
 	if err := positive("PTO ratio", ratio); err != nil {
 		return 0, err
 	}
-	if err := positive("PTO shaft speed", float64(s)); err != nil {
+	if err := positive("PTO shaft speed", s); err != nil {
 		return 0, err
 	}
 	return units.AngularVelocity(ratio * float64(s)), nil
@@ -50,7 +50,7 @@ func EngineSpeed(ratio float64, s units.AngularVelocity) (units.AngularVelocity,
 // s, one per PTO ratio, in the order of Ratios.
 func (p PTO) EngineSpeeds(s units.AngularVelocity) ([]units.AngularVelocity, error) {
 	if len(p.Ratios) == 0 {
-		return nil, invalid("PTO.Ratios", 0, "the vehicle has no PTO")
+		return nil, invalid("PTO.Ratios", 0.0, "the vehicle has no PTO")
 	}
 	out := make([]units.AngularVelocity, len(p.Ratios))
 	for i, r := range p.Ratios {
@@ -74,7 +74,7 @@ func (p PTO) validate() error {
 			return err
 		}
 	}
-	return nonNegative("PTO.MaxPower", float64(p.MaxPower))
+	return nonNegative("PTO.MaxPower", p.MaxPower)
 }
 
 // matches reports whether engine speed w turns the shaft at s through one

@@ -46,7 +46,7 @@ func RotatingMass(inertiaKgM2, ratio float64, r units.Length) (units.Mass, error
 	if err := isFinite("ratio", ratio); err != nil {
 		return 0, err
 	}
-	if err := positive("r", float64(r)); err != nil {
+	if err := positive("r", r); err != nil {
 		return 0, err
 	}
 	return units.Mass(inertiaKgM2 * ratio * ratio / (float64(r) * float64(r))), nil
@@ -65,10 +65,10 @@ type Trailer struct {
 
 // Validate reports whether the trailer's fields are valid.
 func (t Trailer) Validate() error {
-	if err := nonNegative("Trailer.Mass", float64(t.Mass)); err != nil {
+	if err := nonNegative("Trailer.Mass", t.Mass); err != nil {
 		return err
 	}
-	if err := nonNegative("Trailer.RotatingMass", float64(t.RotatingMass)); err != nil {
+	if err := nonNegative("Trailer.RotatingMass", t.RotatingMass); err != nil {
 		return err
 	}
 	if err := nonNegative("Trailer.RollingCoefficient", t.RollingCoefficient); err != nil {

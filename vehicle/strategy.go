@@ -75,7 +75,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 		}
 	}
 	if !found {
-		return Point{}, infeasibleTries(tries)
+		return Point{}, infeasibleTries(v.s.Transmission, tries)
 	}
 	return best, nil
 }
@@ -165,7 +165,7 @@ func bestRange(v *Vehicle, d Demand, ws []units.AngularVelocity) (Point, error) 
 		}
 	}
 	if !found {
-		return Point{}, infeasibleTries(tries)
+		return Point{}, infeasibleTries(v.s.Transmission, tries)
 	}
 	return best, nil
 }
@@ -188,13 +188,13 @@ type try struct {
 
 // infeasibleTries is infeasible with each try's error named by its range
 // (and engine speed); the names are built only when every try failed.
-func infeasibleTries(tries []try) error {
+func infeasibleTries(tr Transmission, tries []try) error {
 	errs := make([]error, len(tries))
 	for i, t := range tries {
 		if t.engine != 0 {
-			errs[i] = fmt.Errorf("range %d at %.0f rpm: %w", t.rng, t.engine.RPM(), t.err)
+			errs[i] = fmt.Errorf("%s at %v: %w", RangeName(tr, t.rng), t.engine, t.err)
 		} else {
-			errs[i] = fmt.Errorf("range %d: %w", t.rng, t.err)
+			errs[i] = fmt.Errorf("%s: %w", RangeName(tr, t.rng), t.err)
 		}
 	}
 	return infeasible(errs...)

@@ -2,6 +2,7 @@ package vehicle
 
 import (
 	"math"
+	"strconv"
 
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -23,6 +24,24 @@ type Transmission interface {
 	// the output at speed out (>= 0) carrying torque outTorque (>= 0, the
 	// torque the output delivers to the final drive).
 	Operate(rng int, engine, out units.AngularVelocity, outTorque units.Torque) (DrivePoint, error)
+}
+
+// A RangeNamer is a Transmission that names its ranges; the vehicle's
+// reports use the names.
+type RangeNamer interface {
+	// RangeName returns the name of range i (0-based), "" if it has none.
+	RangeName(i int) string
+}
+
+// RangeName returns the name transmission t gives range i, or "range i+1"
+// when t does not name its ranges.
+func RangeName(t Transmission, i int) string {
+	if n, ok := t.(RangeNamer); ok {
+		if s := n.RangeName(i); s != "" {
+			return s
+		}
+	}
+	return "range " + strconv.Itoa(i+1)
 }
 
 // A DrivePoint is a transmission's solved state at one operating point.
@@ -103,7 +122,7 @@ type SplitEstimate struct {
 // Validate reports whether the estimate is usable.
 func (s *SplitEstimate) Validate() error {
 	if len(s.Spans) == 0 {
-		return invalid("SplitEstimate.Spans", 0, "needs at least one range")
+		return invalid("SplitEstimate.Spans", 0.0, "needs at least one range")
 	}
 	for _, r := range s.Spans {
 		if !finite(r.MinRatio, r.MaxRatio, r.MechanicalPoint) || r.MinRatio < 0 || r.MaxRatio <= r.MinRatio || r.MechanicalPoint <= 0 {
@@ -116,10 +135,10 @@ func (s *SplitEstimate) Validate() error {
 	if err := fraction("SplitEstimate.HydrostaticEfficiency", s.HydrostaticEfficiency); err != nil {
 		return err
 	}
-	if err := nonNegative("SplitEstimate.NoLoadLoss", float64(s.NoLoadLoss)); err != nil {
+	if err := nonNegative("SplitEstimate.NoLoadLoss", s.NoLoadLoss); err != nil {
 		return err
 	}
-	return nonNegative("SplitEstimate.MaxInputTorque", float64(s.MaxInputTorque))
+	return nonNegative("SplitEstimate.MaxInputTorque", s.MaxInputTorque)
 }
 
 // Ranges returns the number of ranges.
@@ -130,22 +149,22 @@ func (s *SplitEstimate) Operate(rng int, engine, out units.AngularVelocity, outT
 	if rng < 0 || rng >= len(s.Spans) {
 		return DrivePoint{}, invalid("range", float64(rng), "does not exist")
 	}
-	if err := positive("engine speed", float64(engine)); err != nil {
+	if err := positive("engine speed", engine); err != nil {
 		return DrivePoint{}, err
 	}
-	if err := nonNegative("output speed", float64(out)); err != nil {
+	if err := nonNegative("output speed", out); err != nil {
 		return DrivePoint{}, err
 	}
-	if err := nonNegative("output torque", float64(outTorque)); err != nil {
+	if err := nonNegative("output torque", outTorque); err != nil {
 		return DrivePoint{}, err
 	}
 	r := s.Spans[rng]
 	nu := float64(out) / float64(engine)
 	if nu < r.MinRatio*(1-1e-12) {
-		return DrivePoint{}, &LimitError{Quantity: "speed ratio", Value: nu, Limit: r.MinRatio, Unit: "1", Err: ErrTransmission}
+		return DrivePoint{}, &LimitError{Quantity: "speed ratio", Value: units.Plain(nu), Bound: "range minimum", Limit: units.Plain(r.MinRatio), Err: ErrTransmission}
 	}
 	if nu > r.MaxRatio*(1+1e-12) {
-		return DrivePoint{}, &LimitError{Quantity: "speed ratio", Value: nu, Limit: r.MaxRatio, Unit: "1", Err: ErrTransmission}
+		return DrivePoint{}, &LimitError{Quantity: "speed ratio", Value: units.Plain(nu), Bound: "range maximum", Limit: units.Plain(r.MaxRatio), Err: ErrTransmission}
 	}
 	h := 1 - nu/r.MechanicalPoint
 	ah := math.Abs(h)
@@ -154,7 +173,7 @@ func (s *SplitEstimate) Operate(rng int, engine, out units.AngularVelocity, outT
 	mech := pOut*(1-h)*(1/s.MechanicalEfficiency-1) + float64(s.NoLoadLoss)
 	in := units.Torque((pOut + hydro + mech) / float64(engine))
 	if s.MaxInputTorque > 0 && in > s.MaxInputTorque {
-		return DrivePoint{}, &LimitError{Quantity: "transmission input torque", Value: float64(in), Limit: float64(s.MaxInputTorque), Unit: "N·m", Err: ErrTransmission}
+		return DrivePoint{}, &LimitError{Quantity: "transmission input torque", Value: units.Of(in), Bound: "rated input torque", Limit: units.Of(s.MaxInputTorque), Err: ErrTransmission}
 	}
 	share := 0.0
 	if pIn := pOut + hydro + mech; pIn > 0 {

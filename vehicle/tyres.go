@@ -57,10 +57,10 @@ type SlipCurve struct {
 
 // Validate reports whether the curve is usable.
 func (c SlipCurve) Validate() error {
-	if err := positive("SlipCurve.Weight", float64(c.Weight)); err != nil {
+	if err := positive("SlipCurve.Weight", c.Weight); err != nil {
 		return err
 	}
-	if err := positive("SlipCurve.Radius", float64(c.Radius)); err != nil {
+	if err := positive("SlipCurve.Radius", c.Radius); err != nil {
 		return err
 	}
 	if err := nonNegative("SlipCurve.Rolling", c.Rolling); err != nil || c.Rolling >= 1 {
@@ -77,13 +77,13 @@ func (c SlipCurve) Drive(pull units.Force, grade float64, v units.Speed) (Wheels
 	if err := c.Validate(); err != nil {
 		return Wheels{}, err
 	}
-	if err := nonNegative("pull", float64(pull)); err != nil {
+	if err := nonNegative("pull", pull); err != nil {
 		return Wheels{}, err
 	}
 	if err := isFinite("grade", grade); err != nil {
 		return Wheels{}, err
 	}
-	if err := positive("travel speed", float64(v)); err != nil {
+	if err := positive("travel speed", v); err != nil {
 		return Wheels{}, err
 	}
 	w := float64(c.Weight) * cosGrade(grade)
@@ -91,11 +91,11 @@ func (c SlipCurve) Drive(pull units.Force, grade float64, v units.Speed) (Wheels
 	gross := float64(pull) + mr
 	mu := gross / w
 	if mu >= c.PeakTraction*(1-1e-9) {
-		return Wheels{}, &LimitError{Quantity: "gross traction", Value: gross, Limit: c.PeakTraction * w, Unit: "N", Err: ErrTraction}
+		return Wheels{}, &LimitError{Quantity: "gross traction", Value: units.Of(units.Force(gross)), Bound: "peak traction", Limit: units.Of(units.Force(c.PeakTraction * w)), Err: ErrTraction}
 	}
 	s := -math.Log1p(-mu/c.PeakTraction) / c.SlipRate
 	if s >= 0.99 {
-		return Wheels{}, &LimitError{Quantity: "slip", Value: s, Limit: 0.99, Unit: "1", Err: ErrTraction}
+		return Wheels{}, &LimitError{Quantity: "slip", Value: units.Plain(s), Bound: "highest slip", Limit: units.Plain(0.99), Err: ErrTraction}
 	}
 	vs := float64(v)
 	return Wheels{
@@ -126,10 +126,10 @@ type Tyres struct {
 
 // Drive implements Traction.
 func (t Tyres) Drive(pull units.Force, grade float64, v units.Speed) (Wheels, error) {
-	if err := nonNegative("pull", float64(pull)); err != nil {
+	if err := nonNegative("pull", pull); err != nil {
 		return Wheels{}, err
 	}
-	if err := positive("travel speed", float64(v)); err != nil {
+	if err := positive("travel speed", v); err != nil {
 		return Wheels{}, err
 	}
 	if t.Model == nil {

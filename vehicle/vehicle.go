@@ -50,19 +50,19 @@ type Vehicle struct {
 
 // New validates the spec and builds the vehicle.
 func New(s Spec) (*Vehicle, error) {
-	if err := positive("Spec.Mass", float64(s.Mass)); err != nil {
+	if err := positive("Spec.Mass", s.Mass); err != nil {
 		return nil, err
 	}
-	if err := nonNegative("Spec.RotatingMass", float64(s.RotatingMass)); err != nil {
+	if err := nonNegative("Spec.RotatingMass", s.RotatingMass); err != nil {
 		return nil, err
 	}
-	if err := nonNegative("Spec.DragArea", float64(s.DragArea)); err != nil {
+	if err := nonNegative("Spec.DragArea", s.DragArea); err != nil {
 		return nil, err
 	}
 	if s.AirDensity == 0 {
 		s.AirDensity = AirDensity
 	}
-	if err := positive("Spec.AirDensity", float64(s.AirDensity)); err != nil {
+	if err := positive("Spec.AirDensity", s.AirDensity); err != nil {
 		return nil, err
 	}
 	if s.Tyres == nil {
@@ -120,13 +120,13 @@ type Demand struct {
 
 // Validate reports whether the demand is usable.
 func (d Demand) Validate() error {
-	if err := nonNegative("Demand.Speed", float64(d.Speed)); err != nil {
+	if err := nonNegative("Demand.Speed", d.Speed); err != nil {
 		return err
 	}
-	if err := isFinite("Demand.Acceleration", float64(d.Acceleration)); err != nil {
+	if err := isFinite("Demand.Acceleration", d.Acceleration); err != nil {
 		return err
 	}
-	if err := nonNegative("Demand.Draft", float64(d.Draft)); err != nil {
+	if err := nonNegative("Demand.Draft", d.Draft); err != nil {
 		return err
 	}
 	if err := d.Trailer.Validate(); err != nil {
@@ -138,10 +138,10 @@ func (d Demand) Validate() error {
 	if math.Abs(d.Grade) > 1 {
 		return invalid("Demand.Grade", d.Grade, "must be within ±1 (45°)")
 	}
-	if err := nonNegative("Demand.PTOPower", float64(d.PTOPower)); err != nil {
+	if err := nonNegative("Demand.PTOPower", d.PTOPower); err != nil {
 		return err
 	}
-	return nonNegative("Demand.PTOSpeed", float64(d.PTOSpeed))
+	return nonNegative("Demand.PTOSpeed", d.PTOSpeed)
 }
 
 // Flows are the power flows of an operating point, all in watts. They
@@ -215,7 +215,7 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		return Point{}, err
 	}
 	if !finite(float64(w)) || w <= 0 {
-		return Point{}, invalid("engine speed", float64(w), "must be finite and positive")
+		return Point{}, invalid("engine speed", w, "must be finite and positive")
 	}
 	s := &v.s
 	p := Point{Demand: d, EngineSpeed: w, Range: -1}
@@ -225,14 +225,14 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 	// PTO.
 	if d.PTOPower > 0 || d.PTOSpeed > 0 {
 		if len(s.PTO.Ratios) == 0 {
-			return Point{}, invalid("Demand.PTOPower", float64(d.PTOPower), "needs a vehicle with a PTO")
+			return Point{}, invalid("Demand.PTOPower", d.PTOPower, "needs a vehicle with a PTO")
 		}
 		if s.PTO.MaxPower > 0 && d.PTOPower > s.PTO.MaxPower {
-			return Point{}, &LimitError{Quantity: "PTO power", Value: float64(d.PTOPower), Limit: float64(s.PTO.MaxPower), Unit: "W", Err: ErrPTOLimit}
+			return Point{}, &LimitError{Quantity: "PTO power", Value: units.Of(d.PTOPower), Bound: "PTO rating", Limit: units.Of(s.PTO.MaxPower), Err: ErrPTOLimit}
 		}
 		if d.PTOSpeed > 0 && !s.PTO.matches(w, d.PTOSpeed) {
-			return Point{}, &LimitError{Quantity: "engine speed for the PTO speed", Value: float64(w),
-				Limit: s.PTO.Ratios[0] * float64(d.PTOSpeed), Unit: "rad/s", Err: ErrInfeasible}
+			return Point{}, &LimitError{Quantity: "engine speed", Value: units.Of(w),
+				Bound: "engine speed for the PTO speed", Limit: units.Of(units.AngularVelocity(s.PTO.Ratios[0] * float64(d.PTOSpeed))), Err: ErrInfeasible}
 		}
 		f.PTO = d.PTOPower
 		f.PTOLoss = units.Power(float64(d.PTOPower) * (1/s.PTO.efficiency() - 1))
@@ -274,11 +274,11 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		}
 		useful := math.Max(pull, 0) * vs
 		if bal := float64(wh.Power) - float64(wh.SlipLoss) - float64(wh.RollingLoss) - useful; math.Abs(bal) > 1e-6*math.Max(float64(wh.Power), 1) {
-			return Point{}, &LimitError{Quantity: "tyre power balance", Value: bal, Limit: 1e-6 * float64(wh.Power), Unit: "W", Err: ErrTraction}
+			return Point{}, &LimitError{Quantity: "tyre power balance", Value: units.Of(units.Power(bal)), Bound: "tolerance", Limit: units.Of(units.Power(1e-6 * float64(wh.Power))), Err: ErrTraction}
 		}
 		p.Slip = wh.Slip
 		if wh.Overloaded {
-			p.Flags = append(p.Flags, Flag{Name: FlagTyreOverload, Value: float64(wh.TyreLoad), Limit: float64(wh.RatedLoad), Unit: "N"})
+			p.Flags = append(p.Flags, Flag{Name: FlagTyreOverload, Value: units.Of(wh.TyreLoad), Limit: units.Of(wh.RatedLoad)})
 		}
 		f.Rolling = wh.RollingLoss
 		// Close the tyre balance exactly on the slip loss (its rounding is
@@ -305,7 +305,7 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 			dp.HydrostaticLoss < 0 || dp.MechanicalLoss < 0 ||
 			math.Abs(pin-pout-float64(dp.HydrostaticLoss)-float64(dp.MechanicalLoss)) > 1e-6*math.Max(math.Abs(pin), 1) ||
 			math.Abs(pout-float64(outTorque)*float64(out)) > 1e-6*math.Max(pout, 1) {
-			return Point{}, &LimitError{Quantity: "transmission power balance", Value: pin - pout - float64(dp.HydrostaticLoss+dp.MechanicalLoss), Limit: 1e-6 * math.Abs(pin), Unit: "W", Err: ErrTransmission}
+			return Point{}, &LimitError{Quantity: "transmission power balance", Value: units.Of(units.Power(pin - pout - float64(dp.HydrostaticLoss+dp.MechanicalLoss))), Bound: "tolerance", Limit: units.Of(units.Power(1e-6 * math.Abs(pin))), Err: ErrTransmission}
 		}
 		p.Range = rng
 		p.Drive = dp
@@ -336,7 +336,7 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 	f.Fuel = units.Power(float64(fuel) * float64(v.s.Engine.fuel.HeatingValue))
 	f.EngineLoss = f.Fuel - f.Engine
 	if f.EngineLoss < 0 {
-		return Point{}, &LimitError{Quantity: "engine efficiency", Value: float64(f.Engine) / float64(f.Fuel), Limit: 1, Unit: "1", Err: ErrInvalid}
+		return Point{}, &LimitError{Quantity: "engine efficiency", Value: units.Plain(float64(f.Engine) / float64(f.Fuel)), Limit: units.Plain(1), Err: ErrInvalid}
 	}
 	return p, nil
 }
