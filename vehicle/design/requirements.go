@@ -396,7 +396,7 @@ func (f *File) pumpSpeed(l powersplit.Layout, w units.AngularVelocity) units.Ang
 		}
 		for _, m := range st.Margins {
 			if strings.Contains(m.Quantity, "pump") && strings.Contains(m.Quantity, "speed") {
-				return units.AngularVelocity(m.Value)
+				return units.AngularVelocity(m.Value.SI)
 			}
 		}
 	}
@@ -417,17 +417,17 @@ func (f *File) unitState(s *powersplit.Solver, st *powersplit.State, rg int, w u
 	}
 	var pump, motor float64
 	for _, q := range st.Margins {
-		if q.Unit != "rad/s" {
+		if q.Value.Kind != units.AngularVelocityKind {
 			continue
 		}
-		if q.Limit > 0 && q.Value/q.Limit > worst {
-			worst, m = q.Value/q.Limit, q
+		if !q.Unchecked && q.Limit.SI > 0 && q.Value.SI/q.Limit.SI > worst {
+			worst, m = q.Value.SI/q.Limit.SI, q
 		}
 		switch {
 		case strings.Contains(q.Quantity, "pump"):
-			pump = q.Value
+			pump = q.Value.SI
 		case strings.Contains(q.Quantity, "motor") && motor == 0:
-			motor = q.Value
+			motor = q.Value.SI
 		}
 	}
 	if pump > 0 {
@@ -463,7 +463,7 @@ func (f *File) unitSpeedCheck(l powersplit.Layout, ivs []Interval, w units.Angul
 			if ok && r < best {
 				best = r
 				bestAt = fmt.Sprintf("range %s at %.2f km/h, engine %.0f rpm: %s %s %.0f of %.0f rpm", names[rg], v.KMH(), w.RPM(),
-					m.Element, m.Quantity, units.AngularVelocity(m.Value).RPM(), units.AngularVelocity(m.Limit).RPM())
+					m.Element, m.Quantity, units.AngularVelocity(m.Value.SI).RPM(), units.AngularVelocity(m.Limit.SI).RPM())
 			}
 		}
 		if math.IsInf(best, 1) { // a gap: the gap check reports it
