@@ -49,7 +49,7 @@ func (d Day) WriteCSV(w io.Writer) error {
 // AuditCSVHeader is the header row of Day.WriteAuditCSV and
 // Day.WriteTotalsCSV (energies in MJ).
 var AuditCSVHeader = []string{"design", "segment", "segment_name", "kind", "duration_s", "distance_m", "fuel_kg",
-	"fuel_MJ", "engine_loss_MJ", "engine_work_MJ", "hydrostatic_loss_MJ", "mechanical_loss_MJ",
+	"fuel_MJ", "engine_loss_MJ", "engine_work_MJ", "engine_braking_MJ", "hydrostatic_loss_MJ", "mechanical_loss_MJ", "no_load_loss_MJ",
 	"pto_loss_MJ", "pto_work_MJ", "slip_loss_MJ", "rolling_loss_MJ", "brake_MJ", "drawbar_MJ",
 	"trailer_rolling_MJ", "aero_MJ", "potential_MJ", "kinetic_MJ", "relative_residual", "error"}
 
@@ -92,8 +92,8 @@ func auditRow(design, idx, name, kind string, a Audit, err error) []string {
 	}
 	mj := func(e interface{ Megajoules() float64 }) string { return ftoa(e.Megajoules()) }
 	return []string{design, idx, name, kind, ftoa(a.Duration.Seconds()), ftoa(float64(a.Distance)),
-		ftoa(float64(a.Fuel)), mj(a.FuelEnergy), mj(a.EngineLoss), mj(a.EngineWork), mj(a.Hydrostatic),
-		mj(a.Mechanical), mj(a.PTOLoss), mj(a.PTOWork), mj(a.Slip), mj(a.Rolling), mj(a.Brake),
+		ftoa(float64(a.Fuel)), mj(a.FuelEnergy), mj(a.EngineLoss), mj(a.EngineWork), mj(a.EngineBraking), mj(a.Hydrostatic),
+		mj(a.Mechanical), mj(a.NoLoad), mj(a.PTOLoss), mj(a.PTOWork), mj(a.Slip), mj(a.Rolling), mj(a.Brake),
 		mj(a.Drawbar), mj(a.Trailer), mj(a.Aero), mj(a.Potential), mj(a.Kinetic),
 		ftoa(a.RelativeResidual()), msg}
 }

@@ -106,8 +106,9 @@ type Step struct {
 
 // An Audit is the energy account of a segment or a day. It closes as
 //
-//	FuelEnergy = EngineLoss + Hydrostatic + Mechanical + PTOLoss + PTOWork
-//	           + Slip + Rolling + Brake + Drawbar + Trailer + Aero + Potential + Kinetic
+//	FuelEnergy = EngineLoss + EngineBraking + Hydrostatic + Mechanical + NoLoad
+//	           + PTOLoss + PTOWork + Slip + Rolling + Brake + Drawbar + Trailer
+//	           + Aero + Potential + Kinetic
 //
 // where EngineWork = FuelEnergy − EngineLoss, Potential is the gain in
 // potential energy (m·g·Δh over tractor and trailer) and Kinetic the gain
@@ -120,9 +121,15 @@ type Audit struct {
 	FuelEnergy units.Energy
 	EngineLoss units.Energy
 	EngineWork units.Energy
-	// Transmission losses: hydrostatic, and mechanical including the final drive.
-	Hydrostatic, Mechanical units.Energy
-	PTOLoss, PTOWork        units.Energy
+	// EngineBraking is the energy the motored engine absorbs in overrun
+	// (downhill, slowing), with the fuel cut.
+	EngineBraking units.Energy
+	// Transmission losses: hydrostatic, mechanical (load-dependent,
+	// including the final drive) and no-load (load-independent drag, by
+	// name in NoLoadParts, in the order first met).
+	Hydrostatic, Mechanical, NoLoad units.Energy
+	NoLoadParts                     []EnergyPart
+	PTOLoss, PTOWork                units.Energy
 	// Tyre losses of the tractor, and energy the brakes absorb.
 	Slip, Rolling, Brake units.Energy
 	// Work done on the implement (draft), the trailer's rolling loss, drag.
@@ -135,9 +142,26 @@ type Audit struct {
 	MechanicalByElement units.Energy
 }
 
+// An EnergyPart is one named line of an energy account.
+type EnergyPart struct {
+	Name   string
+	Energy units.Energy
+}
+
+// addPart adds e to the part named name of parts.
+func addPart(parts []EnergyPart, name string, e units.Energy) []EnergyPart {
+	for i := range parts {
+		if parts[i].Name == name {
+			parts[i].Energy += e
+			return parts
+		}
+	}
+	return append(parts, EnergyPart{Name: name, Energy: e})
+}
+
 // Sinks returns the sum of every line the fuel energy goes to.
 func (a Audit) Sinks() units.Energy {
-	return a.EngineLoss + a.Hydrostatic + a.Mechanical + a.PTOLoss + a.PTOWork +
+	return a.EngineLoss + a.EngineBraking + a.Hydrostatic + a.Mechanical + a.NoLoad + a.PTOLoss + a.PTOWork +
 		a.Slip + a.Rolling + a.Brake + a.Drawbar + a.Trailer + a.Aero + a.Potential + a.Kinetic
 }
 
@@ -173,8 +197,13 @@ func (a *Audit) add(b Audit) {
 	a.FuelEnergy += b.FuelEnergy
 	a.EngineLoss += b.EngineLoss
 	a.EngineWork += b.EngineWork
+	a.EngineBraking += b.EngineBraking
 	a.Hydrostatic += b.Hydrostatic
 	a.Mechanical += b.Mechanical
+	a.NoLoad += b.NoLoad
+	for _, p := range b.NoLoadParts {
+		a.NoLoadParts = addPart(a.NoLoadParts, p.Name, p.Energy)
+	}
 	a.PTOLoss += b.PTOLoss
 	a.PTOWork += b.PTOWork
 	a.Slip += b.Slip
@@ -434,9 +463,14 @@ func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock floa
 		a.FuelEnergy += e(f.Fuel)
 		a.EngineLoss += e(f.EngineLoss)
 		a.EngineWork += e(f.Engine)
+		a.EngineBraking += e(f.EngineBraking)
 		a.Hydrostatic += e(f.Hydrostatic)
 		a.Mechanical += e(f.Mechanical)
 		a.MechanicalByElement += e(f.MechanicalByElement)
+		a.NoLoad += e(f.NoLoad)
+		for _, part := range p.Drive.NoLoad {
+			a.NoLoadParts = addPart(a.NoLoadParts, part.Name, e(part.Power))
+		}
 		a.PTOLoss += e(f.PTOLoss)
 		a.PTOWork += e(f.PTO)
 		a.Slip += e(f.Slip)

@@ -34,8 +34,14 @@
 // (m_t + m_tr)·a, θ = atan(grade) and m_r the rotating parts' equivalent
 // mass m_r = Σ J·i²/r² (RotatingMass). The tyres add their own rolling
 // resistance and slip: the wheel power is P·v + slip loss + rolling loss.
-// When the load drives the vehicle (downhill, slowing) the service brakes
-// absorb the surplus.
+// When the load drives the vehicle (downhill, slowing) the power flows back
+// through the transmission to the engine, which, motored with its fuel
+// cut, absorbs up to its motoring torque (Engine.MotoringTorque: a measured
+// curve from the spec, or the Chen–Flynn friction estimate); the service
+// brakes absorb only the surplus. Caution: engine braking on a descent
+// depends on the gear held and the engine's real motoring torque; brake
+// sizing and descent speeds are governed by local regulations and the
+// manufacturer's ratings, not by this estimate.
 //
 // # Implements
 //
@@ -82,9 +88,12 @@
 // point, range, efficiencies, slip, fuel) and an Audit per segment and for
 // the day:
 //
-//	fuel energy = engine loss + hydrostatic + mechanical + PTO loss + PTO work
-//	            + slip + rolling + brake + drawbar + trailer rolling + drag
-//	            + Δ potential + Δ kinetic
+//	fuel energy = engine loss + engine braking + hydrostatic + mechanical
+//	            + no-load + PTO loss + PTO work + slip + rolling + brake
+//	            + drawbar + trailer rolling + drag + Δ potential + Δ kinetic
+//
+// where the no-load line (the transmission's load-independent drag) is also
+// broken down by name (Audit.NoLoadParts).
 //
 // Δ kinetic is ½·m_eq·(v₁² − v₀²) from the segment's end speeds, which the
 // mid-point rule reproduces exactly, so the account closes to rounding

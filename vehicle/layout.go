@@ -48,7 +48,8 @@ func (d *LayoutDrive) RangeName(i int) string { return d.layout.RangeName(i) }
 func (d *LayoutDrive) Layout() powersplit.Layout { return d.layout }
 
 // Operate implements Transmission. Losses of the layout's hydrostatic loops
-// are HydrostaticLoss; all other elements' losses are MechanicalLoss. Rated
+// are HydrostaticLoss, its drag sources (powersplit.State.Drags) NoLoadLoss
+// and NoLoad by name, all other elements' losses MechanicalLoss. Rated
 // limits the solver flags without making the point infeasible are listed in
 // DrivePoint.Flags.
 func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTorque units.Torque) (DrivePoint, error) {
@@ -69,7 +70,7 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 	}
 	st := &d.st
 	hydro := float64(st.HydrostatLoss)
-	mech := float64(st.Loss) - hydro
+	mech := float64(st.Loss) - hydro - float64(st.DragLoss)
 	if mech < 0 { // rounding only: every element's loss is >= 0
 		mech = 0
 	}
@@ -80,6 +81,7 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 		OutputTorque:     outTorque,
 		HydrostaticLoss:  units.Power(hydro),
 		MechanicalLoss:   units.Power(mech),
+		NoLoadLoss:       st.DragLoss,
 		HydrostaticShare: st.HydraulicShare,
 		RangeName:        st.RangeName,
 	}
@@ -88,6 +90,12 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 		p.Hydrostat = UnitState{HighPressure: lp.High, PumpSpeed: lp.Pump.Speed, PumpSetting: lp.Pump.Setting}
 		if len(lp.Motors) > 0 {
 			p.Hydrostat.MotorSpeed, p.Hydrostat.MotorSetting = lp.Motors[0].Speed, lp.Motors[0].Setting
+		}
+	}
+	if len(st.Drags) > 0 {
+		p.NoLoad = make([]LossPart, len(st.Drags))
+		for i, dr := range st.Drags {
+			p.NoLoad[i] = LossPart{Name: dr.Name, Power: dr.Loss}
 		}
 	}
 	for _, m := range st.Flags {

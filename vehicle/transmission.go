@@ -14,15 +14,17 @@ import (
 // by FromLayout; SplitEstimate is a quick stand-in.
 //
 // Implementations must conserve power: InputTorque·engine speed = output
-// power + HydrostaticLoss + MechanicalLoss, each loss >= 0. The vehicle
+// power + HydrostaticLoss + MechanicalLoss + NoLoadLoss, each loss >= 0.
+// The output torque is negative when the load drives the engine (overrun:
+// downhill, slowing); then the input torque is normally negative too. The vehicle
 // checks the balance to 1e-6 relative and reports ErrTransmission if it
 // does not close.
 type Transmission interface {
 	// Ranges returns the number of ranges (at least 1).
 	Ranges() int
 	// Operate runs range rng (0-based) with the engine at speed engine and
-	// the output at speed out (>= 0) carrying torque outTorque (>= 0, the
-	// torque the output delivers to the final drive).
+	// the output at speed out (>= 0) carrying torque outTorque (the
+	// torque the output delivers to the final drive; negative in overrun).
 	Operate(rng int, engine, out units.AngularVelocity, outTorque units.Torque) (DrivePoint, error)
 }
 
@@ -51,8 +53,11 @@ type DrivePoint struct {
 	OutputSpeed  units.AngularVelocity // output shaft speed
 	OutputTorque units.Torque          // torque the output delivers
 	// HydrostaticLoss is the loss of the hydrostatic units and lines;
-	// MechanicalLoss the rest (gears, planetary sets, clutches, bearings).
-	HydrostaticLoss, MechanicalLoss units.Power
+	// MechanicalLoss the load-dependent rest (gears, planetary sets);
+	// NoLoadLoss the load-independent losses (bearings, churning, open
+	// plates, idle PTO, charge pump), listed by name in NoLoad.
+	HydrostaticLoss, MechanicalLoss, NoLoadLoss units.Power
+	NoLoad                                      []LossPart
 	// HydrostaticShare is the signed share of the input power that flows
 	// through the hydrostat (negative: circulating power).
 	HydrostaticShare float64
@@ -76,6 +81,12 @@ type UnitState struct {
 	HighPressure              units.Pressure
 	PumpSpeed, MotorSpeed     units.AngularVelocity
 	PumpSetting, MotorSetting float64
+}
+
+// A LossPart is one named loss.
+type LossPart struct {
+	Name  string
+	Power units.Power
 }
 
 // Efficiency returns the output power over the input power, or 0 when no
@@ -155,8 +166,8 @@ func (s *SplitEstimate) Operate(rng int, engine, out units.AngularVelocity, outT
 	if err := nonNegative("output speed", out); err != nil {
 		return DrivePoint{}, err
 	}
-	if err := nonNegative("output torque", outTorque); err != nil {
-		return DrivePoint{}, err
+	if !finite(float64(outTorque)) {
+		return DrivePoint{}, invalid("output torque", float64(outTorque), "must be finite")
 	}
 	r := s.Spans[rng]
 	nu := float64(out) / float64(engine)
@@ -169,14 +180,21 @@ func (s *SplitEstimate) Operate(rng int, engine, out units.AngularVelocity, outT
 	h := 1 - nu/r.MechanicalPoint
 	ah := math.Abs(h)
 	pOut := float64(outTorque) * float64(out)
-	hydro := pOut * ah * (1/s.HydrostaticEfficiency - 1)
-	mech := pOut*(1-h)*(1/s.MechanicalEfficiency-1) + float64(s.NoLoadLoss)
+	// In overrun (pOut < 0) the same paths carry the power back and lose
+	// the same fractions of what they pass on: with the path powers taken
+	// at the output, P_in = P_out + losses holds in both directions.
+	hydro := math.Abs(pOut) * ah * (1/s.HydrostaticEfficiency - 1)
+	mech := math.Abs(pOut)*math.Abs(1-h)*(1/s.MechanicalEfficiency-1) + float64(s.NoLoadLoss)
+	if pOut < 0 {
+		hydro = math.Abs(pOut) * ah * (1 - s.HydrostaticEfficiency)
+		mech = math.Abs(pOut)*math.Abs(1-h)*(1-s.MechanicalEfficiency) + float64(s.NoLoadLoss)
+	}
 	in := units.Torque((pOut + hydro + mech) / float64(engine))
 	if s.MaxInputTorque > 0 && in > s.MaxInputTorque {
 		return DrivePoint{}, &LimitError{Quantity: "transmission input torque", Value: units.Of(in), Bound: "rated input torque", Limit: units.Of(s.MaxInputTorque), Err: ErrTransmission}
 	}
 	share := 0.0
-	if pIn := pOut + hydro + mech; pIn > 0 {
+	if pIn := pOut + hydro + mech; pIn > 0 && pOut > 0 {
 		share = h * (pOut + hydro) / pIn
 	}
 	return DrivePoint{Range: rng, InputTorque: in, OutputSpeed: out, OutputTorque: outTorque,

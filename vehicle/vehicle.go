@@ -1,6 +1,7 @@
 package vehicle
 
 import (
+	"github.com/powersplit-dev/powersplit/internal/numeric"
 	"math"
 
 	"github.com/powersplit-dev/powersplit/units"
@@ -148,13 +149,16 @@ func (d Demand) Validate() error {
 // balance in two stages:
 //
 //	Fuel   = EngineLoss + Engine
-//	Engine = Hydrostatic + Mechanical + PTOLoss + PTO + Slip + Rolling + Brake
-//	         + Drawbar + Trailer + Aero + Grade + Inertia
+//	Engine = EngineBraking + Hydrostatic + Mechanical + NoLoad + PTOLoss + PTO
+//	         + Slip + Rolling + Brake + Drawbar + Trailer + Aero + Grade + Inertia
 //
-// Hydrostatic and Mechanical are the transmission's losses (Mechanical
-// includes the final drive), Slip and Rolling the tractor's tyre losses,
-// Brake the power the service brakes absorb when the load drives the
-// vehicle (downhill, slowing), Drawbar the implement's draft times speed,
+// Hydrostatic, Mechanical and NoLoad are the transmission's losses
+// (Mechanical the load-dependent rest including the final drive, NoLoad
+// the load-independent drag, by name in Drive.NoLoad), Slip and Rolling
+// the tractor's tyre losses. When the load drives the vehicle (downhill,
+// slowing) the power flows back: the engine, motored, absorbs up to its
+// motoring torque (EngineBraking, with Engine and Fuel zero) and the
+// service brakes absorb the rest (Brake). Drawbar is the implement's draft times speed,
 // Trailer the trailer's rolling loss, Grade and Inertia the rate of change
 // of potential and kinetic energy of tractor and trailer.
 //
@@ -165,7 +169,9 @@ func (d Demand) Validate() error {
 // every loss is accounted for; the audit carries both.
 type Flows struct {
 	Fuel, EngineLoss, Engine               units.Power
+	EngineBraking                          units.Power
 	Hydrostatic, Mechanical, PTOLoss, PTO  units.Power
+	NoLoad                                 units.Power
 	Slip, Rolling, Brake                   units.Power
 	Drawbar, Trailer, Aero, Grade, Inertia units.Power
 	MechanicalByElement                    units.Power
@@ -287,40 +293,98 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		wheelPower := float64(wh.Power)
 		if pull < 0 {
 			wheelPower += pull * vs
-			if wheelPower < 0 {
-				f.Brake = units.Power(-wheelPower)
-				wheelPower = 0
-			}
 		}
 		rng = min(max(rng, 0), s.Transmission.Ranges()-1)
 		out := units.AngularVelocity(float64(wh.Speed) * s.FinalDrive)
-		outTorque := units.Torque(wheelPower / s.FinalDriveEfficiency / float64(out))
-		dp, err := s.Transmission.Operate(rng, w, out, outTorque)
+		// wp is the wheel power into the drive: positive driving, negative
+		// in overrun, when the final drive passes on η_fd of it backwards.
+		operate := func(wp float64) (DrivePoint, error) {
+			ot := units.Torque(wp / s.FinalDriveEfficiency / float64(out))
+			if wp < 0 {
+				ot = units.Torque(wp * s.FinalDriveEfficiency / float64(out))
+			}
+			dp, err := s.Transmission.Operate(rng, w, out, ot)
+			if err != nil {
+				return dp, err
+			}
+			pin := float64(units.PowerFromTorque(dp.InputTorque, w))
+			pout := float64(units.PowerFromTorque(dp.OutputTorque, dp.OutputSpeed))
+			losses := float64(dp.HydrostaticLoss) + float64(dp.MechanicalLoss) + float64(dp.NoLoadLoss)
+			if !finite(pin, pout, losses) || dp.HydrostaticLoss < 0 || dp.MechanicalLoss < 0 || dp.NoLoadLoss < 0 ||
+				math.Abs(pin-pout-losses) > 1e-6*math.Max(math.Abs(pin), 1) ||
+				math.Abs(pout-float64(ot)*float64(out)) > 1e-6*math.Max(math.Abs(pout), 1) {
+				return dp, &LimitError{Quantity: "transmission power balance", Value: units.Of(units.Power(pin - pout - losses)), Bound: "tolerance", Limit: units.Of(units.Power(1e-6 * math.Abs(pin))), Err: ErrTransmission}
+			}
+			return dp, nil
+		}
+		wp := wheelPower
+		dp, err := operate(wp)
 		if err != nil {
 			return Point{}, err
 		}
-		pin := float64(units.PowerFromTorque(dp.InputTorque, w))
-		pout := float64(units.PowerFromTorque(dp.OutputTorque, dp.OutputSpeed))
-		if !finite(pin, pout, float64(dp.HydrostaticLoss), float64(dp.MechanicalLoss)) ||
-			dp.HydrostaticLoss < 0 || dp.MechanicalLoss < 0 ||
-			math.Abs(pin-pout-float64(dp.HydrostaticLoss)-float64(dp.MechanicalLoss)) > 1e-6*math.Max(math.Abs(pin), 1) ||
-			math.Abs(pout-float64(outTorque)*float64(out)) > 1e-6*math.Max(pout, 1) {
-			return Point{}, &LimitError{Quantity: "transmission power balance", Value: units.Of(units.Power(pin - pout - float64(dp.HydrostaticLoss+dp.MechanicalLoss))), Bound: "tolerance", Limit: units.Of(units.Power(1e-6 * math.Abs(pin))), Err: ErrTransmission}
+		if wp < 0 {
+			// Overrun: the engine absorbs up to its motoring torque; the
+			// service brakes take the rest of the wheel power.
+			tm := float64(v.s.Engine.MotoringTorque(w))
+			if float64(dp.InputTorque+ptoTorque) < -tm {
+				var ferr error
+				g := func(x float64) float64 {
+					d, err := operate(x)
+					if err != nil {
+						ferr = err
+						return math.NaN()
+					}
+					return float64(d.InputTorque+ptoTorque) + tm
+				}
+				x, err := numeric.Brent(g, wheelPower, 0, 1e-9*math.Abs(wheelPower), 100)
+				if ferr != nil {
+					return Point{}, ferr
+				}
+				if err != nil {
+					return Point{}, &LimitError{Quantity: "overrun wheel power", Value: units.Of(units.Power(wheelPower)), Bound: "no engine braking share found above", Limit: units.Of(units.Power(0)), Err: ErrTransmission}
+				}
+				wp = x
+				if dp, err = operate(wp); err != nil {
+					return Point{}, err
+				}
+			}
+			f.Brake = units.Power(wp - wheelPower)
 		}
+		pin := float64(units.PowerFromTorque(dp.InputTorque, w))
 		p.Range = rng
 		p.Drive = dp
 		p.Flags = append(p.Flags, dp.Flags...)
 		driveTorque = dp.InputTorque
 		f.Hydrostatic = dp.HydrostaticLoss
+		f.NoLoad = dp.NoLoadLoss
 		// The mechanical line takes the final drive and the transmission's
 		// own closure rounding, so the chain closes exactly.
-		f.Mechanical = units.Power(pin - float64(dp.HydrostaticLoss) - wheelPower)
-		f.MechanicalByElement = dp.MechanicalLoss + units.Power(wheelPower*(1/s.FinalDriveEfficiency-1))
+		f.Mechanical = units.Power(pin - float64(dp.HydrostaticLoss) - float64(dp.NoLoadLoss) - wp)
+		fd := wp * (1/s.FinalDriveEfficiency - 1)
+		if wp < 0 {
+			fd = -wp * (1 - s.FinalDriveEfficiency)
+		}
+		f.MechanicalByElement = dp.MechanicalLoss + units.Power(fd)
 	}
 	// Standing still, the brakes hold any net pull and no work is done.
 
-	// Engine.
+	// Engine. Driven by the load (et < 0), it is motored: it absorbs its
+	// motoring torque at most (the brakes took the rest above) and burns
+	// no fuel (fuel cut-off in overrun).
 	et := driveTorque + ptoTorque
+	max, err := v.s.Engine.MaxTorque(w)
+	if err != nil {
+		return Point{}, err
+	}
+	p.EngineTorque = et
+	p.LoadRatio = float64(et) / float64(max)
+	if et < 0 {
+		if tm := v.s.Engine.MotoringTorque(w); et < -tm*(1+1e-6) {
+			return Point{}, &LimitError{Quantity: "engine motored torque", Value: units.Of(-et), Bound: "motoring torque", Limit: units.Of(tm), EngineSpeed: w, Err: ErrEngineLimit}
+		}
+		f.EngineBraking = units.Power(-float64(et) * float64(w))
+		return p, nil
+	}
 	if err := v.s.Engine.check(w, et); err != nil {
 		return Point{}, err
 	}
@@ -328,11 +392,8 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 	if err != nil {
 		return Point{}, err
 	}
-	max, _ := v.s.Engine.MaxTorque(w)
-	p.EngineTorque = et
-	p.LoadRatio = float64(et) / float64(max)
 	p.FuelRate = fuel
-	f.Engine = units.Power(float64(driveTorque)*float64(w)) + f.PTO + f.PTOLoss
+	f.Engine = units.Power(float64(et) * float64(w))
 	f.Fuel = units.Power(float64(fuel) * float64(v.s.Engine.fuel.HeatingValue))
 	f.EngineLoss = f.Fuel - f.Engine
 	if f.EngineLoss < 0 {

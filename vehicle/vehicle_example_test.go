@@ -69,16 +69,16 @@ func ExampleSimulate() {
 		a := s.Audit
 		fmt.Printf("%-8s %5.0f s  fuel %6.3f kg  drawbar %5.2f MJ  PTO %5.2f MJ  transmission loss %5.2f MJ\n",
 			s.Name, a.Duration.Seconds(), a.Fuel.Kilograms(), a.Drawbar.Megajoules(), a.PTOWork.Megajoules(),
-			(a.Hydrostatic + a.Mechanical).Megajoules())
+			(a.Hydrostatic + a.Mechanical + a.NoLoad).Megajoules())
 	}
 	fmt.Printf("day: %.2f L of fuel, audit closes: %v\n", day.Audit.Volume(engine.Fuel()).Litres(), day.Audit.RelativeResidual() < 1e-6)
 	// Output:
 	// start        5 s  fuel  0.011 kg  drawbar  0.00 MJ  PTO  0.00 MJ  transmission loss  0.02 MJ
 	// disking    120 s  fuel  0.435 kg  drawbar  3.35 MJ  PTO  0.00 MJ  transmission loss  1.12 MJ
 	// turn        15 s  fuel  0.030 kg  drawbar  0.00 MJ  PTO  0.00 MJ  transmission loss  0.04 MJ
-	// road       115 s  fuel  0.355 kg  drawbar  0.00 MJ  PTO  0.00 MJ  transmission loss  0.65 MJ
+	// road       115 s  fuel  0.264 kg  drawbar  0.00 MJ  PTO  0.00 MJ  transmission loss  0.86 MJ
 	// pump        60 s  fuel  0.204 kg  drawbar  0.00 MJ  PTO  2.40 MJ  transmission loss  0.00 MJ
-	// day: 1.24 L of fuel, audit closes: true
+	// day: 1.13 L of fuel, audit closes: true
 }
 
 // The least-fuel strategy at one field operating point: an 8 km/h pass

@@ -278,8 +278,13 @@ func audit(r *demo.Run, a vehicle.Audit) {
 	row("fuel energy (lower heating value)", a.FuelEnergy)
 	tb.Rule()
 	row("engine loss", a.EngineLoss)
+	row("engine braking (motored, fuel cut)", a.EngineBraking)
 	row("transmission: hydrostatic loss", a.Hydrostatic)
 	row("transmission: mechanical loss", a.Mechanical)
+	row("transmission: no-load loss", a.NoLoad)
+	for _, p := range a.NoLoadParts {
+		row("  no-load: "+p.Name, p.Energy)
+	}
 	row("PTO driveline loss", a.PTOLoss)
 	row("PTO work", a.PTOWork)
 	row("tyre slip", a.Slip)
@@ -342,7 +347,8 @@ func losses(r *demo.Run, a vehicle.Audit) ([]string, []float64) {
 		e    units.Energy
 	}
 	ls := []line{
-		{"engine", a.EngineLoss}, {"hydrostat", a.Hydrostatic}, {"gears", a.Mechanical},
+		{"engine", a.EngineLoss}, {"engine braking", a.EngineBraking}, {"hydrostat", a.Hydrostatic}, {"gears", a.Mechanical},
+		{"no-load drag", a.NoLoad},
 		{"PTO driveline", a.PTOLoss}, {"tyre slip", a.Slip}, {"rolling", a.Rolling}, {"brakes", a.Brake},
 		{"trailer rolling", a.Trailer}, {"air drag", a.Aero},
 	}
