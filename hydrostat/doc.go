@@ -94,8 +94,14 @@
 //
 // Oil viscosity follows the ASTM D341 (Walther) equation through two known
 // points, log₁₀ log₁₀(ν + 0.7) = A − B·log₁₀ T (ν in cSt, T in K); density
-// ρ = ρ_ref/(1 + α·(T − T_ref)); the bulk modulus is constant. VG32, VG46
-// and VG68 are ISO 3448 grades of a viscosity-index-100 mineral oil.
+// ρ = ρ_ref/(1 + α·(T − T_ref)); the bulk modulus is constant.
+// ViscosityIndex computes the viscosity index by ASTM D2270 (Table 1,
+// interpolated, and its equations above 70 cSt); NewGradeOil builds an oil
+// from its ISO 3448 grade and viscosity index. VG32, VG46 and VG68 are ISO
+// 3448 grades of mineral oil with round 100 °C values, of viscosity index
+// 102.2, 101.6 and 99.3. A user who knows the dynamic viscosity at the
+// operating point gives it directly (OilSpec.Viscosity): it then holds at
+// every temperature.
 //
 // # Closed loops
 //
@@ -144,7 +150,7 @@
 // 198B (1984). H. Ivantysyn and M. Ivantysynova, Hydrostatic Pumps and
 // Motors, Academic Books International (2001). ISO 4409 (test methods and
 // efficiency definitions for pumps and motors), ISO 3448 (viscosity grades),
-// ASTM D341 (viscosity–temperature charts).
+// ASTM D341 (viscosity–temperature charts), ASTM D2270 (viscosity index).
 //
 // # Safety
 //

@@ -195,3 +195,17 @@ func ExampleSequential_overCentre() {
 	// pump  -300 rpm: pump 1.000 motor -0.230
 	// pump  -600 rpm: pump 1.000 motor -0.394
 }
+
+// An oil built from its ISO 3448 grade and its viscosity index (ASTM D2270).
+func ExampleNewGradeOil() {
+	oil, err := hydrostat.NewGradeOil(46, 150)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	vi, _ := oil.ViscosityIndex()
+	fmt.Printf("%s: %.2f cSt at 100 °C, VI %.1f, %.1f cSt at 60 °C\n", oil.Spec().Name,
+		oil.Viscosity(units.Celsius(100)).Centistokes(), vi, oil.Viscosity(units.Celsius(60)).Centistokes())
+	// Output:
+	// ISO VG 46, VI 150: 8.10 cSt at 100 °C, VI 150.0, 22.5 cSt at 60 °C
+}

@@ -58,12 +58,45 @@ func FuzzUnitAt(f *testing.F) {
 	})
 }
 
+func FuzzNewGradeOil(f *testing.F) {
+	f.Add(46.0, 100.0, 60.0)
+	f.Add(2.0, 400.0, -40.0)
+	f.Add(3200.0, -100.0, 300.0)
+	f.Add(math.NaN(), math.Inf(1), 0.0)
+	f.Fuzz(func(t *testing.T, grade, vi, at float64) {
+		o, err := NewGradeOil(grade, vi)
+		if err != nil {
+			return
+		}
+		if got, err := o.ViscosityIndex(); err != nil || math.Abs(got-vi) > 1e-6*math.Max(1, math.Abs(vi)) {
+			t.Fatalf("NewGradeOil(%v, %v) has VI %v, %v", grade, vi, got, err)
+		}
+		if nu := o.Viscosity(units.Celsius(at)); math.IsNaN(float64(nu)) || nu < 0 {
+			t.Fatalf("viscosity %v at %v °C", nu, at)
+		}
+	})
+}
+
+func FuzzViscosityIndex(f *testing.F) {
+	f.Add(73.3, 8.86)
+	f.Add(2.0, 2.0)
+	f.Add(1e300, 1e299)
+	f.Fuzz(func(t *testing.T, u, y float64) {
+		vi, err := ViscosityIndex(units.Centistokes(u), units.Centistokes(y))
+		if err == nil && !finite(vi) {
+			t.Fatalf("ViscosityIndex(%v, %v) = %v", u, y, vi)
+		}
+	})
+}
+
 func FuzzNewOil(f *testing.F) {
-	f.Add(40.0, 46.0, 100.0, 6.8, 60.0)
-	f.Add(40.0, 46.0, 40.0, 46.0, 60.0)
-	f.Add(-300.0, 1e300, 1e300, 2.0, -1.0)
-	f.Fuzz(func(t *testing.T, t1, n1, t2, n2, at float64) {
-		o, err := NewOil(OilSpec{T1: units.Celsius(t1), Nu1: units.Centistokes(n1), T2: units.Celsius(t2), Nu2: units.Centistokes(n2)})
+	f.Add(40.0, 46.0, 100.0, 6.8, 60.0, 0.0)
+	f.Add(40.0, 46.0, 40.0, 46.0, 60.0, 0.0)
+	f.Add(-300.0, 1e300, 1e300, 2.0, -1.0, 0.0)
+	f.Add(-273.15, 0.0, -273.15, 0.0, 60.0, 25.0)
+	f.Fuzz(func(t *testing.T, t1, n1, t2, n2, at, cp float64) {
+		o, err := NewOil(OilSpec{T1: units.Celsius(t1), Nu1: units.Centistokes(n1), T2: units.Celsius(t2), Nu2: units.Centistokes(n2),
+			Viscosity: units.Centipoise(cp)})
 		if err != nil {
 			return
 		}
