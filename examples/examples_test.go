@@ -113,6 +113,18 @@ func TestExamples(t *testing.T) {
 			if p.name == "demoday" {
 				checkDay(t, out)
 			}
+			// Every program states its fuel model and assumptions at the top
+			// and ends with the safety caution.
+			for _, want := range []string{"fuel model: ", "defaults taken: ", "not checked: ", "Caution: these are estimates from the given data"} {
+				if !strings.Contains(report, want) {
+					t.Errorf("%s: report lacks %q", p.name, want)
+				}
+			}
+			// The demo's ballast advice stays within the fitted ballast, the
+			// permissible mass and the tyres' ratings.
+			if p.name == "traction" && !strings.Contains(report, "Within limits:") {
+				t.Errorf("traction: the demo's ballast advice is not within its limits")
+			}
 		})
 	}
 }
@@ -204,6 +216,7 @@ type summary struct {
 	PloughMeanSpeedKMH    float64 `json:"ploughMeanSpeedKMH"`
 	PloughDraftKilonewton float64 `json:"ploughDraftKilonewtons"`
 	PloughWidthMetres     float64 `json:"ploughWidthMetres"`
+	PloughEngineLoad      float64 `json:"ploughEnginePowerOfRated"`
 	RatedPowerKilowatts   float64 `json:"ratedPowerKilowatts"`
 	AuditRelativeResidual float64 `json:"auditRelativeResidual"`
 	SegmentsFailed        int     `json:"segmentsFailed"`
@@ -231,6 +244,12 @@ func checkDay(t *testing.T, out string) {
 	}
 	if !(s.PloughedHectares > 0 && s.PloughLitresPerHa > 0) {
 		t.Fatalf("demo day: no ploughing measured: %+v", s)
+	}
+	// The plough is sized for the tractor. Common practice (no published
+	// source): primary tillage loads the engine to about 70 to 85 % of its
+	// rated power.
+	if l := s.PloughEngineLoad; l < 0.70 || l > 0.85 {
+		t.Errorf("demo day: ploughing at %.0f %% of rated engine power, want 70 to 85 %%", 100*l)
 	}
 
 	// Fuel per hectare while ploughing, against a range built by hand from

@@ -12,9 +12,11 @@
 package main
 
 import (
+	"cmp"
 	"fmt"
 	"math"
 	"path/filepath"
+	"slices"
 	"strings"
 	"sync"
 
@@ -36,6 +38,7 @@ type result struct {
 	t      demo.Transmission
 	layout powersplit.Layout
 	spans  []string
+	ivs    []powersplit.SpeedInterval // every range's reachable speeds at the study speed
 	sweep  powersplit.Sweep
 	day    vehicle.Day
 	fuel   vehicle.Fuel
@@ -72,7 +75,7 @@ func run(r *demo.Run) error {
 	// Each design on its own goroutine: the day takes a few seconds.
 	results := make([]*result, len(designs))
 	ps := &demo.Stepper{Inner: vehicle.LeastFuel{}, Total: len(designs) * demo.CountSteps(cycle, sc.Step().Std()),
-		Report: demo.Progress("simulating the day for each design")}
+		Report: demo.Progress("simulating the day for each design", "time steps")}
 	var wg sync.WaitGroup
 	for i, t := range designs {
 		res := &result{t: t}
@@ -89,6 +92,7 @@ func run(r *demo.Run) error {
 					res.spans = append(res.spans, res.layout.RangeName(rg)+": unreachable")
 					continue
 				}
+				res.ivs = append(res.ivs, ivs...)
 				for _, iv := range ivs {
 					res.spans = append(res.spans, fmt.Sprintf("%s %s–%s", res.layout.RangeName(rg), demo.F(kmh(iv.Lo), 1, ""), demo.F(kmh(iv.Hi), 1, "km/h")))
 				}
@@ -143,6 +147,9 @@ func run(r *demo.Run) error {
 	r.Printf("\n  Speed span of each range at %v (theoretical travel speed):\n", study)
 	for _, res := range results {
 		r.Note(res.t.Name + ": " + strings.Join(res.spans, "; "))
+	}
+	for _, res := range results {
+		r.Note(coverage(res.t.Name, res.ivs, kmh))
 	}
 
 	// Efficiency against speed.
@@ -293,4 +300,41 @@ func valueAt(s figures.Series, x float64) string {
 		return "—"
 	}
 	return demo.F(s.Y[bi], 1, "%")
+}
+
+// coverage says whether the ranges together reach every forward speed from
+// standstill to the design's top speed at the study engine speed: whether
+// it can start from standstill, and where it has gaps between ranges.
+func coverage(name string, ivs []powersplit.SpeedInterval, kmh func(units.AngularVelocity) float64) string {
+	sorted := slices.Clone(ivs)
+	slices.SortFunc(sorted, func(a, b powersplit.SpeedInterval) int { return cmp.Compare(a.Lo, b.Lo) })
+	start := false
+	var gaps []string
+	reach := units.AngularVelocity(0)
+	for _, iv := range sorted {
+		if iv.Lo <= 0 && iv.Hi > 0 {
+			start = true
+		}
+		if iv.Hi <= reach {
+			continue
+		}
+		if iv.Lo > reach {
+			gaps = append(gaps, fmt.Sprintf("%s to %s", demo.F(kmh(reach), 1, ""), demo.F(kmh(iv.Lo), 1, "km/h")))
+		}
+		reach = max(reach, iv.Hi)
+	}
+	var b strings.Builder
+	b.WriteString(name + ": ")
+	if start {
+		b.WriteString("starts from standstill")
+	} else {
+		b.WriteString("CANNOT START FROM STANDSTILL (no range reaches zero travel speed)")
+	}
+	if len(gaps) == 0 {
+		b.WriteString("; no speed gap")
+	} else {
+		b.WriteString("; SPEED GAPS (no range reaches these speeds): " + strings.Join(gaps, ", "))
+	}
+	b.WriteString("; top " + demo.F(kmh(reach), 1, "km/h") + " at " + study.String() + ".")
+	return b.String()
 }

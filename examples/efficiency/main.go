@@ -67,7 +67,7 @@ func run(r *demo.Run) error {
 		}
 		lo, hi := demo.Widest(ivs)
 		sw, err := layout.Sweep(powersplit.SweepSpec{Design: sc.Transmission.Name, Range: rg, Input: study, From: lo, To: hi, Steps: 80,
-			Power: power, Progress: demo.Progress("sweep " + name)})
+			Power: power, Progress: demo.Progress("sweep "+name, "operating points")})
 		if err != nil {
 			return fmt.Errorf("sweep of range %s: %w", name, err)
 		}
@@ -114,10 +114,27 @@ func run(r *demo.Run) error {
 	tb.Write(r.W)
 	r.Wrote(csvs...)
 	r.Note("A negative hydraulic share means power circulates back through the hydrostat. Points that " +
-		"cross a limit (relief pressure, unit speed) at this power are left out of the figures. " +
-		"Where the range gears follow the summing shaft, as in this layout, every range runs the same " +
-		"span of summing-shaft speeds, scaled by its gear: the ranges repeat the same efficiency and share " +
-		"at speeds in the ratio of their gears.")
+		"cross a limit (relief pressure, unit speed) at this power are left out of the figures.")
+	alternating := false
+	for _, rg := range sc.Transmission.Ranges {
+		alternating = alternating || rg.FromVariator
+	}
+	if alternating {
+		r.Note("Ranges taken from the variator's member alternate with ranges from the summing shaft: at each " +
+			"synchronous shift point every shaft turns at the same speed in both ranges, and the variator sweeps " +
+			"back the other way in the next range. Each row above covers a range's whole reach; a least-fuel " +
+			"strategy drives each range mostly between its shift points, where no power circulates in this design.")
+		if sps, err := solver.ShiftPoints(powersplit.Point{Input: study, Outputs: []powersplit.OutputDemand{{Speed: 1}}}); err == nil {
+			for _, sp := range sps {
+				r.Note(fmt.Sprintf("Synchronous shift %s → %s at %s (loop speed ratio %.2f).", layout.RangeName(sp.From),
+					layout.RangeName(sp.To), demo.F(conv.kmh(sp.Output), 1, "km/h"), sp.Ratio))
+			}
+		}
+	} else {
+		r.Note("Where every range gear follows the summing shaft, as in this layout, every range runs the same " +
+			"span of summing-shaft speeds, scaled by its gear: the ranges repeat the same efficiency and share " +
+			"at speeds in the ratio of their gears.")
+	}
 	if len(effSeries) == 0 {
 		return fmt.Errorf("no range has a feasible point at %v", study)
 	}
@@ -145,7 +162,7 @@ func run(r *demo.Run) error {
 	m, err := layout.Map(powersplit.MapSpec{Design: sc.Transmission.Name, Range: powersplit.Auto, Input: study,
 		SpeedFrom: conv.output(0.5), SpeedTo: conv.output(maxKMH), SpeedSteps: 90,
 		TorqueFrom: conv.torque(units.Kilonewtons(1)), TorqueTo: conv.torque(units.Force(maxPull)), TorqueSteps: 60,
-		Progress: demo.Progress("efficiency map")})
+		Progress: demo.Progress("efficiency map", "operating points")})
 	if err != nil {
 		return fmt.Errorf("map: %w", err)
 	}

@@ -188,7 +188,7 @@ func (t Transmission) Layout() (powersplit.Layout, error) {
 	}
 	ranges := make([]powersplit.RangeGear, len(t.Ranges))
 	for i, r := range t.Ranges {
-		ranges[i] = powersplit.RangeGear{Name: r.Name, Ratio: r.Ratio}
+		ranges[i] = powersplit.RangeGear{Name: r.Name, Ratio: r.Ratio, FromVariator: r.FromVariator}
 	}
 	switch t.Kind {
 	case "input-coupled":
@@ -233,6 +233,9 @@ func compound(s1, s2 planetary.Set, loop hydrostat.Loop, rs []Range, eta float64
 		name := r.Name
 		if name == "" {
 			name = fmt.Sprintf("range %d", i+1)
+		}
+		if r.FromVariator {
+			return powersplit.Layout{}, fmt.Errorf("ranges[%d]: fromVariator: a compound split takes every range from its summing shaft", i)
 		}
 		g := b.Shaft(name + " gear")
 		b.Gear(name+" gear", sum, g, r.Ratio, eta)

@@ -69,6 +69,13 @@ func (f *File) Source() string { return f.source }
 type Tractor struct {
 	// Mass is the operating mass with ballast, without trailer (kg).
 	Mass units.Mass `json:"mass"`
+	// Ballast is the ballast fitted, part of Mass (optional, kg): ballast
+	// advice never removes more than this.
+	Ballast units.Mass `json:"ballast,omitempty"`
+	// MaxMass is the permissible operating mass (optional, kg): ballast
+	// advice that goes beyond it is reported as not permissible. Take it
+	// from the vehicle maker's rating, never from this library.
+	MaxMass units.Mass `json:"maxMass,omitempty"`
 	// RotatingMass is the translating mass equivalent to the inertia of the
 	// wheels and drive line, added to Mass when accelerating (optional, kg).
 	RotatingMass units.Mass `json:"rotatingMass,omitempty"`
@@ -268,8 +275,15 @@ type Losses struct {
 type Range struct {
 	// Name names the range ("field", "road"; optional).
 	Name string `json:"name,omitempty"`
-	// Ratio is the range gear's speed ratio, output over summing shaft.
+	// Ratio is the range gear's speed ratio, output over the member it is
+	// taken from (the summing shaft unless FromVariator).
 	Ratio float64 `json:"ratio"`
+	// FromVariator takes the range gear from the planetary member on the
+	// hydrostat's side (the pump member of an output-coupled split, the
+	// motor member of an input-coupled one) instead of the summing shaft,
+	// so that ranges alternate and shift synchronously
+	// (powersplit.RangeGear.FromVariator). Optional; default false.
+	FromVariator bool `json:"fromVariator,omitempty"`
 }
 
 // Surface is a ground surface and the traction model used on it. Model is

@@ -70,7 +70,9 @@ func Start(program, about string) (*Run, error) {
 	r := &Run{Scenario: sc, Out: dir, W: os.Stdout}
 	fmt.Fprintf(r.W, "%s — %s\n", program, about)
 	fmt.Fprintf(r.W, "design: %s, %s (%s)\n", sc.Name, sc.Owner, sc.Source())
-	fmt.Fprintf(r.W, "output folder: %s\n\n", dir)
+	fmt.Fprintf(r.W, "output folder: %s\n", dir)
+	r.Preamble()
+	fmt.Fprintln(r.W)
 	return r, nil
 }
 
@@ -79,6 +81,10 @@ func Main(program, about string, body func(r *Run) error) {
 	r, err := Start(program, about)
 	if err == nil && r != nil {
 		err = body(r)
+		if err == nil {
+			fmt.Fprintln(r.W)
+			r.Note(Caution)
+		}
 	}
 	if err == flag.ErrHelp {
 		return
@@ -125,10 +131,12 @@ func Terminal() bool {
 	return err == nil && fi.Mode()&os.ModeCharDevice != 0
 }
 
-// Progress returns a progress callback for a sweep or a map. It reports on
-// standard error, only when standard error is a terminal and only once the
-// work has taken more than a second. It is safe for concurrent use.
-func Progress(label string) func(done, total int) {
+// Progress returns a progress callback for a sweep, a map or a simulation
+// that counts what (a plural noun: "operating points", "time steps"). It
+// reports on standard error the share done, the count and the time left,
+// only when standard error is a terminal and only once the work has taken
+// more than a second. It is safe for concurrent use.
+func Progress(label, what string) func(done, total int) {
 	if !Terminal() {
 		return func(int, int) {}
 	}
@@ -141,15 +149,21 @@ func Progress(label string) func(done, total int) {
 	return func(done, total int) {
 		mu.Lock()
 		defer mu.Unlock()
-		if total <= 0 || time.Since(start) < time.Second && !shown {
+		el := time.Since(start)
+		if total <= 0 || el < time.Second && !shown {
 			return
 		}
 		pct := 100 * done / total
 		if pct != lastPct {
-			fmt.Fprintf(os.Stderr, "\r%s: %3d %% (%d of %d)", label, pct, done, total)
+			left := "done"
+			if done > 0 && done < total {
+				rem := time.Duration(float64(el) * float64(total-done) / float64(done))
+				left = "about " + rem.Round(time.Second).String() + " left"
+			}
+			fmt.Fprintf(os.Stderr, "\r%s: %3d %% (%d of %d %s), %s   ", label, pct, done, total, what, left)
 			lastPct, shown = pct, true
 		}
-		if done >= total {
+		if done >= total && shown {
 			fmt.Fprintln(os.Stderr)
 		}
 	}
