@@ -47,8 +47,9 @@ type PTOSpec struct {
 type OutputCoupledSpec struct {
 	Set planetary.Set
 	// Input, Pump and Output name the members on the engine side, the pump
-	// side and the summing side. All three zero (all Sun) means Input =
-	// Carrier, Pump = Sun, Output = Ring.
+	// side and the summing side. All three unset (planetary.NoMember) means
+	// Input = Carrier, Pump = Sun, Output = Ring; with two given, the third
+	// is the member left. Any other value is an *InputError naming the field.
 	Input, Pump, Output planetary.Member
 	InputRatio          float64 // ωinput member = InputRatio·ωengine; 0 means direct (no gear)
 	PumpRatio           float64 // ωpump = PumpRatio·ωpump member; 0 means direct
@@ -72,8 +73,10 @@ type OutputCoupledSpec struct {
 // its output member, which drives the output through the range gears.
 type InputCoupledSpec struct {
 	Set planetary.Set
-	// Input, Motor and Output name the members. All three zero means
-	// Input = Ring, Motor = Sun, Output = Carrier.
+	// Input, Motor and Output name the members. All three unset
+	// (planetary.NoMember) means Input = Ring, Motor = Sun, Output =
+	// Carrier; with two given, the third is the member left. Any other
+	// value is an *InputError naming the field.
 	Input, Motor, Output planetary.Member
 	InputRatio           float64        // ωinput member = InputRatio·ωengine; 0 means direct
 	PumpRatio            float64        // ωpump = PumpRatio·ωengine; 0 means direct
@@ -238,6 +241,52 @@ func (c *specCheck) loop(l hydrostat.Loop, motors int) {
 	}
 }
 
+// members checks the members of a split's set, fields names, and fills the
+// unset ones: all three unset take the defaults def; with two given the
+// third is the member left. A value other than sun, ring, carrier or unset,
+// or a single member given alone, is an *InputError naming the field.
+func (c *specCheck) members(names [3]string, ms, def [3]planetary.Member) (a, b, d planetary.Member) {
+	if c.err != nil {
+		return
+	}
+	unset := 0
+	var have [4]bool
+	for i, m := range ms {
+		switch {
+		case m == planetary.NoMember:
+			unset++
+		case m < planetary.Sun || m > planetary.Carrier:
+			c.err = &InputError{Field: names[i], Value: units.Plain(float64(m)), Reason: "not a member of the set (sun, ring or carrier)"}
+			return
+		default: // a member given twice is the set's error (splitSet)
+			have[m] = true
+		}
+	}
+	switch unset {
+	case 3:
+		ms = def
+	case 1:
+		left := planetary.Sun
+		for have[left] {
+			left++
+		}
+		for i := range ms {
+			if ms[i] == planetary.NoMember {
+				ms[i] = left
+			}
+		}
+	case 2:
+		for i, m := range ms {
+			if m == planetary.NoMember {
+				c.err = &InputError{Field: names[i], Value: units.Plain(0),
+					Reason: fmt.Sprintf("unset: give two or three of %s, %s and %s, or none for the defaults", names[0], names[1], names[2])}
+				return
+			}
+		}
+	}
+	return ms[0], ms[1], ms[2]
+}
+
 func orDefault(v, d float64) float64 {
 	if v == 0 {
 		return d
@@ -377,9 +426,10 @@ func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
 	if c.err != nil {
 		return Layout{}, c.err
 	}
-	in, pm, om := spec.Input, spec.Pump, spec.Output
-	if in == 0 && pm == 0 && om == 0 {
-		in, pm, om = planetary.Carrier, planetary.Sun, planetary.Ring
+	in, pm, om := c.members([3]string{"Input", "Pump", "Output"}, [3]planetary.Member{spec.Input, spec.Pump, spec.Output},
+		[3]planetary.Member{planetary.Carrier, planetary.Sun, planetary.Ring})
+	if c.err != nil {
+		return Layout{}, c.err
 	}
 	b := NewBuilder()
 	engine := b.Shaft("engine")
@@ -409,9 +459,10 @@ func InputCoupled(spec InputCoupledSpec) (Layout, error) {
 	if c.err != nil {
 		return Layout{}, c.err
 	}
-	in, mm, om := spec.Input, spec.Motor, spec.Output
-	if in == 0 && mm == 0 && om == 0 {
-		in, mm, om = planetary.Ring, planetary.Sun, planetary.Carrier
+	in, mm, om := c.members([3]string{"Input", "Motor", "Output"}, [3]planetary.Member{spec.Input, spec.Motor, spec.Output},
+		[3]planetary.Member{planetary.Ring, planetary.Sun, planetary.Carrier})
+	if c.err != nil {
+		return Layout{}, c.err
 	}
 	b := NewBuilder()
 	engine := b.Shaft("engine")

@@ -201,7 +201,8 @@ func (e *ConvergenceError) Unwrap() []error {
 }
 
 // InputError reports an invalid value in an operating point or a spec: the
-// field, its value in the user's units and what a valid value is.
+// field, its value in the user's units and what a valid value is. A plain
+// NaN Value means the field has no value to show (a nil pointer).
 type InputError struct {
 	Field  string
 	Value  units.Measure
@@ -213,8 +214,10 @@ func (e *InputError) Error() string {
 	b = append(b, ErrInput.Error()...)
 	b = append(b, ": "...)
 	b = append(b, e.Field...)
-	b = append(b, " = "...)
-	b = e.Value.Append(b)
+	if e.Value.SI == e.Value.SI || e.Value.Kind != units.Number {
+		b = append(b, " = "...)
+		b = e.Value.Append(b)
+	}
 	b = append(b, ": "...)
 	b = append(b, e.Reason...)
 	return string(b)

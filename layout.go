@@ -275,8 +275,8 @@ func (b *Builder) ReverseShare(name string) {
 	b.reverse[name] = true
 }
 
-// Build validates the layout and returns it. It reports unconnected shafts,
-// duplicate names, members or units sharing a shaft, a missing or second
+// Build validates the layout and returns it. It reports unconnected shafts
+// (no element, or one gear that turns nothing), duplicate names, members or units sharing a shaft, a missing or second
 // input, no outputs, unknown clutch names in a range, and — for every range
 // — over- or under-determined kinematics (*KinematicsError) and torque
 // balances (ErrTorques).
@@ -297,6 +297,7 @@ func (b *Builder) Build() (Layout, error) {
 	}
 	seen = map[string]bool{}
 	used := make([]int, len(l.shafts))
+	last := make([]int, len(l.shafts)) // the element of a shaft's last port
 	l.elems = make([]element, len(b.elems))
 	for i, e := range b.elems {
 		if seen[e.name] {
@@ -308,6 +309,7 @@ func (b *Builder) Build() (Layout, error) {
 		l.nPorts += len(e.shafts)
 		for _, s := range e.shafts {
 			used[s]++
+			last[s] = i
 		}
 		switch e.kind {
 		case InputKind:
@@ -354,6 +356,12 @@ func (b *Builder) Build() (Layout, error) {
 	}
 	if len(l.outputs) == 0 {
 		return Layout{}, &LayoutError{Reason: "no output", Err: ErrLayout}
+	}
+	for s, n := range used {
+		if e := &l.elems[last[s]]; n == 1 && e.kind == GearKind {
+			return Layout{}, &LayoutError{Element: l.shafts[s],
+				Reason: fmt.Sprintf("its only element is gear %q: the gear turns nothing", e.name), Err: ErrUnconnected}
+		}
 	}
 	names, engaged := b.rangeNames, b.rangeEngaged
 	if len(names) == 0 {

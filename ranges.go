@@ -243,6 +243,9 @@ func (s *Solver) Feasible(p Point, dst []int) []int {
 // each range's reason (the range's own error when the layout has one
 // range), and st.Range is Auto: no range was chosen.
 func (s *Solver) Best(p Point, pol Policy, st *State) error {
+	if st == nil {
+		return errNilState
+	}
 	if pol == nil {
 		pol = HighestEfficiency{}
 	}

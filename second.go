@@ -305,7 +305,7 @@ type TotalDemand struct {
 // and the split of power. Errors are Solve's; a total that no torque of
 // the first output meets within 40 solves is a *ConvergenceError.
 func (s *Solver) SolveTotal(p Point, d TotalDemand, st *State) error {
-	if err := s.check(&p); err != nil {
+	if err := s.checkEntry(&p, st); err != nil {
 		return err
 	}
 	l := s.l
@@ -403,7 +403,7 @@ type SettingSearch struct {
 // returns the setting and the total loss, or Solve's error at the best
 // setting found when no setting in the range is feasible.
 func (s *Solver) BestSetting(p Point, q SettingSearch, st *State) (float64, units.Power, error) {
-	if err := s.check(&p); err != nil {
+	if err := s.checkEntry(&p, st); err != nil {
 		return 0, 0, err
 	}
 	if err := s.checkSettings(&Point{Settings: []MotorSetting{{Loop: q.Loop, Motor: q.Motor}}}); err != nil {

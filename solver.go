@@ -142,6 +142,35 @@ func (s *Solver) Layout() Layout { return Layout{l: s.l} }
 // bad reports whether v is NaN or infinite (v − v is NaN for both).
 func bad(v float64) bool { return v-v != 0 }
 
+// The bounds of an operating point. Beyond them a point means nothing for
+// a vehicle drive and its products would overflow; Solve refuses it with an
+// *InputError.
+//
+// Common practice (no published source): vehicle engines and their
+// transmission shafts turn below about 10 000 rpm, and drive torques stay
+// below a few hundred kN·m.
+const (
+	MaxSpeed  = units.AngularVelocity(100000 * 2 * math.Pi / 60) // 100 000 rpm: the largest |speed| of the input and the outputs
+	MaxTorque = units.Torque(1e8)                                // 100 000 kN·m: the largest |torque| of an output or a PTO
+)
+
+// errNilState is the error of an entry point given a nil *State.
+var errNilState = &InputError{Field: "st", Value: units.Plain(math.NaN()), Reason: "nil *State: pass a State to fill"}
+
+// checkEntry checks a public entry's point and state. After an *InputError st
+// holds no point: it is reset to the zero State (Brief kept), so no number
+// of an earlier point can be read as this one's.
+func (s *Solver) checkEntry(p *Point, st *State) error {
+	if st == nil {
+		return errNilState
+	}
+	err := s.check(p)
+	if err != nil {
+		*st = State{Brief: st.Brief}
+	}
+	return err
+}
+
 func (s *Solver) check(p *Point) error {
 	l := s.l
 	if p.Range < 0 || p.Range >= len(l.ranges) {
@@ -150,6 +179,12 @@ func (s *Solver) check(p *Point) error {
 	if bad(float64(p.Input)) {
 		return &InputError{Field: "Input", Value: units.Of(p.Input), Reason: "not finite"}
 	}
+	if !(p.Input > 0) {
+		return &InputError{Field: "Input", Value: units.Of(p.Input), Reason: "the engine speed must be positive (the engine turns the input forwards)"}
+	}
+	if p.Input > MaxSpeed {
+		return &InputError{Field: "Input", Value: units.Of(p.Input), Reason: "above " + MaxSpeed.String() + ", beyond any engine"}
+	}
 	if len(p.Outputs) != len(l.outputs) {
 		return &InputError{Field: "len(Outputs)", Value: units.Plain(float64(len(p.Outputs))), Reason: "one demand per output needed"}
 	}
@@ -157,8 +192,14 @@ func (s *Solver) check(p *Point) error {
 		if bad(float64(o.Speed)) {
 			return &InputError{Field: "Outputs.Speed", Value: units.Of(o.Speed), Reason: "not finite"}
 		}
+		if math.Abs(float64(o.Speed)) > float64(MaxSpeed) {
+			return &InputError{Field: "Outputs.Speed", Value: units.Of(o.Speed), Reason: "beyond ±" + MaxSpeed.String()}
+		}
 		if bad(float64(o.Torque)) {
 			return &InputError{Field: "Outputs.Torque", Value: units.Of(o.Torque), Reason: "not finite"}
+		}
+		if math.Abs(float64(o.Torque)) > float64(MaxTorque) {
+			return &InputError{Field: "Outputs.Torque", Value: units.Of(o.Torque), Reason: "beyond ±" + MaxTorque.String()}
 		}
 	}
 	if p.PTO != nil && len(p.PTO) != len(l.ptos) {
@@ -168,6 +209,9 @@ func (s *Solver) check(p *Point) error {
 		if bad(float64(t)) {
 			return &InputError{Field: "PTO", Value: units.Of(t), Reason: "not finite"}
 		}
+		if math.Abs(float64(t)) > float64(MaxTorque) {
+			return &InputError{Field: "PTO", Value: units.Of(t), Reason: "beyond ±" + MaxTorque.String()}
+		}
 	}
 	return s.checkSettings(p)
 }
@@ -175,15 +219,17 @@ func (s *Solver) check(p *Point) error {
 // Solve finds the steady state at operating point p and writes it into st.
 // It returns a *LimitError (ErrInfeasible, ErrUnreachable) when the point
 // crosses a limit — st then holds the state reached, with the crossed margin
-// — an *InputError for bad input, and a *ConvergenceError or ErrSingular
-// when the iteration fails. Solve does not allocate once st has been used
+// — an *InputError for bad input (a nil st, a speed or torque that is not
+// finite or beyond MaxSpeed or MaxTorque, an engine speed that is not
+// positive) — st is then reset to the zero State, so it holds no point —
+// and a *ConvergenceError or ErrSingular when the iteration fails. Solve does not allocate once st has been used
 // with this layout.
 //
 // A motor the layout sets by a SettingCurve gets the sign with which it
 // drives its shaft: when it pumps at the curve's sign, the point is solved
 // again with the sign reversed, and the drive kept if that solves.
 func (s *Solver) Solve(p Point, st *State) error {
-	if err := s.check(&p); err != nil {
+	if err := s.checkEntry(&p, st); err != nil {
 		return err
 	}
 	err := s.solve(p, st, false)

@@ -7,19 +7,26 @@ import (
 	"github.com/powersplit-dev/powersplit/units"
 )
 
-// Member names one of the three shafts of a set.
+// Member names one of the three shafts of a set. The zero Member is
+// NoMember, so that a field left unset is never taken for a real member.
 type Member int
 
 // The members of a set.
 const (
-	Sun Member = iota
+	// NoMember is the zero value: no member given. Every function that
+	// takes a member refuses it (ErrMember); a spec field left at
+	// NoMember means its documented default.
+	NoMember Member = iota
+	Sun
 	Ring
 	Carrier
 )
 
-// String returns "sun", "ring" or "carrier".
+// String returns "sun", "ring", "carrier" or "no member".
 func (m Member) String() string {
 	switch m {
+	case NoMember:
+		return "no member"
 	case Sun:
 		return "sun"
 	case Ring:

@@ -421,8 +421,11 @@ func TestBadInput(t *testing.T) {
 	if _, err := s.Solve(planetary.Speeds{Sun: 1e308, Ring: -1e308}, planetary.Carrier); !errors.Is(err, planetary.ErrNotFinite) {
 		t.Errorf("Solve(overflow) error = %v", err)
 	}
-	if _, err := s.Solve(planetary.Speeds{}, 3); !errors.Is(err, planetary.ErrMember) {
-		t.Errorf("Solve(member 3) error = %v", err)
+	if _, err := s.Solve(planetary.Speeds{}, 4); !errors.Is(err, planetary.ErrMember) {
+		t.Errorf("Solve(member 4) error = %v", err)
+	}
+	if _, err := s.Solve(planetary.Speeds{}, planetary.NoMember); !errors.Is(err, planetary.ErrMember) {
+		t.Errorf("Solve(NoMember) error = %v", err)
 	}
 	if _, err := s.Torque(planetary.Speeds{}, planetary.Sun, units.Torque(math.Inf(1))); !errors.Is(err, planetary.ErrNotFinite) {
 		t.Errorf("Torque(Inf) error = %v", err)
