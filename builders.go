@@ -95,7 +95,8 @@ type InputCoupledSpec struct {
 //
 // Every range of the builder comes twice: name, with the second motor
 // clutched in, usable up to DeclutchAbove of the first output (the solver
-// reports the margin to it in State.Margins, "output speed (range limit)"),
+// reports the margin to it in State.Margins: "output speed" against the
+// range's maximum output speed),
 // and name+" single", with the second motor declutched, held still by its
 // brake and swung back to zero, so it carries no torque and has no drag.
 // Both ranges of a pair have the same kinematics of the first output, so

@@ -72,6 +72,9 @@ type Segment struct {
 	// Ground is the tyres on this segment's surface (field, road); nil
 	// means the vehicle's Spec.Tyres.
 	Ground Traction
+	// TurnRadius is the rear axle's path radius of a HeadlandTurn; zero
+	// means the turn is run straight ahead (no steering geometry).
+	TurnRadius units.Length
 }
 
 // Options control a simulation. Zero fields take the defaults.
@@ -98,7 +101,11 @@ type Step struct {
 	TransmissionEfficiency float64
 	HydrostaticShare       float64
 	Slip                   float64
-	FuelRate               units.MassFlow
+	// FrontSlip and FrontShare are the front wheels' slip and the front
+	// axle's share of the wheel torque with a transmission that drives
+	// both axles (zero otherwise).
+	FrontSlip, FrontShare float64
+	FuelRate              units.MassFlow
 	// Hydrostat is the loop's pressure and unit speeds and settings (zero
 	// with the drive disengaged or when the transmission reports none).
 	Hydrostat UnitState
@@ -132,6 +139,11 @@ type Audit struct {
 	PTOLoss, PTOWork                units.Energy
 	// Tyre losses of the tractor, and energy the brakes absorb.
 	Slip, Rolling, Brake units.Energy
+	// FrontSlip and RearSlip split Slip between the axles (a breakdown, not
+	// further sinks); Circulating is the energy an axle driven backwards
+	// returned into the driveline (a fixed lead in a turn), a measure and
+	// not a sink.
+	FrontSlip, RearSlip, Circulating units.Energy
 	// Work done on the implement (draft), the trailer's rolling loss, drag.
 	Drawbar, Trailer, Aero units.Energy
 	Potential, Kinetic     units.Energy
@@ -207,6 +219,9 @@ func (a *Audit) add(b Audit) {
 	a.PTOLoss += b.PTOLoss
 	a.PTOWork += b.PTOWork
 	a.Slip += b.Slip
+	a.FrontSlip += b.FrontSlip
+	a.RearSlip += b.RearSlip
+	a.Circulating += b.Circulating
 	a.Rolling += b.Rolling
 	a.Brake += b.Brake
 	a.Drawbar += b.Drawbar
@@ -411,6 +426,9 @@ func (g Segment) pieces(opt Options) ([]piece, error) {
 func (g Segment) demandFor(p piece) (Demand, error) {
 	vm := 0.5 * (p.v0 + p.v1)
 	d := Demand{Speed: units.Speed(vm), Grade: p.grade, Acceleration: units.Acceleration((p.v1 - p.v0) / p.dt), Ground: g.Ground}
+	if g.Kind == HeadlandTurn {
+		d.TurnRadius = g.TurnRadius
+	}
 	if g.Kind == Accelerate || g.Kind == RoadTransfer {
 		d.Trailer = g.Trailer
 	}
@@ -474,6 +492,9 @@ func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock floa
 		a.PTOLoss += e(f.PTOLoss)
 		a.PTOWork += e(f.PTO)
 		a.Slip += e(f.Slip)
+		a.FrontSlip += e(f.FrontSlip)
+		a.RearSlip += e(f.RearSlip)
+		a.Circulating += e(f.Circulating)
 		a.Rolling += e(f.Rolling)
 		a.Brake += e(f.Brake)
 		a.Drawbar += e(f.Drawbar)
@@ -488,6 +509,7 @@ func (v *Vehicle) run(s Strategy, g Segment, idx int, pieces []piece, clock floa
 			Range: p.Range, RangeName: p.Drive.RangeName, Hydrostat: p.Drive.Hydrostat,
 			TransmissionEfficiency: p.TransmissionEfficiency(),
 			HydrostaticShare:       p.Drive.HydrostaticShare, Slip: p.Slip, FuelRate: p.FuelRate,
+			FrontSlip: p.FrontSlip, FrontShare: p.FrontShare,
 		})
 		t += h
 	}

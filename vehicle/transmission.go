@@ -67,6 +67,18 @@ type DrivePoint struct {
 	// Hydrostat is the state of the first hydrostatic loop, when the
 	// transmission reports one (LayoutDrive does; SplitEstimate does not).
 	Hydrostat UnitState
+	// FrontSpeed and FrontTorque are the front output's speed and the
+	// torque it delivers, FrontSetting the front motor's setting, for a
+	// transmission that drives both axles (AxleTransmission); then
+	// InputTorque·ω = OutputTorque·OutputSpeed + FrontTorque·FrontSpeed +
+	// losses. Declutched says the front motor is declutched in this range;
+	// DeclutchMargin is the speed of the output left below the declutch
+	// speed where the range has one.
+	FrontSpeed     units.AngularVelocity
+	FrontTorque    units.Torque
+	FrontSetting   float64
+	Declutched     bool
+	DeclutchMargin units.AngularVelocity
 	// Flags are rated limits crossed that do not make the point
 	// infeasible (for example a rated continuous pressure exceeded below
 	// the relief setting). They are reported, never hidden.

@@ -1,7 +1,6 @@
 package vehicle
 
 import (
-	"errors"
 	"math"
 
 	"github.com/powersplit-dev/powersplit/traction"
@@ -34,6 +33,10 @@ type Wheels struct {
 	// relative to its rating, RatedLoad that tyre's rating (zero when
 	// unknown).
 	TyreLoad, RatedLoad units.Force
+	// FrontSlipLoss and RearSlipLoss split SlipLoss between the axles and
+	// Circulating is the power an overrun axle returns into the driveline
+	// (zero when the model does not tell).
+	FrontSlipLoss, RearSlipLoss, Circulating units.Power
 }
 
 // A SlipCurve is a simple traction model for studies and tests: all wheels
@@ -146,26 +149,28 @@ func (t Tyres) Drive(pull units.Force, grade float64, v units.Speed) (Wheels, er
 		d, err = t.Vehicle.RearDrive(t.Model, t.Surface, op)
 	}
 	if err != nil {
-		switch {
-		case errors.Is(err, traction.ErrPull):
-			return Wheels{}, errors.Join(ErrTraction, err)
-		case errors.Is(err, traction.ErrUnstable):
-			return Wheels{}, errors.Join(ErrStability, err)
-		}
-		return Wheels{}, errors.Join(ErrInvalid, err)
+		return Wheels{}, tractionErr(err)
 	}
+	return t.wheels(d), nil
+}
+
+// wheels is the Wheels view of a solved traction drive.
+func (t Tyres) wheels(d traction.Drive) Wheels {
 	load, rated := d.Rear.Wheel.Load, t.Vehicle.Rear.Tyre.RatedLoad
 	if fl, fr := d.Front.Wheel.Load, t.Vehicle.Front.Tyre.RatedLoad; fr > 0 && (rated <= 0 || float64(fl)/float64(fr) > float64(load)/float64(rated)) {
 		load, rated = fl, fr
 	}
 	return Wheels{
-		Speed:       d.Rear.Wheel.WheelSpeed,
-		Power:       d.InputPower,
-		Slip:        d.Rear.Wheel.Slip,
-		SlipLoss:    d.SlipLoss,
-		RollingLoss: d.RollingLoss,
-		Overloaded:  d.Front.Wheel.Overloaded || d.Rear.Wheel.Overloaded,
-		TyreLoad:    load,
-		RatedLoad:   rated,
-	}, nil
+		Speed:         d.Rear.Wheel.WheelSpeed,
+		Power:         d.InputPower,
+		Slip:          d.Rear.Wheel.Slip,
+		SlipLoss:      d.SlipLoss,
+		RollingLoss:   d.RollingLoss,
+		Overloaded:    d.Front.Wheel.Overloaded || d.Rear.Wheel.Overloaded,
+		TyreLoad:      load,
+		RatedLoad:     rated,
+		FrontSlipLoss: d.Front.SlipLoss,
+		RearSlipLoss:  d.Rear.SlipLoss,
+		Circulating:   d.CirculatingPower,
+	}
 }

@@ -117,6 +117,12 @@ type Demand struct {
 	// Ground is the tyres on the surface of this demand; nil means the
 	// vehicle's Spec.Tyres.
 	Ground Traction
+	// TurnRadius is the radius of the rear axle centre's path in a steady
+	// turn; zero means straight ahead. In a turn the front axle travels
+	// faster than the rear (the Ackermann relation of traction.Vehicle.Turn):
+	// a mechanical front drive at a fixed lead winds up, a front axle with
+	// a motor of its own (AxleTransmission) runs at its own speed.
+	TurnRadius units.Length
 }
 
 // Validate reports whether the demand is usable.
@@ -140,6 +146,9 @@ func (d Demand) Validate() error {
 		return invalid("Demand.Grade", d.Grade, "must be within ±1 (45°)")
 	}
 	if err := nonNegative("Demand.PTOPower", d.PTOPower); err != nil {
+		return err
+	}
+	if err := nonNegative("Demand.TurnRadius", d.TurnRadius); err != nil {
 		return err
 	}
 	return nonNegative("Demand.PTOSpeed", d.PTOSpeed)
@@ -175,6 +184,12 @@ type Flows struct {
 	Slip, Rolling, Brake                   units.Power
 	Drawbar, Trailer, Aero, Grade, Inertia units.Power
 	MechanicalByElement                    units.Power
+	// FrontSlip and RearSlip split Slip between the axles (they are a
+	// breakdown of Slip, not further sinks; zero when the ground does not
+	// report them). Circulating is the power an axle driven backwards
+	// returns into the driveline (a fixed lead in a turn), carried by the
+	// other axle on top of the useful power: a measure, not a sink.
+	FrontSlip, RearSlip, Circulating units.Power
 }
 
 // A Point is a solved operating point.
@@ -189,8 +204,12 @@ type Point struct {
 	// (standing still).
 	Range int
 	Drive DrivePoint
-	// Slip of the driven wheels.
+	// Slip of the driven wheels (the rear wheels when both axles drive).
 	Slip float64
+	// FrontSlip is the front wheels' slip and FrontShare the front axle's
+	// share of the wheel torque, when the transmission drives both axles
+	// at their own speeds (AxleTransmission); zero otherwise.
+	FrontSlip, FrontShare float64
 	// Pull is the net pull the tyres give (drawbar + trailer + grade + drag + inertia).
 	Pull  units.Force
 	Flows Flows
@@ -266,12 +285,20 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 	}
 
 	driveTorque := units.Torque(0)
-	if vs > 0 {
-		ground := s.Tyres
-		if d.Ground != nil {
-			ground = d.Ground
+	ground := s.Tyres
+	if d.Ground != nil {
+		ground = d.Ground
+	}
+	at, axleDrive := s.Transmission.(AxleTransmission)
+	if vs > 0 && axleDrive {
+		t, err := v.axlesPoint(&p, at, ground, pull, d, w, rng)
+		if err != nil {
+			return Point{}, err
 		}
-		wh, err := ground.Drive(units.Force(math.Max(pull, 0)), d.Grade, d.Speed)
+		driveTorque = t
+	}
+	if vs > 0 && !axleDrive {
+		wh, err := driveOn(ground, units.Force(math.Max(pull, 0)), d.Grade, d.Speed, d.TurnRadius)
 		if err != nil {
 			return Point{}, err
 		}
@@ -290,6 +317,7 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		// Close the tyre balance exactly on the slip loss (its rounding is
 		// within the check above).
 		f.Slip = units.Power(float64(wh.Power) - float64(wh.RollingLoss) - useful)
+		f.FrontSlip, f.RearSlip, f.Circulating = wh.FrontSlipLoss, wh.RearSlipLoss, wh.Circulating
 		wheelPower := float64(wh.Power)
 		if pull < 0 {
 			wheelPower += pull * vs
