@@ -176,8 +176,18 @@ func (s *File) BuildEngine() (*vehicle.Engine, error) {
 	return e, nil
 }
 
-// Layout builds the transmission layout.
+// Layout builds the transmission layout, with its no-load losses when the
+// design lists them.
 func (t Transmission) Layout() (powersplit.Layout, error) {
+	l, err := t.bareLayout()
+	if err != nil {
+		return l, err
+	}
+	return t.withLosses(l)
+}
+
+// bareLayout builds the transmission layout without no-load losses.
+func (t Transmission) bareLayout() (powersplit.Layout, error) {
 	set, err := planetary.FromRatio(t.Set.FixedCarrierRatio, t.Set.BasicEfficiency)
 	if err != nil {
 		return powersplit.Layout{}, fmt.Errorf("set: %w", err)

@@ -231,6 +231,9 @@ type Transmission struct {
 	// GearEfficiency is the mesh efficiency of each fixed gear pair, 0 to 1
 	// (optional; the root package's default when left out).
 	GearEfficiency float64 `json:"gearEfficiency,omitempty"`
+	// NoLoad lists the load-independent losses (optional; none when left
+	// out).
+	NoLoad *NoLoad `json:"noLoad,omitempty"`
 }
 
 // Set is a planetary set given by its fixed-carrier ratio.
