@@ -84,6 +84,23 @@ type Options struct {
 	// MaxSteps bounds the steps of one segment; default 1 000 000. A
 	// segment that needs more is reported as invalid.
 	MaxSteps int
+	// Progress, when not nil, is called after each time step with the
+	// steps done and the total steps of the day.
+	Progress func(done, total int)
+}
+
+// counting is a strategy that reports progress after each step.
+type counting struct {
+	inner       Strategy
+	done, total int
+	report      func(done, total int)
+}
+
+func (c *counting) Operate(v *Vehicle, d Demand) (Point, error) {
+	p, err := c.inner.Operate(v, d)
+	c.done++
+	c.report(min(c.done, c.total), c.total)
+	return p, err
 }
 
 // A Step is the state of the vehicle over one time step (evaluated at the
@@ -299,6 +316,15 @@ func Simulate(v *Vehicle, s Strategy, cycle []Segment, opt Options) (Day, error)
 	}
 	if opt.MaxSteps < 1 {
 		return Day{}, invalid("Options.MaxSteps", float64(opt.MaxSteps), "must be positive")
+	}
+	if opt.Progress != nil {
+		c := &counting{inner: s, report: opt.Progress}
+		for _, seg := range cycle {
+			if ps, err := seg.pieces(opt); err == nil {
+				c.total += len(ps)
+			}
+		}
+		s = c
 	}
 	day := Day{Segments: make([]SegmentResult, len(cycle))}
 	var clock float64

@@ -35,9 +35,14 @@ func TestSpectrumFuel(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	day, err := vehicle.Simulate(v, vehicle.LeastFuel{}, cycle, vehicle.Options{Step: f.Step().Std()})
+	calls, last, total := 0, 0, 0
+	day, err := vehicle.Simulate(v, vehicle.LeastFuel{}, cycle, vehicle.Options{Step: f.Step().Std(),
+		Progress: func(done, n int) { calls, last, total = calls+1, done, n }})
 	if err != nil {
 		t.Fatal(err)
+	}
+	if calls == 0 || last != total || calls != total {
+		t.Errorf("progress: %d calls, last %d of %d; want one call per step ending at the total", calls, last, total)
 	}
 	full := float64(day.Audit.FuelEnergy)
 	rel := (float64(e) - full) / full
