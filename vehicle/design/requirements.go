@@ -22,6 +22,11 @@ type Requirements struct {
 	// Standstill asks that the forward speeds start at standstill: some
 	// range reaches zero travel speed, so no starting clutch slips.
 	Standstill bool `json:"standstill,omitempty"`
+	// LowestSpeed is the lowest forward travel speed that must be reached
+	// without slipping a clutch, when Standstill is not asked (km/h). The
+	// gap and unit-speed checks cover the speeds from it (or from
+	// standstill) to TopSpeed.
+	LowestSpeed units.Speed `json:"lowestSpeed,omitempty"`
 	// ReverseSpeed is the reverse travel speed some range must reach
 	// (km/h).
 	ReverseSpeed units.Speed `json:"reverseSpeed,omitempty"`
@@ -76,6 +81,15 @@ type Check struct {
 	// At is the operating point where the requirement binds, in words
 	// ("range field at 12.3 km/h, engine 2100 rpm"); "" when it has none.
 	At string
+	// Binding is that operating point as values (nil when it has none).
+	Binding *Binding
+}
+
+// Binding is the operating point where a requirement binds.
+type Binding struct {
+	Range  int                   // range index
+	Speed  units.Speed           // travel speed (no slip for speed checks)
+	Engine units.AngularVelocity // engine speed
 }
 
 // Interval is a connected span of travel speeds one range reaches at an
@@ -233,6 +247,15 @@ func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
 		}
 		add(c)
 	}
+	if req.LowestSpeed > 0 && !req.Standstill {
+		c := Check{Name: fmt.Sprintf("forward speeds start at or below %.1f km/h", req.LowestSpeed.KMH()), Got: "no forward speed", Margin: -1}
+		if len(spans) > 0 {
+			c.Got = fmt.Sprintf("lowest %.2f km/h", units.Speed(spans[0][0]).KMH())
+			c.Margin = 1 - spans[0][0]/float64(req.LowestSpeed)
+			c.Met = c.Margin >= 0
+		}
+		add(c)
+	}
 	if req.TopSpeed > 0 {
 		we := req.TopSpeedEngine
 		if we == 0 {
@@ -252,11 +275,14 @@ func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
 		// Gaps up to the top speed.
 		var worst float64
 		for _, g := range rep.Gaps {
-			if g.From < req.TopSpeed {
-				worst = max(worst, float64(min(g.To, req.TopSpeed)-g.From))
+			if g.From < req.TopSpeed && g.To > req.LowestSpeed {
+				worst = max(worst, float64(min(g.To, req.TopSpeed)-max(g.From, req.LowestSpeed)))
 			}
 		}
-		add(Check{Name: fmt.Sprintf("no speed gap up to %.1f km/h", req.TopSpeed.KMH()), Met: worst == 0,
+		if len(spans) == 0 || spans[len(spans)-1][1] < float64(req.TopSpeed) {
+			worst = max(worst, float64(req.TopSpeed)-max(reach, float64(req.LowestSpeed)))
+		}
+		add(Check{Name: fmt.Sprintf("no speed gap from %.1f to %.1f km/h", req.LowestSpeed.KMH(), req.TopSpeed.KMH()), Met: worst == 0,
 			Margin: -worst / float64(req.TopSpeed), Got: fmt.Sprintf("widest gap %.2f km/h", units.Speed(worst).KMH())})
 	}
 	if req.ReverseSpeed > 0 {
@@ -295,6 +321,7 @@ func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
 			Met: m >= 0, Margin: m, Got: fmt.Sprintf("%.1f kN", float64(best.Pull)/1e3)}
 		if best.Feasible {
 			c.At = fmt.Sprintf("range %s at %.1f km/h, engine %.0f rpm, limited by %s", names[best.Range], p.Speed.KMH(), rated.RPM(), best.Limit)
+			c.Binding = &Binding{Range: best.Range, Speed: p.Speed, Engine: rated}
 		}
 		add(c)
 	}
@@ -454,14 +481,22 @@ func (f *File) unitSpeedCheck(l powersplit.Layout, ivs []Interval, w units.Angul
 		names[iv.Range] = iv.Name
 	}
 	worst, at := 0.0, ""
+	var bind *Binding
+	low := req.LowestSpeed
+	if req.Standstill {
+		low = 0
+	}
 	const n = 60
-	for k := 1; k <= n; k++ {
-		v := top * units.Speed(k) / n
-		best, bestAt := math.Inf(1), ""
+	for k := range n + 1 {
+		v := low + (top-low)*units.Speed(k)/n
+		if v <= 0 {
+			continue
+		}
+		best, bestAt, bestRange := math.Inf(1), "", 0
 		for rg := range l.Ranges() {
 			r, m, _, ok := f.unitState(s, &st, rg, w, v)
 			if ok && r < best {
-				best = r
+				best, bestRange = r, rg
 				bestAt = fmt.Sprintf("range %s at %.2f km/h, engine %.0f rpm: %s %s %.0f of %.0f rpm", names[rg], v.KMH(), w.RPM(),
 					m.Element, m.Quantity, units.AngularVelocity(m.Value.SI).RPM(), units.AngularVelocity(m.Limit.SI).RPM())
 			}
@@ -471,11 +506,12 @@ func (f *File) unitSpeedCheck(l powersplit.Layout, ivs []Interval, w units.Angul
 		}
 		if best > worst {
 			worst, at = best, bestAt
+			bind = &Binding{Range: bestRange, Speed: v, Engine: w}
 		}
 	}
 	margin := 1 - worst - req.UnitSpeedMargin
 	return Check{Name: fmt.Sprintf("unit speeds %.0f %% below their greatest", 100*req.UnitSpeedMargin),
-		Met: margin >= 0, Margin: margin, Got: fmt.Sprintf("%.1f %% of the greatest", 100*worst), At: at}
+		Met: margin >= 0, Margin: margin, Got: fmt.Sprintf("%.1f %% of the greatest", 100*worst), At: at, Binding: bind}
 }
 
 // shiftCheck compares the variator's speed ratio (motor over pump) in the
