@@ -27,7 +27,8 @@
 // ωSun/ωRing = i0, and their inverses. The planets turn relative to the
 // carrier at −(z_sun/z_planet)·(ωSun − ωCarrier) (Set.PlanetSpeeds), the
 // speed their bearings see; in planet pairs the outer planet turns at
-// +(z_sun/z_outer)·(ωSun − ωCarrier).
+// +(z_sun/z_outer)·(ωSun − ωCarrier). Adding the carrier speed gives their
+// absolute speed, which PlanetSpeeds reports too.
 //
 // # Torques and the carrier-frame view of losses
 //
@@ -72,13 +73,25 @@
 // # Design checks
 //
 // New (and Check) verify positive tooth counts, a ring larger than the sun,
-// the coaxial condition (standard gears without profile shift), the
-// assembly condition for equally spaced planets, the neighbour condition
-// (planet tip circles must not touch, standard addendum equal to the module)
-// and the minimum tooth count against undercut at 20° pressure angle. Every
+// the coaxial condition, the assembly condition for equally spaced planets,
+// the neighbour condition (planet tip circles must not touch, standard
+// addendum equal to the module) and undercut at 20° pressure angle. Every
 // violation is reported at once, each as a *DesignError with its numbers.
-// Sets with profile-shifted gears can violate the standard coaxial
-// condition and still be sound; such a set is studied with FromRatio.
+//
+// Each gear may carry a profile shift x (Design.SunShift, PlanetShift,
+// RingShift, OuterPlanetShift). A mesh then works at the pressure angle
+// α_w and centre distance a given by the involute function inv φ = tan φ − φ:
+//
+//	external:  inv α_w = inv α + 2·tan α·(x1 + x2)/(z1 + z2),  a = m(z1 + z2)/2·cos α/cos α_w
+//	internal:  inv α_w = inv α + 2·tan α·(x_r − x_p)/(z_r − z_p), a = m(z_r − z_p)/2·cos α/cos α_w
+//
+// The set is coaxial when the sun–planet and planet–ring distances agree
+// (RingShiftFor finds the ring shift), so tooth counts off z_ring = z_sun +
+// 2·z_planet become possible; an external gear of 14–16 teeth passes the
+// undercut check with x ≥ (17 − z)/17, and no shift may point a tooth.
+// Set.Geometry reports the working centre distances and pressure angles,
+// the coaxial mismatch and the neighbour clearance margin. Shifts change
+// centre distances, not speed or torque ratios.
 //
 // # Sources
 //
@@ -92,7 +105,9 @@
 // (tooth-count conditions).
 // Read: Glinsky (2020), "Geometry / Planetary Gears", an open gear-geometry
 // notebook (ratios, centre-distance, planet-interference and equal-spacing
-// conditions). The tests name each worked example they check.
+// conditions); Eritenel, "Chapter 2 – Spur Gears", an open gear-geometry
+// notebook (involute function, working pressure angle, tip diameter). The
+// tests name each worked example they check.
 //
 // # Caution
 //

@@ -34,15 +34,20 @@ var (
 	// from a ratio.
 	ErrNoTeeth = errors.New("planetary: set has no tooth counts")
 
+	// ErrShift means a profile-shift coefficient is NaN, infinite or
+	// beyond ±MaxShift.
+	ErrShift = errors.New("planetary: invalid profile shift")
+
 	// ErrCoaxial means the planets do not fit between sun and ring on a
-	// common centre distance (standard gears, no profile shift).
+	// common centre distance (with their profile shifts).
 	ErrCoaxial = errors.New("planetary: coaxial condition violated")
 	// ErrAssembly means the planets cannot be assembled equally spaced.
 	ErrAssembly = errors.New("planetary: assembly condition violated")
 	// ErrNeighbour means neighbouring planets would touch.
 	ErrNeighbour = errors.New("planetary: neighbour condition violated")
 	// ErrUndercut means an external gear has fewer teeth than the minimum
-	// against undercut at 20° pressure angle.
+	// against undercut at 20° pressure angle for its profile shift, or a
+	// shift so large that its teeth come to a point.
 	ErrUndercut = errors.New("planetary: too few teeth, undercut")
 )
 

@@ -18,14 +18,17 @@ func finiteAll(v ...float64) bool {
 }
 
 func FuzzNew(f *testing.F) {
-	f.Add(20, 100, 40, 3, 0, 0.0, 0.0, 0)
-	f.Add(21, 108, 43, 3, 0, 1.75e-3, 0.97, 0)
-	f.Add(20, 62, 18, 3, 1, 0.0, 0.0, 18)
-	f.Add(0, -1, 0, 0, 9, math.NaN(), math.Inf(1), -3)
-	f.Add(1, 2, 1, 1<<30, 0, 1e300, 1.0, 0)
-	f.Fuzz(func(t *testing.T, zs, zr, zp, n, arr int, module, eta float64, zo int) {
+	f.Add(20, 100, 40, 3, 0, 0.0, 0.0, 0, 0.0, 0.0, 0.0, 0.0)
+	f.Add(21, 108, 43, 3, 0, 1.75e-3, 0.97, 0, 0.0, 0.0, 0.0, 0.0)
+	f.Add(20, 62, 18, 3, 1, 0.0, 0.0, 18, 0.0, 0.0, 0.0, 0.0)
+	f.Add(15, 63, 24, 3, 0, 3e-3, 0.0, 0, 0.2, 0.1, 0.4, 0.0)
+	f.Add(14, 60, 23, 1, 1, 0.0, 0.0, 16, 0.3, -0.5, 1.9, -2.0)
+	f.Add(0, -1, 0, 0, 9, math.NaN(), math.Inf(1), -3, math.NaN(), math.Inf(-1), 3.0, -3.0)
+	f.Add(1, 2, 1, 1<<30, 0, 1e300, 1.0, 0, 1e300, 0.0, 0.0, 0.0)
+	f.Fuzz(func(t *testing.T, zs, zr, zp, n, arr int, module, eta float64, zo int, xs, xp, xr, xo float64) {
 		d := planetary.Design{Sun: zs, Ring: zr, Planet: zp, Planets: n, Arrangement: planetary.Arrangement(arr),
-			Module: units.Length(module), BasicEfficiency: eta, OuterPlanet: zo}
+			Module: units.Length(module), BasicEfficiency: eta, OuterPlanet: zo,
+			SunShift: xs, PlanetShift: xp, RingShift: xr, OuterPlanetShift: xo}
 		s, err := planetary.New(d)
 		if err != nil {
 			return
@@ -39,8 +42,29 @@ func FuzzNew(f *testing.F) {
 			t.Fatalf("Solve on a valid set: %v", err)
 		}
 		ps, err := s.PlanetSpeeds(sp)
-		if err != nil || !finiteAll(float64(ps.Inner), float64(ps.Outer)) {
+		if err != nil || !finiteAll(float64(ps.Inner), float64(ps.Outer), float64(ps.InnerAbsolute), float64(ps.OuterAbsolute)) {
 			t.Fatalf("PlanetSpeeds(%v) = %v, %v", sp, ps, err)
+		}
+		g, err := s.Geometry()
+		if err != nil || !finiteAll(g.SunPlanet.CentreDistance, g.PlanetRing.CentreDistance, float64(g.SunPlanet.WorkingPressureAngle),
+			g.CoaxialMismatch) || math.IsNaN(g.NeighbourClearance) || (n > 1 && !(g.NeighbourClearance > 0)) {
+			t.Fatalf("Geometry of %+v = %+v, %v", d, g, err)
+		}
+		if d.Arrangement == planetary.SinglePlanet && math.Abs(g.CoaxialMismatch) > planetary.CoaxialTolerance {
+			t.Fatalf("New accepted %+v with coaxial mismatch %v", d, g.CoaxialMismatch)
+		}
+	})
+}
+
+func FuzzRingShiftFor(f *testing.F) {
+	f.Add(15, 24, 63, 0.2, 0.1)
+	f.Add(12, 36, 84, 0.3, 0.0)
+	f.Add(14, 21, 60, 0.0, 0.0)
+	f.Add(-1, 0, 1, math.NaN(), math.Inf(1))
+	f.Fuzz(func(t *testing.T, zs, zp, zr int, xs, xp float64) {
+		xr, err := planetary.RingShiftFor(planetary.Design{Sun: zs, Planet: zp, Ring: zr, SunShift: xs, PlanetShift: xp})
+		if err == nil && !finiteAll(xr) {
+			t.Fatalf("RingShiftFor = %v", xr)
 		}
 	})
 }

@@ -112,18 +112,28 @@ func (s Set) Ratio(in, out Member) (float64, error) {
 	return float64(r.Of(in)), nil
 }
 
-// PlanetSpeeds are the speeds of the planets relative to the carrier, the
-// speeds their bearings see. For a SinglePlanet set Outer equals Inner.
+// PlanetSpeeds are the speeds of the planets about their own axes:
+// relative to the carrier (the speeds their bearings see) and absolute (in
+// the frame of the housing, relative speed plus carrier speed, the speed
+// a churning or windage estimate needs). For a SinglePlanet set Outer
+// equals Inner.
 type PlanetSpeeds struct {
-	Inner units.AngularVelocity // the planet meshing the sun
-	Outer units.AngularVelocity // the planet meshing the ring (double planet)
+	Inner units.AngularVelocity // the planet meshing the sun, relative to the carrier
+	Outer units.AngularVelocity // the planet meshing the ring (double planet), relative to the carrier
+	// InnerAbsolute and OuterAbsolute are Inner and Outer plus the carrier
+	// speed.
+	InnerAbsolute, OuterAbsolute units.AngularVelocity
 }
 
-// PlanetSpeeds returns the planet speeds relative to the carrier. With
-// u = ωSun − ωCarrier, an external mesh reversing the sense:
+// PlanetSpeeds returns the planet speeds relative to the carrier and
+// absolute. With u = ωSun − ωCarrier, an external mesh reversing the sense:
 //
 //	single planet: ωPlanet − ωCarrier = −(z_sun/z_planet)·u
 //	double planet: inner −(z_sun/z_inner)·u, outer +(z_sun/z_outer)·u
+//	absolute:      ωPlanet = (ωPlanet − ωCarrier) + ωCarrier
+//
+// Profile shifts change the centre distances, not these ratios (the
+// base-circle ratio of each mesh is the tooth ratio).
 //
 // The speeds must satisfy the Willis equation (ErrWillis otherwise); a set
 // from FromRatio has no tooth counts (ErrNoTeeth).
@@ -147,7 +157,13 @@ func (s Set) PlanetSpeeds(sp Speeds) (PlanetSpeeds, error) {
 	if s.d.Arrangement == DoublePlanet {
 		out = zs / float64(s.d.OuterPlanet) * u
 	}
-	return PlanetSpeeds{Inner: units.AngularVelocity(in), Outer: units.AngularVelocity(out)}, nil
+	wc := float64(sp.Carrier)
+	ia, oa := in+wc, out+wc
+	if !isFinite(ia) || !isFinite(oa) {
+		return PlanetSpeeds{}, &InputError{Quantity: "absolute planet speed", Value: ia + oa, Limit: math.MaxFloat64, Err: ErrNotFinite}
+	}
+	return PlanetSpeeds{Inner: units.AngularVelocity(in), Outer: units.AngularVelocity(out),
+		InnerAbsolute: units.AngularVelocity(ia), OuterAbsolute: units.AngularVelocity(oa)}, nil
 }
 
 // checkSpeeds checks that all three speeds are finite and satisfy Willis.

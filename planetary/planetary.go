@@ -93,6 +93,16 @@ type Design struct {
 	// meshing the ring) in a DoublePlanet set; 0 means equal to Planet.
 	// Ignored for SinglePlanet.
 	OuterPlanet int
+	// Profile-shift coefficients x (addendum modification in multiples of
+	// the module, tool moved out of the blank positive); 0 means unshifted.
+	// RingShift > 0 moves the ring's teeth outward (its tip circle grows to
+	// m(z_ring − 2 + 2x)), so that, like a positive planet shift, it widens
+	// the planet–ring centre distance (ISO 21771 counts an internal gear's
+	// shift with the opposite sign). OuterPlanetShift is the outer planet's
+	// of a pair (with OuterPlanet 0, the outer planet copies the inner one,
+	// shift included, unless OuterPlanetShift is given). See Check for what
+	// shifts allow.
+	SunShift, PlanetShift, RingShift, OuterPlanetShift float64
 }
 
 // Set is a planetary gear set: its fixed-carrier ratio i0, basic efficiency
@@ -133,8 +143,12 @@ func normalise(d Design) Design {
 	}
 	if d.Arrangement == SinglePlanet {
 		d.OuterPlanet = 0
+		d.OuterPlanetShift = 0
 	} else if d.OuterPlanet == 0 {
 		d.OuterPlanet = d.Planet
+		if d.OuterPlanetShift == 0 {
+			d.OuterPlanetShift = d.PlanetShift
+		}
 	}
 	return d
 }

@@ -3,6 +3,7 @@ package planetary_test
 import (
 	"errors"
 	"fmt"
+	"math"
 
 	"github.com/powersplit-dev/powersplit/planetary"
 	"github.com/powersplit-dev/powersplit/units"
@@ -30,7 +31,7 @@ func ExampleCheck() {
 	fmt.Println(err)
 	// Output:
 	// true true
-	// planetary: undercut condition: sun teeth 15 teeth, limit 17 teeth (external gear at 20° pressure angle needs at least the minimum)
+	// planetary: undercut condition: sun teeth 15 teeth, limit 17 teeth (external gear at 20° pressure angle needs at least the minimum, or a profile shift)
 	// planetary: coaxial condition: ring teeth 52 teeth, limit 51 teeth (z_ring = z_sun + 2·z_planet)
 	// planetary: assembly condition: (z_sun + z_ring) mod N 3 teeth, limit 0 teeth (z_sun + z_ring = 67 must be a multiple of N = 4 planets)
 }
@@ -90,4 +91,30 @@ func ExampleSet_TorqueFactors() {
 	// Output:
 	// sun drives: kRing 2.94, kCarrier -3.94
 	// ring drives: kRing 3.061, kCarrier -4.061
+}
+
+// A 15-tooth sun needs a profile shift against undercut; the ring shift
+// that keeps the set coaxial follows from RingShiftFor.
+func ExampleRingShiftFor() {
+	d := planetary.Design{Sun: 15, Planet: 24, Ring: 63, Planets: 3, SunShift: 0.2, PlanetShift: 0.1,
+		Module: units.Millimetres(3)}
+	xr, err := planetary.RingShiftFor(d)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	d.RingShift = xr
+	s, err := planetary.New(d)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	g, _ := s.Geometry()
+	fmt.Printf("ring shift %.4f, centre distance %.3f mm at α_w %.3f°\n", xr,
+		g.Length(g.SunPlanet.CentreDistance).Millimetres(), float64(g.SunPlanet.WorkingPressureAngle)*180/math.Pi)
+	fmt.Printf("planet–ring α_w %.3f°, neighbour clearance %.2f mm, i0 %.3f\n",
+		float64(g.PlanetRing.WorkingPressureAngle)*180/math.Pi, g.Length(g.NeighbourClearance).Millimetres(), s.FixedCarrierRatio())
+	// Output:
+	// ring shift 0.4000, centre distance 59.355 mm at α_w 22.157°
+	// planet–ring α_w 22.157°, neighbour clearance 24.21 mm, i0 -4.200
 }
