@@ -108,8 +108,11 @@
 // displacement setting gives the speed ratio asked for; ErrInfeasible
 // covers the loop's relief pressure, unit speed and peak pressure limits and
 // a range's output speed limit. State.Margins lists the distance from every
-// limit at a feasible point; State.Flags lists rated continuous pressures
-// exceeded below the relief setting.
+// limit at a feasible point, and every limit a unit's spec leaves at zero
+// as not checked (Margin.Unchecked; Layout.Unrated lists them without a
+// point); State.Flags lists rated continuous pressures exceeded below the
+// relief setting. Margins and limit errors carry units.Measure values,
+// which print in the trade's units (bar, rpm, cm³/rev).
 //
 // # The summary and the full state
 //

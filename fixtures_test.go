@@ -35,7 +35,7 @@ func makeLoop(tb testing.TB, s loopSpec) hydrostat.Loop {
 	}
 	mk := func(cc float64) hydrostat.Unit {
 		u, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(cc),
-			MaxSpeed: units.RPM(s.maxRPM), RatedPressure: units.Bar(420), PeakPressure: units.Bar(480), Loss: lm})
+			MaxSpeed: units.RPM(s.maxRPM), RatedPressure: units.Bar(420), PeakPressure: units.Bar(520), Loss: lm})
 		if err != nil {
 			tb.Fatal(err)
 		}

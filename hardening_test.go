@@ -172,3 +172,42 @@ func TestMeaninglessInput(t *testing.T) {
 		}
 	}
 }
+
+// TestUnratedListed: a limit a unit's spec leaves at zero is listed in
+// State.Margins as not checked and by Layout.Unrated; a rated one is not.
+// Before, a zero MaxSpeed dropped the margin with no trace.
+func TestUnratedListed(t *testing.T) {
+	t.Parallel()
+	for _, rpm := range []float64{0, 9000} {
+		lp := makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100, maxRPM: rpm})
+		l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(t, testI0, 0.98), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8})
+		if err != nil {
+			t.Fatal(err)
+		}
+		var st State
+		if err := solveNu(t, NewSolver(l), &st, 0.3, 200); err != nil {
+			t.Fatal(err)
+		}
+		unchecked := map[string]bool{}
+		for _, m := range st.Margins {
+			if m.Unchecked {
+				unchecked[m.Quantity+": "+m.Bound] = true
+				if m.Value.SI == 0 {
+					t.Errorf("unchecked margin %v carries no value", m)
+				}
+			}
+		}
+		want := map[string]bool{}
+		if rpm == 0 {
+			want = map[string]bool{"pump speed: maximum speed": true, "motor 1 speed: maximum speed": true}
+		}
+		if len(unchecked) != len(want) || (rpm == 0 && (!unchecked["pump speed: maximum speed"] || !unchecked["motor 1 speed: maximum speed"])) {
+			t.Errorf("max speed %v rpm: unchecked margins %v, want %v", rpm, unchecked, want)
+		}
+		if got := l.Unrated(); len(got) != len(want) {
+			t.Errorf("max speed %v rpm: Unrated() = %q", rpm, got)
+		} else if rpm == 0 && got[0] != "hydrostat: pump speed: maximum speed not rated, not checked" {
+			t.Errorf("Unrated()[0] = %q", got[0])
+		}
+	}
+}

@@ -573,6 +573,39 @@ func (l *layout) speeds(r *rangeDef, win float64, wout func(int) float64, w []fl
 	}
 }
 
+// Unrated lists the limits of the layout's hydrostatic units that their
+// specs leave at zero, which the solver therefore does not check, one line
+// each: "<loop>: <unit> <quantity>: <bound> not rated, not checked" (for
+// example "hydrostat: motor 1 speed: maximum speed not rated, not
+// checked"). Empty when every limit is rated (a loop built with
+// hydrostat.LoopSpec.Strict has none unrated); nil for the zero Layout.
+func (l Layout) Unrated() []string {
+	if l.l == nil {
+		return nil
+	}
+	var out []string
+	for _, e := range l.l.loops {
+		el := &l.l.elems[e]
+		for k := range el.shafts {
+			us := &el.uspec[k]
+			for _, c := range []struct {
+				rated    bool
+				quantity string
+				bound    string
+			}{
+				{us.MaxSpeed > 0, el.unames[k][1], boundSpeed},
+				{us.RatedPressure > 0, el.unames[k][0], boundRated},
+				{us.PeakPressure > 0, el.unames[k][0], boundPeak},
+			} {
+				if !c.rated {
+					out = append(out, el.name+": "+c.quantity+": "+c.bound+" not rated, not checked")
+				}
+			}
+		}
+	}
+	return out
+}
+
 // Ranges returns the number of ranges (0 for the zero Layout).
 func (l Layout) Ranges() int {
 	if l.l == nil {

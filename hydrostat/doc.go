@@ -133,6 +133,12 @@
 // caller's iteration: the same state, the crossed limit reported by its
 // bare sentinel, and no allocation.
 //
+// NewLoop refuses a relief setting above the lowest peak pressure of the
+// loop's units (or a unit's rated pressure where it gives no peak): the
+// relief must protect every unit. A zero MaxSpeed, RatedPressure or
+// PeakPressure means "not rated": that limit is not checked, and the root
+// package's margins say so; LoopSpec.Strict refuses such a unit.
+//
 // # Usage
 //
 //	pump, _ := hydrostat.NewUnit(hydrostat.UnitSpec{

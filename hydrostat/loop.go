@@ -22,8 +22,12 @@ type LoopSpec struct {
 	Oil         Oil
 	Temperature units.Temperature // oil temperature in the loop
 	Charge      units.Pressure    // low-side (boost) pressure, ≥ 0
-	Relief      units.Pressure    // high-side relief setting (gauge), > Charge
+	Relief      units.Pressure    // high-side relief setting (gauge), > Charge, at most the units' lowest peak (else rated) pressure
 	Schedule    Schedule          // nil means Sequential{}
+	// Strict refuses a unit whose maximum speed, rated pressure or peak
+	// pressure is not rated (zero in its spec). Without it such a limit is
+	// not checked, and the solver's margins say so.
+	Strict bool
 }
 
 // Loop is a built, immutable closed loop.
@@ -38,7 +42,47 @@ type Loop struct {
 	floor, pumpLow float64
 }
 
-// NewLoop validates s and returns the loop. The Motors slice is copied.
+// checkRatings refuses a relief setting above what the units can take —
+// the lowest peak pressure of the loop's units, or a unit's rated pressure
+// where it gives no peak — and, with s.Strict, a unit with a limit not
+// rated.
+func checkRatings(s *LoopSpec) error {
+	lowest, which, bound := units.Pressure(0), "", ""
+	for i := range 1 + len(s.Motors) {
+		u, name := s.Pump, "the pump"
+		if i > 0 {
+			u, name = s.Motors[i-1], "motor "+strconv.Itoa(i)
+		}
+		sp := &u.spec
+		if s.Strict {
+			for _, r := range []struct {
+				rated bool
+				what  string
+			}{{sp.MaxSpeed > 0, "maximum speed"}, {sp.RatedPressure > 0, "rated pressure"}, {sp.PeakPressure > 0, "peak pressure"}} {
+				if !r.rated {
+					return fmt.Errorf("%w: %s has no %s; a strict loop needs every unit's maximum speed, rated and peak pressure", ErrInvalid, name, r.what)
+				}
+			}
+		}
+		lim, b := sp.PeakPressure, "peak pressure"
+		if lim == 0 {
+			lim, b = sp.RatedPressure, "rated pressure"
+		}
+		if lim > 0 && (which == "" || lim < lowest) {
+			lowest, which, bound = lim, name, b
+		}
+	}
+	if which != "" && s.Relief > lowest {
+		return fmt.Errorf("%w: relief setting %v above %s %v of %s: the units cannot take the pressure the relief allows",
+			ErrInvalid, s.Relief, bound, lowest, which)
+	}
+	return nil
+}
+
+// NewLoop validates s and returns the loop. The Motors slice is copied. It
+// refuses a relief setting above the lowest peak pressure of the loop's
+// units (or a unit's rated pressure where no peak is given), and with
+// Strict a unit whose speed or pressures are not rated.
 func NewLoop(s LoopSpec) (Loop, error) {
 	if !(s.Pump.dmax > 0) {
 		return Loop{}, fmt.Errorf("%w: loop needs a pump built with NewUnit", ErrInvalid)
@@ -54,6 +98,9 @@ func NewLoop(s LoopSpec) (Loop, error) {
 	c, r := float64(s.Charge), float64(s.Relief)
 	if !finite(c) || c < 0 || !finite(r) || !(r > c) {
 		return Loop{}, fmt.Errorf("%w: need 0 ≤ charge < relief, finite (charge %v, relief %v)", ErrInvalid, s.Charge, s.Relief)
+	}
+	if err := checkRatings(&s); err != nil {
+		return Loop{}, err
 	}
 	fl, err := s.Oil.at(s.Temperature)
 	if err != nil {

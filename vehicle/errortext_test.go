@@ -2,6 +2,7 @@ package vehicle_test
 
 import (
 	"testing"
+	"time"
 
 	"github.com/powersplit-dev/powersplit/units"
 	"github.com/powersplit-dev/powersplit/vehicle"
@@ -36,5 +37,35 @@ func TestErrorTexts(t *testing.T) {
 		if got := c.err.Error(); got != c.want {
 			t.Errorf("%s:\n got %q\nwant %q", c.name, got, c.want)
 		}
+	}
+}
+
+// TestUnratedFlags: the unit limits a layout leaves unrated come with
+// every drive point as flags that say they were not checked. Before, a
+// zero MaxSpeed turned the check off with no trace.
+func TestUnratedFlags(t *testing.T) {
+	t.Parallel()
+	drive, err := vehicle.FromLayout(demoLayout(t)) // units with no maximum speed
+	if err != nil {
+		t.Fatal(err)
+	}
+	dp, err := drive.Operate(0, units.RPM(1800), units.RPM(900), units.NewtonMetres(300))
+	if err != nil {
+		t.Fatal(err)
+	}
+	var got []string
+	for _, f := range dp.Flags {
+		if f.Unchecked {
+			got = append(got, f.String())
+		}
+	}
+	want := []string{"hydrostat: pump speed: maximum speed not rated, not checked",
+		"hydrostat: motor 1 speed: maximum speed not rated, not checked"}
+	if len(got) != len(want) || got[0] != want[0] || got[1] != want[1] {
+		t.Errorf("unchecked flags %q, want %q", got, want)
+	}
+	f := vehicle.Flag{Name: "front tyre load", Unchecked: true, Time: 3 * time.Minute}
+	if s := f.String(); s != "front tyre load: not rated, not checked for 3 min" {
+		t.Errorf("Flag.String() = %q", s)
 	}
 }

@@ -2,6 +2,7 @@ package vehicle
 
 import (
 	"strconv"
+	"strings"
 	"time"
 
 	"github.com/powersplit-dev/powersplit/units"
@@ -19,6 +20,11 @@ type Flag struct {
 	// day's flags) and Limit the rating, as typed measures that print in
 	// the trade's units.
 	Value, Limit units.Measure
+	// Unchecked means the limit is not rated (zero in its spec): nothing
+	// was checked against it. Name then names the limit (for example
+	// "hydrostat: motor 1 speed: maximum speed not rated, not checked",
+	// or "front tyre load") and Value and Limit are zero.
+	Unchecked bool
 	// Time is the time spent beyond the rating: zero at a single point,
 	// summed over the steps of a segment or a day.
 	Time time.Duration
@@ -27,7 +33,20 @@ type Flag struct {
 // String returns "<name> <value> above rated <limit>[ for <time>]", with
 // values in the trade's units: "hydrostat: pump pressure 290 bar above
 // rated 150 bar for 42 min".
+//
+// An Unchecked flag reads "<name>: not rated, not checked[ for <time>]"
+// (its name alone when it says so already).
 func (f Flag) String() string {
+	if f.Unchecked {
+		s := f.Name
+		if !strings.HasSuffix(s, "not checked") {
+			s += ": not rated, not checked"
+		}
+		if f.Time > 0 {
+			s += " for " + minutes(f.Time)
+		}
+		return s
+	}
 	s := f.Name + " " + f.Value.String() + " above rated " + f.Limit.String()
 	if f.Time > 0 {
 		s += " for " + minutes(f.Time)

@@ -22,6 +22,8 @@ type LayoutDrive struct {
 	solver *powersplit.Solver
 	st     powersplit.State
 	outs   []powersplit.OutputDemand
+	// unrated are the flags of the layout's limits that are not rated.
+	unrated []Flag
 }
 
 // FromLayout returns the Transmission view of layout l.
@@ -35,7 +37,11 @@ func FromLayout(l powersplit.Layout) (*LayoutDrive, error) {
 	if l.Ranges() < 1 {
 		return nil, invalid("layout ranges", 0.0, "needs at least one range")
 	}
-	return &LayoutDrive{layout: l, solver: powersplit.NewSolver(l), outs: make([]powersplit.OutputDemand, 1)}, nil
+	d := &LayoutDrive{layout: l, solver: powersplit.NewSolver(l), outs: make([]powersplit.OutputDemand, 1)}
+	for _, u := range l.Unrated() {
+		d.unrated = append(d.unrated, Flag{Name: u, Unchecked: true})
+	}
+	return d, nil
 }
 
 // Ranges implements Transmission.
@@ -51,7 +57,8 @@ func (d *LayoutDrive) Layout() powersplit.Layout { return d.layout }
 // are HydrostaticLoss, its drag sources (powersplit.State.Drags) NoLoadLoss
 // and NoLoad by name, all other elements' losses MechanicalLoss. Rated
 // limits the solver flags without making the point infeasible are listed in
-// DrivePoint.Flags.
+// DrivePoint.Flags, and so are the layout's limits that are not rated
+// (Flag.Unchecked; see powersplit.Layout.Unrated).
 func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTorque units.Torque) (DrivePoint, error) {
 	if rng < 0 || rng >= d.layout.Ranges() {
 		return DrivePoint{}, invalid("range", float64(rng), "does not exist")
@@ -100,6 +107,12 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 	}
 	for _, m := range st.Flags {
 		p.Flags = append(p.Flags, Flag{Name: m.Element + ": " + m.Quantity, Value: m.Value, Limit: m.Limit})
+	}
+	if len(p.Flags) == 0 {
+		// Shared by every point, capacity-limited: an append copies.
+		p.Flags = d.unrated[:len(d.unrated):len(d.unrated)]
+	} else {
+		p.Flags = append(p.Flags, d.unrated...)
 	}
 	return p, nil
 }

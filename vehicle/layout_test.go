@@ -19,7 +19,7 @@ func demoLayout(tb testing.TB) powersplit.Layout {
 	wil := hydrostat.Wilson{Slip: 1e-9, Viscous: 2e5, Friction: 0.01, ConstantPressure: units.Bar(1)}
 	mk := func(cc float64) hydrostat.Unit {
 		u, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(cc),
-			RatedPressure: units.Bar(420), PeakPressure: units.Bar(480), Loss: wil})
+			RatedPressure: units.Bar(420), PeakPressure: units.Bar(520), Loss: wil})
 		if err != nil {
 			tb.Fatal(err)
 		}

@@ -37,6 +37,9 @@ type Wheels struct {
 	// Circulating is the power an overrun axle returns into the driveline
 	// (zero when the model does not tell).
 	FrontSlipLoss, RearSlipLoss, Circulating units.Power
+	// Unrated names the axles whose tyres have no load rating, so that
+	// their load is not checked: "", "front", "rear" or "front and rear".
+	Unrated string
 }
 
 // A SlipCurve is a simple traction model for studies and tests: all wheels
@@ -172,5 +175,19 @@ func (t Tyres) wheels(d traction.Drive) Wheels {
 		FrontSlipLoss: d.Front.SlipLoss,
 		RearSlipLoss:  d.Rear.SlipLoss,
 		Circulating:   d.CirculatingPower,
+		Unrated:       unrated(t.Vehicle.Front.Tyre.RatedLoad > 0, t.Vehicle.Rear.Tyre.RatedLoad > 0),
 	}
+}
+
+// unrated names the axles whose tyres have no load rating.
+func unrated(front, rear bool) string {
+	switch {
+	case !front && !rear:
+		return "front and rear"
+	case !front:
+		return "front"
+	case !rear:
+		return "rear"
+	}
+	return ""
 }

@@ -313,6 +313,9 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		if wh.Overloaded {
 			p.Flags = append(p.Flags, Flag{Name: FlagTyreOverload, Value: units.Of(wh.TyreLoad), Limit: units.Of(wh.RatedLoad)})
 		}
+		if wh.Unrated != "" {
+			p.Flags = append(p.Flags, Flag{Name: wh.Unrated + " " + FlagTyreOverload, Unchecked: true})
+		}
 		f.Rolling = wh.RollingLoss
 		// Close the tyre balance exactly on the slip loss (its rounding is
 		// within the check above).

@@ -57,6 +57,29 @@ func Assumptions(sc *Scenario) (defaults, unchecked []string) {
 	return defaults, unchecked
 }
 
+// Strict refuses a design with a hydrostatic unit whose maximum speed,
+// rated or peak pressure is not given: the example programs run strict, so
+// no unit limit is silently left unchecked (the library itself accepts an
+// unrated unit and lists the limit as not checked, see
+// powersplit.Layout.Unrated).
+func Strict(sc *Scenario) error {
+	for _, tr := range append([]Transmission{sc.Transmission}, sc.Alternatives...) {
+		l, err := tr.Layout()
+		if err != nil {
+			return err
+		}
+		if u := l.Unrated(); len(u) > 0 {
+			name := tr.Name
+			if name == "" {
+				name = "the transmission"
+			}
+			return fmt.Errorf("%s: unrated unit limits (the example programs need every unit's maxSpeed, ratedPressure and peakPressure): %s",
+				name, strings.Join(u, "; "))
+		}
+	}
+	return nil
+}
+
 // Preamble prints the fuel model, the defaults and the unchecked limits.
 func (r *Run) Preamble() {
 	sc := r.Scenario

@@ -58,6 +58,9 @@ func Start(program, about string) (*Run, error) {
 	if err != nil {
 		return nil, err
 	}
+	if err := Strict(sc); err != nil {
+		return nil, err
+	}
 	dir := *out
 	if dir == "" {
 		dir, err = os.MkdirTemp("", "powersplit-"+program+"-")

@@ -52,3 +52,21 @@ var zeroValue float64
 
 func zero() float64     { return zeroValue }
 func nanValue() float64 { return zero() / zero() }
+
+// TestStrict: the example programs refuse a design with an unrated unit
+// limit, naming it; the built-in design is fully rated.
+func TestStrict(t *testing.T) {
+	t.Parallel()
+	sc, err := Default()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if err := Strict(sc); err != nil {
+		t.Fatalf("built-in design: %v", err)
+	}
+	sc.Transmission.Motor.MaxSpeed = 0
+	err = Strict(sc)
+	if err == nil || !strings.Contains(err.Error(), "motor 1 speed: maximum speed not rated") {
+		t.Errorf("unrated motor speed: %v", err)
+	}
+}
