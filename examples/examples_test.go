@@ -23,11 +23,13 @@ import (
 var programs = []struct {
 	name    string
 	figures []string
+	args    []string
 }{
-	{"demoday", []string{"fuel_per_segment", "losses"}},
-	{"efficiency", []string{"efficiency_ranges", "hydraulic_share", "efficiency_map"}},
-	{"compare", []string{"compare_efficiency", "compare_fuel"}},
-	{"traction", []string{"tractive_efficiency"}},
+	{"demoday", []string{"fuel_per_segment", "losses"}, nil},
+	{"efficiency", []string{"efficiency_ranges", "hydraulic_share", "efficiency_map"}, nil},
+	{"compare", []string{"compare_efficiency", "compare_fuel"}, nil},
+	{"traction", []string{"tractive_efficiency"}, nil},
+	{"design", []string{"design_pareto", "design_effort_chosen", "design_effort_demo"}, []string{"-candidates", "300"}},
 }
 
 var (
@@ -86,7 +88,7 @@ func TestExamples(t *testing.T) {
 			t.Parallel()
 			out := t.TempDir()
 			start := time.Now()
-			cmd := exec.Command(filepath.Join(dir, p.name), "-out", out)
+			cmd := exec.Command(filepath.Join(dir, p.name), append([]string{"-out", out}, p.args...)...)
 			var stdout, stderr bytes.Buffer
 			cmd.Stdout, cmd.Stderr = &stdout, &stderr
 			if err := cmd.Run(); err != nil {

@@ -283,7 +283,8 @@ func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
 			worst = max(worst, float64(req.TopSpeed)-max(reach, float64(req.LowestSpeed)))
 		}
 		add(Check{Name: fmt.Sprintf("no speed gap from %.1f to %.1f km/h", req.LowestSpeed.KMH(), req.TopSpeed.KMH()), Met: worst == 0,
-			Margin: -worst / float64(req.TopSpeed), Got: fmt.Sprintf("widest gap %.2f km/h", units.Speed(worst).KMH())})
+			Margin: 0 - worst/float64(req.TopSpeed), // 0 − 0 is +0: no "-0 %" for a met check
+			Got:    fmt.Sprintf("widest gap %.2f km/h", units.Speed(worst).KMH())})
 	}
 	if req.ReverseSpeed > 0 {
 		best, at := 0.0, ""

@@ -390,8 +390,8 @@ const completeLine = "# complete"
 
 // WriteCSV writes a part's results: comment lines with the header, a
 // column row (index, feasible, reason, the parameters, the objectives),
-// one row per result with numbers that read back exactly, and a closing
-// "# complete" line.
+// one row per result with numbers that read back exactly (an infeasible
+// candidate's objectives left empty), and a closing "# complete" line.
 func WriteCSV(w io.Writer, h Header, rs []Result) error {
 	bw := bufio.NewWriter(w)
 	fmt.Fprintf(bw, "# powersplit design search\n# space: %s\n# fingerprint: %s\n# seed: %d\n# candidates: %d\n# part: %d of %d\n# version: %s\n",
@@ -410,7 +410,9 @@ func WriteCSV(w io.Writer, h Header, rs []Result) error {
 		b = strconv.AppendQuote(b, r.Reason)
 		for _, v := range append(slices.Clone(r.X), r.Objectives...) {
 			b = append(b, ',')
-			b = strconv.AppendFloat(b, v, 'g', -1, 64)
+			if !math.IsNaN(v) { // an infeasible candidate's objectives stay empty
+				b = strconv.AppendFloat(b, v, 'g', -1, 64)
+			}
 		}
 		b = append(b, '\n')
 		bw.Write(b)
@@ -518,6 +520,10 @@ func parseRow(t string) (Result, error) {
 	for _, f := range strings.Split(strings.TrimPrefix(t, ","), ",") {
 		if f == "" && t == "" {
 			break
+		}
+		if f == "" {
+			vals = append(vals, math.NaN())
+			continue
 		}
 		v, err := strconv.ParseFloat(f, 64)
 		if err != nil {

@@ -30,8 +30,11 @@ type Run struct {
 // and makes the output folder. With -print-design it writes the built-in
 // scenario file to standard output and returns (nil, nil): the caller
 // exits.
-func Start(program, about string) (*Run, error) {
+func Start(program, about string, extra ...func(*flag.FlagSet)) (*Run, error) {
 	fs := flag.NewFlagSet(program, flag.ContinueOnError)
+	for _, add := range extra {
+		add(fs)
+	}
 	out := fs.String("out", "", "folder for the figures and CSV files (default: a fresh temporary folder)")
 	designPath := fs.String("design", "", "scenario file (JSON) to use instead of the built-in demo tractor")
 	print := fs.Bool("print-design", false, "print the built-in scenario file, to copy and edit, and exit")
@@ -81,7 +84,17 @@ func Start(program, about string) (*Run, error) {
 
 // Main runs body after Start and exits with status 1 on an error.
 func Main(program, about string, body func(r *Run) error) {
-	r, err := Start(program, about)
+	MainFlags(program, about, nil, body)
+}
+
+// MainFlags is Main for a program with flags of its own, which flags
+// registers on the flag set before it is parsed.
+func MainFlags(program, about string, flags func(*flag.FlagSet), body func(r *Run) error) {
+	var extra []func(*flag.FlagSet)
+	if flags != nil {
+		extra = append(extra, flags)
+	}
+	r, err := Start(program, about, extra...)
 	if err == nil && r != nil {
 		err = body(r)
 		if err == nil {
