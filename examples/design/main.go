@@ -38,10 +38,10 @@ import (
 )
 
 var (
-	candidates = 2000
+	candidates        = 2000
 	seed       uint64 = 1
-	part       = -1
-	parts      = 0
+	part              = -1
+	parts             = 0
 	merge      bool
 	workers    = 0
 )
