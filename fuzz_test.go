@@ -1,6 +1,7 @@
 package powersplit
 
 import (
+	"errors"
 	"math"
 	"testing"
 
@@ -27,6 +28,63 @@ func finiteState(st *State) bool {
 	return true
 }
 
+// checkSolved checks what every state Solve returns without an error must
+// satisfy: finite values, every loss ≥ 0, each element's ports taking its
+// loss, the layout's power balance (input = outputs + PTOs + losses) within
+// 1e-9 of the powers that flow, and the demanded output speeds.
+func checkSolved(t *testing.T, st *State, p Point) {
+	t.Helper()
+	if !finiteState(st) {
+		t.Fatalf("non-finite state without error: %+v", st)
+	}
+	pin, pout, ppto := float64(st.InputPower), float64(st.OutputPower), float64(st.PTOPower)
+	scale := math.Abs(pin) + math.Abs(pout) + math.Abs(ppto) + 1e-3*st.powerScale()
+	loss := 0.0
+	for _, e := range st.Elements {
+		if e.Loss < 0 {
+			t.Fatalf("%s: loss %v < 0", e.Name, e.Loss)
+		}
+		loss += float64(e.Loss)
+		if e.Kind == InputKind || e.Kind == OutputKind || e.Kind == FreeOutputKind || e.Kind == PTOKind {
+			continue
+		}
+		sum := 0.0
+		for _, q := range e.Ports {
+			sum += float64(q.Power)
+		}
+		if math.Abs(sum-float64(e.Loss)) > 1e-9*scale {
+			t.Fatalf("%s: ports take %g W, loss %v", e.Name, sum, e.Loss)
+		}
+	}
+	if r := math.Abs(pin - pout - ppto - loss); r > 1e-9*scale {
+		t.Fatalf("power balance: in %v, out %v, PTO %v, losses %g W (residual %g of %g)", st.InputPower, st.OutputPower, st.PTOPower, loss, r, scale)
+	}
+	for i, o := range p.Outputs {
+		if i < len(st.Outputs) && o.Speed != 0 && math.Abs(float64(st.Outputs[i].Speed-o.Speed)) > 1e-12*maxSpeed(st) {
+			t.Fatalf("output %d turns at %v, demanded %v", i, st.Outputs[i].Speed, o.Speed)
+		}
+	}
+}
+
+// maxSpeed returns the largest shaft speed magnitude of st, in rad/s.
+func maxSpeed(st *State) float64 {
+	m := 0.0
+	for _, sh := range st.Shafts {
+		m = math.Max(m, math.Abs(float64(sh.Speed)))
+	}
+	return m
+}
+
+// knownKind reports whether err is one of the package's documented kinds.
+func knownKind(err error) bool {
+	for _, k := range []error{ErrInput, ErrInfeasible, ErrNoConvergence, ErrSingular, ErrKinematics, ErrTorques, ErrLayout} {
+		if errors.Is(err, k) {
+			return true
+		}
+	}
+	return false
+}
+
 // FuzzSolve feeds arbitrary operating points to a lossy two-range
 // output-coupled split: an error or a finite state, never a panic or NaN.
 func FuzzSolve(f *testing.F) {
@@ -46,10 +104,20 @@ func FuzzSolve(f *testing.F) {
 	f.Fuzz(func(t *testing.T, rng int, in, out, tq, pto float64) {
 		s := NewSolver(l)
 		var st State
-		err := s.Solve(Point{Range: rng, Input: units.RPM(in), Outputs: []OutputDemand{{Speed: units.RPM(out), Torque: units.Torque(tq)}},
-			PTO: []units.Torque{units.Torque(pto)}}, &st)
-		if err == nil && !finiteState(&st) {
-			t.Fatalf("non-finite state without error: %+v", st)
+		p := Point{Range: rng, Input: units.RPM(in), Outputs: []OutputDemand{{Speed: units.RPM(out), Torque: units.Torque(tq)}},
+			PTO: []units.Torque{units.Torque(pto)}}
+		err := s.Solve(p, &st)
+		if err != nil {
+			if !knownKind(err) {
+				t.Fatalf("error of no documented kind: %v", err)
+			}
+			return
+		}
+		checkSolved(t, &st, p)
+		// The PTO is geared to the engine (ratio 0.27).
+		// Kinematics close to rounding of the largest shaft speed.
+		if w := 0.27 * float64(p.Input); math.Abs(float64(st.PTOs[0].Speed)-w) > 1e-12*maxSpeed(&st) {
+			t.Fatalf("PTO at %v, want 0.27 × %v", st.PTOs[0].Speed, p.Input)
 		}
 	})
 }
@@ -87,8 +155,10 @@ func FuzzBuilders(f *testing.F) {
 		var st State
 		p := Point{Input: units.RPM(2000), Outputs: make([]OutputDemand, len(l.Outputs()))}
 		p.Outputs[0] = OutputDemand{Speed: units.RPM(100), Torque: 100}
-		if err := s.Solve(p, &st); err == nil && !finiteState(&st) {
-			t.Fatalf("non-finite state without error")
+		if err := s.Solve(p, &st); err == nil {
+			checkSolved(t, &st, p)
+		} else if !knownKind(err) {
+			t.Fatalf("error of no documented kind: %v", err)
 		}
 	})
 }

@@ -1,6 +1,7 @@
 package hydrostat
 
 import (
+	"errors"
 	"math"
 	"testing"
 
@@ -22,16 +23,31 @@ func FuzzNewUnit(f *testing.F) {
 	f.Add(100.0, 3000.0, 420.0, 480.0, 0, 0.0, 0.0, 0.0, 1e-8, 0.02, 0)
 	f.Add(0.0, 0.0, 0.0, 0.0, 9, 12.7, 127.0, 10.0, 0.0, 0.0, 2)
 	f.Add(-1.0, math.NaN(), math.Inf(1), 0.0, -3, -1.0, 0.0, 95.0, -1.0, 2.0, -1)
-	f.Fuzz(func(t *testing.T, cc, rpm, rated, peak float64, pistons int, dmm, pmm, deg, cs, cf float64, swing int) {
-		u, err := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(cc), MaxSpeed: units.RPM(rpm), Swing: Swing(swing),
+	f.Add(100.0, 3000.0, 420.0, 480.0, 0, 0.0, 0.0, 0.0, 1e-8, 0.02, 8)  // kind 2: no such kind
+	f.Add(100.0, 3000.0, 420.0, 480.0, 0, 0.0, 0.0, 0.0, 1e-8, 0.02, -4) // kind −1
+	f.Add(100.0, 3000.0, 420.0, 480.0, 0, 0.0, 0.0, 0.0, 1e-8, 0.02, 3)  // swing 3: no such swing
+	// mode packs the unit's kind (mode/4) and swing (mode%4).
+	f.Fuzz(func(t *testing.T, cc, rpm, rated, peak float64, pistons int, dmm, pmm, deg, cs, cf float64, mode int) {
+		kind, swing := Kind(mode/4), Swing(mode%4)
+		u, err := NewUnit(UnitSpec{Kind: kind, MaxDisplacement: units.CCPerRev(cc), MaxSpeed: units.RPM(rpm), Swing: swing,
 			RatedPressure: units.Bar(rated), PeakPressure: units.Bar(peak), Pistons: pistons,
 			PistonDiameter: units.Millimetres(dmm), PitchDiameter: units.Millimetres(pmm), MaxAngle: units.Degrees(deg),
 			Loss: Wilson{Slip: cs, Friction: cf}})
+		enumOK := (kind == Swashplate || kind == BentAxis) && swing >= SwingUnstated && swing <= SwingOverCentre
+		if !enumOK && err == nil {
+			t.Fatalf("NewUnit accepted kind %d, swing %d", int(kind), int(swing))
+		}
 		if err != nil {
+			if !errors.Is(err, ErrInvalid) {
+				t.Fatalf("error of no documented kind: %v", err)
+			}
 			return
 		}
 		if d := float64(u.Spec().MaxDisplacement); !(d > 0) || !finite(d) {
 			t.Fatalf("built unit with displacement %v", d)
+		}
+		if k := u.Spec().Kind; k != Swashplate && k != BentAxis {
+			t.Fatalf("built a unit of kind %v (not swashplate or bent axis)", k)
 		}
 	})
 }
@@ -51,9 +67,19 @@ func FuzzUnitAt(f *testing.F) {
 		if err == nil || isLimit(err) {
 			finitePoint(t, p)
 		}
+		if err == nil {
+			checkPoint(t, p)
+		}
 		q, err := u.PressureFor(x, units.RPM(rpm), units.NewtonMetres(bar), VG46, units.Celsius(degC))
 		if err == nil || isLimit(err) {
 			finitePoint(t, q)
+		}
+		if err == nil {
+			checkPoint(t, q)
+			// Round trip: the point's torque is the one asked for.
+			if math.Abs(float64(q.Torque)-bar) > 1e-6*math.Abs(bar)+1e-9 {
+				t.Fatalf("PressureFor(%v N·m) gives a point of %v", bar, q.Torque)
+			}
 		}
 	})
 }
@@ -104,6 +130,16 @@ func FuzzNewOil(f *testing.F) {
 		if math.IsNaN(float64(nu)) || nu < 0 {
 			t.Fatalf("viscosity %v at %v °C", nu, at)
 		}
+		// The line passes through the two points that define it, and the
+		// viscosity falls as the temperature rises.
+		for _, pt := range [][2]float64{{t1, n1}, {t2, n2}} {
+			if got := o.Viscosity(units.Celsius(pt[0])).Centistokes(); math.Abs(got-pt[1]) > 1e-6*pt[1] {
+				t.Fatalf("viscosity at %v °C = %v cSt, defined as %v", pt[0], got, pt[1])
+			}
+		}
+		if a, b := o.Viscosity(units.Celsius(at)), o.Viscosity(units.Celsius(at+10)); b > a && a > 0 {
+			t.Fatalf("viscosity rises from %v to %v between %v and %v °C", a, b, at, at+10)
+		}
 		if rho := o.Density(units.Celsius(at)); math.IsNaN(float64(rho)) {
 			t.Fatalf("density NaN")
 		}
@@ -131,7 +167,8 @@ func FuzzLoop(f *testing.F) {
 		}
 		speeds := []units.AngularVelocity{units.RPM(wm1), units.RPM(wm2)}
 		var st LoopState
-		if err := l.At(units.RPM(wp), speeds, units.Bar(bar), &st); err == nil || isLimit(err) {
+		err = l.At(units.RPM(wp), speeds, units.Bar(bar), &st)
+		if err == nil || isLimit(err) {
 			finitePoint(t, st.Pump)
 			for _, m := range st.Motors {
 				finitePoint(t, m)
@@ -140,11 +177,22 @@ func FuzzLoop(f *testing.F) {
 				t.Fatalf("non-finite loop summary %+v", st)
 			}
 		}
+		if err == nil {
+			// Flow continuity and the loop's power balance.
+			checkLoopState(t, &st)
+			checkPoint(t, st.Pump)
+			for _, m := range st.Motors {
+				checkPoint(t, m)
+			}
+		}
 		in := LoopInput{PumpSpeed: units.RPM(wp), MotorSpeeds: speeds, MotorTorques: []units.Torque{units.Torque(torque), units.Torque(torque / 2)}}
 		if st, err := l.Solve(in); err == nil || isLimit(err) {
 			finitePoint(t, st.Pump)
 			for _, m := range st.Motors {
 				finitePoint(t, m)
+			}
+			if err == nil {
+				checkLoopState(t, &st)
 			}
 		}
 	})

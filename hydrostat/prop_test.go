@@ -62,7 +62,10 @@ func unitCaseGen() *rapid.Generator[unitCase] {
 	})
 }
 
-func checkPoint(t *rapid.T, p Point) {
+// checkPoint checks the invariants of one unit's point: its power balance,
+// losses ≥ 0, efficiencies in [0, 1] and their product rule. It serves the
+// properties (*rapid.T) and the fuzz targets (*testing.T).
+func checkPoint(t interface{ Fatalf(string, ...any) }, p Point) {
 	mech, hyd, loss := float64(p.Mechanical), float64(p.Hydraulic), float64(p.Loss)
 	scale := math.Max(math.Max(math.Abs(mech), math.Abs(hyd)), loss)
 	if math.Abs(mech-hyd-loss) > 1e-9*scale+1e-300 {

@@ -1,6 +1,7 @@
 package planetary_test
 
 import (
+	"errors"
 	"math"
 	"testing"
 
@@ -97,12 +98,29 @@ func FuzzSolve(f *testing.F) {
 			return
 		}
 		sp := planetary.Speeds{Sun: units.AngularVelocity(ws), Ring: units.AngularVelocity(wr), Carrier: units.AngularVelocity(wc)}
-		out, err := s.Solve(sp, planetary.Member(unknown))
+		m := planetary.Member(unknown)
+		out, err := s.Solve(sp, m)
+		if m != planetary.Sun && m != planetary.Ring && m != planetary.Carrier {
+			if !errors.Is(err, planetary.ErrMember) {
+				t.Fatalf("Solve for member %d: error %v, want ErrMember", unknown, err)
+			}
+			return
+		}
 		if err != nil {
 			return
 		}
 		if !finiteAll(float64(out.Sun), float64(out.Ring), float64(out.Carrier)) {
 			t.Fatalf("Solve(%v, %d) = %v", sp, unknown, out)
+		}
+		// The solved speeds satisfy the Willis equation and keep the two
+		// given members' speeds.
+		if r := s.Residual(out); r > 1e-12 {
+			t.Fatalf("Solve(%v, %v) = %v: Willis residual %g", sp, m, out, r)
+		}
+		for _, k := range []planetary.Member{planetary.Sun, planetary.Ring, planetary.Carrier} {
+			if k != m && out.Of(k) != sp.Of(k) {
+				t.Fatalf("Solve(%v, %v) changed the given %v speed to %v", sp, m, k, out.Of(k))
+			}
 		}
 	})
 }
@@ -121,12 +139,27 @@ func FuzzTorque(f *testing.F) {
 		if err != nil {
 			return
 		}
-		st, err := s.Torque(sp, planetary.Member(known), units.Torque(tq))
+		m := planetary.Member(known)
+		st, err := s.Torque(sp, m, units.Torque(tq))
+		if m != planetary.Sun && m != planetary.Ring && m != planetary.Carrier {
+			if !errors.Is(err, planetary.ErrMember) {
+				t.Fatalf("Torque for member %d: error %v, want ErrMember", known, err)
+			}
+			return
+		}
 		if err != nil {
 			return
 		}
 		if !finiteAll(float64(st.Torques.Sun), float64(st.Torques.Ring), float64(st.Torques.Carrier), float64(st.Loss), float64(st.RollingPower)) || st.Loss < 0 {
 			t.Fatalf("Torque(%v, %d, %v) = %+v", sp, known, tq, st)
+		}
+		// The given torque is kept; the power into the set is its loss.
+		if st.Torques.Of(m) != units.Torque(tq) {
+			t.Fatalf("Torque(%v, %v, %v): that member carries %v", sp, m, tq, st.Torques.Of(m))
+		}
+		_, _, _, sum := st.Power()
+		if scale := powerScale(st); !finiteAll(scale, float64(sum)) || math.Abs(float64(sum-st.Loss)) > 1e-9*scale+tiny {
+			t.Fatalf("Torque(%v, %v, %v): power in %v, loss %v", sp, m, tq, sum, st.Loss)
 		}
 	})
 }

@@ -37,8 +37,24 @@ func FuzzNewWheel(f *testing.F) {
 		}
 		p, err := w.At(units.Kilonewtons(loadKN), slip)
 		finiteOrErr(t, err, float64(p.Gross), float64(p.Net), float64(p.Resistance), p.Efficiency)
-		if err == nil && !(p.Efficiency >= 0 && p.Efficiency < 1) {
+		if err != nil {
+			return
+		}
+		if !(p.Efficiency >= 0 && p.Efficiency < 1) {
 			t.Fatalf("TE %g", p.Efficiency)
+		}
+		// Net pull is gross pull less motion resistance.
+		if d := float64(p.Gross - p.Resistance - p.Net); math.Abs(d) > 1e-9*(math.Abs(float64(p.Gross))+math.Abs(float64(p.Resistance))) {
+			t.Fatalf("net %v ≠ gross %v − resistance %v", p.Net, p.Gross, p.Resistance)
+		}
+		// More slip never gives less gross pull (for driving slips). The
+		// net pull may fall: Brixius's motion resistance grows with slip
+		// (its 0.5·s/√Bn term), which wins on very weak wheels.
+		if slip >= 0 && slip < 0.98 {
+			q, err := w.At(units.Kilonewtons(loadKN), slip+0.01)
+			if err == nil && float64(q.Gross) < float64(p.Gross)-1e-9*math.Abs(float64(p.Gross)) {
+				t.Fatalf("gross pull falls from %v at slip %g to %v at %g", p.Gross, slip, q.Gross, slip+0.01)
+			}
 		}
 	})
 }
@@ -60,6 +76,19 @@ func FuzzSlipForPull(f *testing.F) {
 		if err == nil && !(p.Slip >= 0 && p.Slip < 1) {
 			t.Fatalf("slip %g", p.Slip)
 		}
+		if err == nil && p.Slip > 1e-10 {
+			// Round trip: the pull asked for lies between the wheel's net
+			// pulls just below and just above the slip found (the search
+			// stops within 1e-12 of slip; on a very stiff soil that is
+			// more than 1e-6 of the pull).
+			load, want := units.Kilonewtons(loadKN), float64(units.Kilonewtons(pullKN))
+			lo, err1 := w.At(load, p.Slip-1e-11)
+			hi, err2 := w.At(load, p.Slip+1e-11)
+			tol := 1e-9 * float64(load)
+			if err1 != nil || err2 != nil || float64(lo.Net) > want+tol || float64(hi.Net) < want-tol {
+				t.Fatalf("SlipForPull(%v kN) = slip %g; net %v just below, %v just above (%v, %v)", pullKN, p.Slip, lo.Net, hi.Net, err1, err2)
+			}
+		}
 		b, err := w.BestSlip(units.Kilonewtons(loadKN))
 		finiteOrErr(t, err, b.Slip, b.Efficiency)
 	})
@@ -77,10 +106,25 @@ func FuzzFixedRatio(f *testing.F) {
 		v.Hitch.Height = units.Metres(hh)
 		op := traction.Operation{Pull: units.Kilonewtons(pullKN), Speed: units.KMH(kmh)}
 		s := traction.Surface{ConeIndex: units.Kilopascals(ciKPa)}
+		// Where a drive solves, the wheels' input power is drawbar power
+		// plus the slip and rolling losses.
+		balanced := func(name string, d traction.Drive) {
+			sum := float64(d.DrawbarPower + d.SlipLoss + d.RollingLoss)
+			scale := math.Abs(float64(d.DrawbarPower)) + math.Abs(float64(d.SlipLoss)) + math.Abs(float64(d.RollingLoss))
+			if math.Abs(float64(d.InputPower)-sum) > 1e-9*scale {
+				t.Fatalf("%s: input %v, drawbar + slip + rolling %g W", name, d.InputPower, sum)
+			}
+		}
 		d, err := v.FixedRatio(traction.Brixius{}, s, op, lead)
 		finiteOrErr(t, err, float64(d.InputPower), float64(d.CirculatingPower), d.Efficiency, d.TorqueShare)
+		if err == nil {
+			balanced("FixedRatio", d)
+		}
 		d, err = v.Independent(traction.Brixius{}, s, op)
 		finiteOrErr(t, err, float64(d.InputPower), d.Efficiency, d.TorqueShare)
+		if err == nil {
+			balanced("Independent", d)
+		}
 		d, g, err := v.FixedRatioTurn(traction.Brixius{}, s, op, lead, units.Metres(3*l))
 		finiteOrErr(t, err, float64(d.InputPower), float64(d.CirculatingPower), g.SpeedRatio)
 		adv, err := v.Ballast(traction.Brixius{}, s, op, traction.FourWheelDrive, traction.Towed, lead+0.1)

@@ -366,6 +366,14 @@ func FuzzParse(f *testing.F) {
 			if math.IsNaN(v) || math.IsInf(v, 0) || v < qu.min {
 				t.Fatalf("%s: parse(%q) = %v without an error", qu.name, s, v)
 			}
+			// Round trip: the value's text form parses back to exactly it.
+			b, err := qu.marshal(v)
+			if err != nil {
+				t.Fatalf("%s: MarshalText(%v) of parse(%q): %v", qu.name, v, s, err)
+			}
+			if w, err := qu.parse(string(b)); err != nil || w != v {
+				t.Fatalf("%s: parse(%q) = %.17g, its text %q parses to %.17g, %v", qu.name, s, v, b, w, err)
+			}
 		}
 	})
 }

@@ -325,6 +325,12 @@ func FuzzSimulate(f *testing.F) {
 		if day.Segments[0].Err == nil && a.RelativeResidual() > 1e-6 {
 			t.Fatalf("residual %g", a.RelativeResidual())
 		}
+		if day.Segments[0].Err == nil && math.Abs(float64(a.Mechanical-a.MechanicalByElement)) > 1e-6*math.Abs(float64(a.EngineWork))+1e-9 {
+			t.Fatalf("mechanical loss %v by closure, %v by element", a.Mechanical, a.MechanicalByElement)
+		}
+		if err := day.Segments[0].Err; err != nil && !infeasible(err) && !errors.Is(err, vehicle.ErrInvalid) {
+			t.Fatalf("segment error of no documented kind: %v", err)
+		}
 	})
 }
 
@@ -356,6 +362,10 @@ func FuzzNewEngine(f *testing.F) {
 		m, err := e.FuelRate(w, tq/2)
 		if err == nil && (math.IsNaN(float64(m)) || math.IsInf(float64(m), 0) || m < 0) {
 			t.Fatalf("fuel %v", m)
+		}
+		// More torque at the same speed never burns less fuel.
+		if full, err2 := e.FuelRate(w, tq); err == nil && err2 == nil && full < m {
+			t.Fatalf("fuel %v at full torque %v < %v at half", full, tq, m)
 		}
 	})
 }

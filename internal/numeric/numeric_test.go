@@ -192,6 +192,20 @@ func FuzzBrent(f *testing.F) {
 		if err == nil && math.IsNaN(x) {
 			t.Fatalf("Brent returned NaN without error")
 		}
+		if err == nil {
+			// The root lies in the bracket, and f changes sign (or
+			// vanishes) within the documented 2·eps·|x| of it.
+			if x < math.Min(a, b) || x > math.Max(a, b) {
+				t.Fatalf("Brent left [%g, %g]: %g", a, b, x)
+			}
+			// Near the root f is rounding noise: accept |f| within 1e-12 of
+			// the size of its terms.
+			h := 4*0x1p-52*math.Abs(x) + 1e-300
+			terms := math.Abs(x*x*x) + math.Abs(c2*x*x) + math.Abs(c1*x) + math.Abs(c0)
+			if lo, hi := fn(x-h), fn(x+h); fn(x) != 0 && !bad(lo) && !bad(hi) && !bad(terms) && lo*hi > 0 && math.Abs(fn(x)) > 1e-12*terms {
+				t.Fatalf("Brent(%g, %g) = %g: no sign change near it (f = %g, %g, %g)", a, b, x, lo, fn(x), hi)
+			}
+		}
 		m, _ := Minimize(fn, a, b, 0)
 		if !bad(a) && !bad(b) && (m < math.Min(a, b) || m > math.Max(a, b)) {
 			t.Fatalf("Minimize left [%g, %g]: %g", a, b, m)
@@ -209,6 +223,18 @@ func FuzzGrid2(f *testing.F) {
 		v, err := g.At(x, y)
 		if err == nil && math.IsNaN(v) {
 			t.Fatalf("At returned NaN without error")
+		}
+		// A bilinear interpolate lies within its cell's corner values, and
+		// the corners are reproduced.
+		if err == nil {
+			lo := math.Min(math.Min(z00, z01), math.Min(z10, z11))
+			hi := math.Max(math.Max(z00, z01), math.Max(z10, z11))
+			if slack := 1e-9 * math.Max(math.Abs(lo), math.Abs(hi)); !bad(slack) && (v < lo-slack || v > hi+slack) {
+				t.Fatalf("At(%g, %g) = %g outside the corners [%g, %g]", x, y, v, lo, hi)
+			}
+		}
+		if c, err := g.At(x0, y0); err == nil && c != z00 && !bad(z00) {
+			t.Fatalf("At(x0, y0) = %g, corner %g", c, z00)
 		}
 	})
 }
