@@ -178,46 +178,29 @@ func BenchmarkFloor(b *testing.B) {
 	}
 }
 
-// floorNsPerPoint times the floor over pts, repeated until at least
-// minDur has passed.
-func floorNsPerPoint(pts []Point, minDur time.Duration) float64 {
-	d := float64(units.CCPerRev(100))
-	var f floorPoint
-	return nsPerPoint(len(pts), minDur, func() { sinkFloor += floorPoints(pts, d, &f) })
-}
-
-// nsPerPoint runs pass (one evaluation of each of n points) until at least
-// minDur has passed and returns the time per point. The call of pass is
-// once per n points, so it hardly weighs on a floor of a few nanoseconds.
-func nsPerPoint(n int, minDur time.Duration, pass func()) float64 {
-	reps := 0
-	start := time.Now()
-	for {
-		for range 100 {
-			pass()
-		}
-		reps += 100
-		if el := time.Since(start); el >= minDur {
-			return float64(el.Nanoseconds()) / float64(reps*n)
-		}
-	}
-}
-
-// BenchmarkSolveVsFloor solves the points of benchPoints with the general
-// solver, lossless and with all losses (ns/op is per point), and reports
-// the ratio of its time per point to the closed-form floor's, measured in
-// the same run ("x-floor"), and for the lossy solve also the ratio to the
-// hand-written lossy evaluation of lossyfloor_test.go ("x-lossy-floor").
+// BenchmarkSolveVsFloor solves the points of benchPoints (ns/op is per
+// point) and reports the ratio of its time per point to the closed-form
+// lossless floor's, measured in the same run ("x-floor"), and for the lossy
+// layout also the ratio to the hand-written lossy evaluation of
+// lossyfloor_test.go ("x-lossy-floor"). The cases: lossless and lossy on
+// the compiled path with Brief states (what a sweep or a search does), lossy
+// with the full state, and lossy on the general path with the full state
+// (the solver before the compiled path, kept for the comparison).
 func BenchmarkSolveVsFloor(b *testing.B) {
 	pts := benchPoints(b)
-	for _, lossy := range []bool{false, true} {
-		name := "lossless"
-		if lossy {
-			name = "lossy"
-		}
-		b.Run(name, func(b *testing.B) {
-			s := NewSolver(benchLayout(b, lossy))
-			var st State
+	for _, c := range []struct {
+		name                  string
+		lossy, brief, general bool
+	}{
+		{"lossless", false, true, false},
+		{"lossy", true, true, false},
+		{"lossy-full-state", true, false, false},
+		{"lossy-general", true, false, true},
+	} {
+		b.Run(c.name, func(b *testing.B) {
+			s := NewSolver(benchLayout(b, c.lossy))
+			s.general = c.general
+			st := State{Brief: c.brief}
 			for _, p := range pts {
 				if err := s.Solve(p, &st); err != nil {
 					b.Fatal(err)
@@ -233,17 +216,63 @@ func BenchmarkSolveVsFloor(b *testing.B) {
 					i = 0
 				}
 			}
-			per := float64(b.Elapsed().Nanoseconds()) / float64(b.N)
-			minDur := 20 * time.Millisecond
+			b.StopTimer()
+			// The ratios side by side: rounds of the solver, the floor and
+			// the lossy floor in turn over all points, the best round of
+			// each (other load on a shared machine only adds time).
+			rounds := 200
 			if testing.Short() {
-				minDur = time.Millisecond
+				rounds = 5
 			}
-			b.ReportMetric(per/floorNsPerPoint(pts, minDur), "x-floor")
-			if lossy {
-				b.ReportMetric(per/lossyFloorNsPerPoint(pts, minDur), "x-lossy-floor")
+			solve := func() {
+				for k := range pts {
+					_ = s.Solve(pts[k], &st)
+				}
+			}
+			d := float64(units.CCPerRev(100))
+			var f floorPoint
+			var lf lossyPoint
+			lp := benchLossyParams()
+			lossless := func() { sinkFloor += floorPoints(pts, d, &f) }
+			lossy := func() {
+				for k := range pts {
+					p := &pts[k]
+					lossyFloor(&lp, benchRanges[1].Ratio, float64(p.Input), float64(p.Outputs[0].Speed),
+						float64(p.Outputs[0].Torque), float64(p.PTO[0]), &lf)
+					sinkLossy += lf.inputT
+				}
+			}
+			best := sideBySide(rounds, len(pts), solve, lossless, lossy)
+			b.ReportMetric(best[0]/best[1], "x-floor")
+			if c.lossy {
+				b.ReportMetric(best[0]/best[2], "x-lossy-floor")
 			}
 		})
 	}
+}
+
+// sideBySide runs each of fs (one pass over n points each) in turn, rounds
+// times, each timed over enough passes to take about 50 µs, and returns the
+// best time per point of each.
+func sideBySide(rounds, n int, fs ...func()) []float64 {
+	best := make([]float64, len(fs))
+	reps := make([]int, len(fs))
+	for i, f := range fs {
+		best[i] = math.Inf(1)
+		start := time.Now()
+		f()
+		reps[i] = max(1, int(50*time.Microsecond/max(time.Since(start), time.Nanosecond)))
+	}
+	for range rounds {
+		for i, f := range fs {
+			start := time.Now()
+			for range reps[i] {
+				f()
+			}
+			best[i] = math.Min(best[i], float64(time.Since(start).Nanoseconds())/float64(reps[i]*n))
+		}
+	}
+	return best
 }
 
 // BenchmarkSolveOutputCoupled solves one operating point of a two-range

@@ -28,6 +28,16 @@ func summaryDiff(a, b *State, tol float64) string {
 			tscale = math.Max(tscale, math.Abs(float64(m.Torque)))
 		}
 	}
+	// Where almost no power flows, powers are judged against the powers the
+	// point could carry, as the solver's residual is.
+	wscale := math.Abs(float64(b.InputSpeed))
+	for _, lr := range b.Loops {
+		wscale = math.Max(wscale, math.Abs(float64(lr.Pump.Speed)))
+		for _, m := range lr.Motors {
+			wscale = math.Max(wscale, math.Abs(float64(m.Speed)))
+		}
+	}
+	pscale += 1e-3 * tscale * wscale
 	var d string
 	cmpf := func(name string, x, y, scale float64) {
 		if d != "" {
@@ -53,8 +63,15 @@ func summaryDiff(a, b *State, tol float64) string {
 	cmpf("PTO power", float64(a.PTOPower), float64(b.PTOPower), pscale)
 	cmpf("loss", float64(a.Loss), float64(b.Loss), pscale)
 	cmpf("hydrostat loss", float64(a.HydrostatLoss), float64(b.HydrostatLoss), pscale)
-	cmpf("efficiency", a.Efficiency, b.Efficiency, 1)
-	cmpf("hydraulic share", a.HydraulicShare, b.HydraulicShare, 1)
+	// A ratio of powers is as exact as the powers are relative to the input
+	// power: pscale/|P_in| where little power enters.
+	ratio := 1.0
+	if pin := math.Abs(float64(b.InputPower)); pin > 0 {
+		ratio = math.Max(1, pscale/pin)
+	}
+	cmpf("efficiency", a.Efficiency, b.Efficiency, ratio)
+	cmpf("hydraulic share", a.HydraulicShare, b.HydraulicShare, ratio)
+	cmpf("pump share", a.PumpShare, b.PumpShare, ratio)
 	for i := range b.Outputs {
 		cmpf("output torque", float64(a.Outputs[i].Torque), float64(b.Outputs[i].Torque), tscale)
 		cmpf("output speed", float64(a.Outputs[i].Speed), float64(b.Outputs[i].Speed), 0)

@@ -111,9 +111,13 @@ func (s *Solver) initCache() {
 // entry returns the factored system of range r with the current
 // directions, factoring it if it is not cached.
 func (s *Solver) entry(r *rangeDef, p *Point) *sysEntry {
+	if e := s.recent; e != nil && e.used && e.r == r && equalK(e.gearK, s.gearK) && equalF(e.pflow, s.pflow) {
+		return e
+	}
 	for i := range s.cache {
 		e := &s.cache[i]
 		if e.used && e.r == r && equalK(e.gearK, s.gearK) && equalF(e.pflow, s.pflow) {
+			s.recent = e
 			return e
 		}
 	}
@@ -123,6 +127,7 @@ func (s *Solver) entry(r *rangeDef, p *Point) *sysEntry {
 	copy(e.gearK, s.gearK)
 	copy(e.pflow, s.pflow)
 	s.factor(e, r, p)
+	s.recent = e
 	return e
 }
 

@@ -3,7 +3,6 @@ package powersplit
 import (
 	"math"
 	"testing"
-	"time"
 
 	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/internal/testutil"
@@ -232,19 +231,4 @@ func BenchmarkLossyFloor(b *testing.B) {
 			i = 0
 		}
 	}
-}
-
-// lossyFloorNsPerPoint times the lossy floor over pts, repeated until at
-// least minDur has passed.
-func lossyFloorNsPerPoint(pts []Point, minDur time.Duration) float64 {
-	lp := benchLossyParams()
-	var f lossyPoint
-	return nsPerPoint(len(pts), minDur, func() {
-		for i := range pts {
-			p := &pts[i]
-			lossyFloor(&lp, benchRanges[1].Ratio, float64(p.Input), float64(p.Outputs[0].Speed),
-				float64(p.Outputs[0].Torque), float64(p.PTO[0]), &f)
-			sinkLossy += f.inputT
-		}
-	})
 }

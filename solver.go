@@ -64,9 +64,12 @@ type Solver struct {
 	iwork     []int
 	cache     []sysEntry
 	nextEntry int
+	recent    *sysEntry // the entry found last, looked at first
 	dpPrev    []float64 // loop pressures of the system last solved
 	full      bool      // solve by full LU (after converging on the factored systems)
 	noFactor  bool      // tests: always solve by full LU
+	general   bool      // the general path only (tests and benchmarks: today's path)
+	comp      compiledState
 
 	// Drag sources (drag.go): torque per source, the shafts' right-hand
 	// sides −Σ T_d, and the work space of their share of the solution.
@@ -131,6 +134,7 @@ func NewSolver(l Layout) *Solver {
 	s.dpPrev = make([]float64, len(ly.loops))
 	s.havePrev, s.prevDp = make([]bool, len(ly.loops)), make([]float64, len(ly.loops))
 	s.initCache()
+	s.initCompiled()
 	s.prevT = make([]float64, s.nU)
 	s.initPins()
 	return s
@@ -274,6 +278,13 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 		s.fill(st, p, r, 0, 0)
 		return err
 	}
+	// A range with one loop: the compiled path (compiled.go), which hands
+	// every point it cannot decide to the general iteration below.
+	if s.compiled(r, &p, st) {
+		return nil
+	}
+	s.losslessDirections()
+	clear(s.dp)
 	converged, it, err := s.iterate(r, &p, true, 0)
 	if err != nil {
 		s.fill(st, p, r, it, 0)
@@ -1066,24 +1077,7 @@ func (s *Solver) directions(it int) bool {
 	}
 	for _, pi := range l.planets {
 		e := &l.elems[pi]
-		ws, wr, wc := s.w[e.shafts[0]], s.w[e.shafts[1]], s.w[e.shafts[2]]
-		rel := ws - wc
-		wmax := maxAbs(maxAbs(math.Abs(ws), wr), wc)
-		roll := s.t[e.port0] * rel
-		scale := math.Abs(s.t[e.port0])*wmax + 1e-300
-		f := s.pflow[e.index]
-		switch {
-		case math.Abs(rel) <= planetary.BlockTolerance*wmax:
-			// Turning as a block: no power rolls, lossless torques (as
-			// planetary.Set.Torque takes them).
-			f = -1
-		case roll > 1e-13*scale:
-			f = 0
-		case roll < -1e-13*scale:
-			f = 1
-		case f < 0:
-			f = 0
-		}
+		f := planetFlow(s, e)
 		if f != s.pflow[e.index] {
 			if s.pflip[e.index] < maxFlips {
 				s.pflow[e.index] = f

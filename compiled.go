@@ -1,0 +1,306 @@
+package powersplit
+
+import (
+	"math"
+
+	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/planetary"
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// The compiled path for a range with one loop. With the loss directions
+// fixed, the torque system of a range is linear in the port torques once
+// the units' torques τ are known; a factored reference system (factor.go)
+// with W = A_ref⁻¹·U (U selecting the loop rows) and H = A_ref⁻¹·E (E the
+// rows of the given output and PTO torques b) gives every port torque as
+//
+//	T_port = H·b + W·τ
+//
+// whatever the reference slopes: their terms cancel in the port torques and
+// land in the pressure unknown alone. The pressure unknown (Δp/pScale) comes
+// out as H_X·b + W_X·τ + Δp/pScale, since W_X·d_ref = −1/pScale (A_ref
+// maps the reference slopes in the loop rows to a pressure of −1/pScale).
+// So the torques balance at the loop pressure Δp where
+//
+//	F(Δp) = H_X·b + W_X·τ(Δp) = 0,   F′(Δp) = W_X·τ′(Δp),
+//
+// X the row of the pressure in W and H. The hydrostat gives τ and its exact
+// slope τ′ (hydrostat.Curve), so Newton's method converges quadratically
+// from Δp = 0, where the slope is the ideal one. Each solve of a direction
+// set starts from Δp = 0, so a point's result depends on the point alone,
+// never on the points solved before it: maps stay identical for any number
+// of workers. The directions the last point of the range ended with are the
+// first guess; the directions read off the solution (as the general path
+// reads them) must agree with those assumed, else the solve is repeated
+// with them. The compiled path gives up, and the general path solves the
+// point, wherever it cannot decide: several loops, drag sources, held motor
+// settings, a loop the hydrostat cannot see as a Curve, a setting limit, a
+// pressure beyond 1.5 times the relief, Newton's method not settling,
+// directions that oscillate, a crossed limit or a power balance not
+// closing. So every error comes from the general path, and the results of
+// both paths agree to rounding (TestPropertyCompiledMatchesGeneral).
+
+// maxPasses is the most direction sets the compiled path tries for a point.
+const maxPasses = 4
+
+// compiledState is the compiled path's work space in a Solver.
+type compiledState struct {
+	on       bool // the layout has one loop and no drag sources
+	curve    hydrostat.Curve
+	wms      []units.AngularVelocity
+	tau      []units.Torque
+	slope    []units.Displacement
+	settings []float64
+	b        []float64   // given torques, in the order of the entries' extSrc
+	guessK   [][]float64 // per range: the directions the last point ended with
+	guessF   [][]int8
+	guessOK  []bool
+	seenK    []float64 // the directions of the first pass, to catch oscillation
+	seenF    []int8
+	hits     int // points solved on the compiled path (for tests)
+}
+
+func (s *Solver) initCompiled() {
+	l := s.l
+	c := &s.comp
+	c.on = len(l.loops) == 1 && len(l.drags) == 0
+	if !c.on {
+		return
+	}
+	nu := len(l.elems[l.loops[0]].shafts)
+	c.wms = make([]units.AngularVelocity, nu-1)
+	c.tau, c.slope, c.settings = make([]units.Torque, nu), make([]units.Displacement, nu), make([]float64, nu)
+	c.b = make([]float64, len(l.outputs)+len(l.ptos))
+	c.guessK, c.guessF, c.guessOK = make([][]float64, len(l.ranges)), make([][]int8, len(l.ranges)), make([]bool, len(l.ranges))
+	for i := range l.ranges {
+		c.guessK[i], c.guessF[i] = make([]float64, len(l.gears)), make([]int8, len(l.planets))
+	}
+	c.seenK, c.seenF = make([]float64, len(l.gears)), make([]int8, len(l.planets))
+	// Size the curve's storage now (at standstill), so that no solve
+	// allocates.
+	l.elems[l.loops[0]].loop.Curve(0, c.wms, &c.curve)
+}
+
+// compiled solves p on the compiled path and reports whether it did; st is
+// then filled and the point is feasible. Otherwise the solver's iteration
+// state is left for the general path to reset.
+func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
+	c := &s.comp
+	if !c.on || s.general || s.noFactor || s.pinOn[0] {
+		return false
+	}
+	l := s.l
+	el := &l.elems[l.loops[0]]
+	for k := range c.wms {
+		c.wms[k] = units.AngularVelocity(s.w[el.shafts[k+1]])
+	}
+	if !el.loop.Curve(units.AngularVelocity(s.w[el.shafts[0]]), c.wms, &c.curve) {
+		return false
+	}
+	rg := p.Range
+	if c.guessOK[rg] {
+		copy(s.gearK, c.guessK[rg])
+		copy(s.pflow, c.guessF[rg])
+	} else {
+		s.losslessDirections()
+	}
+	lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge)
+	evals := 0
+	var dp float64
+	for pass := 0; ; pass++ {
+		if pass == maxPasses {
+			return false
+		}
+		e := s.entry(r, p)
+		if !e.ok {
+			return false
+		}
+		if pass == 0 {
+			copy(c.seenK, s.gearK)
+			copy(c.seenF, s.pflow)
+		} else if equalK(c.seenK, s.gearK) && equalF(c.seenF, s.pflow) {
+			return false // back to the first directions: they oscillate
+		}
+		var ok bool
+		evals = 0 // the final pass's count: the same whatever the first guess
+		dp, ok = s.newton(e, p, lim, &evals)
+		if !ok {
+			return false
+		}
+		s.portTorques(e)
+		if !s.readDirections() {
+			break
+		}
+	}
+	// A torque below 1e-12 of the largest, non-zero, is no better than the
+	// rounding of the largest: the general path solves such a near-idle
+	// point (exact does, by full LU).
+	var tmax float64
+	t := s.t[:l.nPorts]
+	for _, v := range t {
+		tmax = maxAbs(tmax, v)
+	}
+	for _, v := range t {
+		if v != 0 && math.Abs(v) < 1e-12*tmax {
+			return false
+		}
+	}
+	// Accepted: the loop state at the final pressure, then the state.
+	s.dp[0] = dp
+	if c.curve.Fill(units.Pressure(dp), c.settings, &s.loopA[0]) != nil {
+		return false
+	}
+	res := s.fill(st, *p, r, evals, 1)
+	if !(res <= balanceTo) || s.hasBad {
+		return false
+	}
+	copy(c.guessK[rg], s.gearK)
+	copy(c.guessF[rg], s.pflow)
+	c.guessOK[rg] = true
+	c.hits++
+	return true
+}
+
+// newton solves F(Δp) = 0 for the directions of e from Δp = 0 and returns
+// Δp, with the units' torques at it in c.tau; false when it does not
+// settle within 30 steps, leaves ±lim, or the curve cannot decide.
+func (s *Solver) newton(e *sysEntry, p *Point, lim float64, evals *int) (float64, bool) {
+	c := &s.comp
+	n := s.n
+	x := s.l.nPorts // the pressure's row in W and H
+	// The constant part pScale·H_X·b.
+	var a0 float64 // H_X·b
+	for k := 0; k < e.nExt; k++ {
+		var v float64
+		if src := e.extSrc[k]; src >= 0 {
+			v = float64(p.Outputs[src].Torque)
+		} else if p.PTO != nil {
+			v = float64(p.PTO[-src-1])
+		}
+		c.b[k] = v
+		a0 += e.h[k*n+x] * v
+	}
+	dp := 0.0
+	done := false
+	for it := 0; it < 30; it++ {
+		*evals++
+		if !c.curve.Torques(units.Pressure(dp), c.settings, c.tau, c.slope) {
+			return 0, false
+		}
+		if done {
+			return dp, true
+		}
+		f, df := a0, 0.0
+		for u := range c.tau {
+			w := e.w[u*n+x]
+			f += w * float64(c.tau[u])
+			df += w * float64(c.slope[u])
+		}
+		step := f / df
+		if bad(step) {
+			return 0, false
+		}
+		dp -= step
+		if math.Abs(dp) > lim {
+			return 0, false
+		}
+		// Quadratic convergence: after a step below 1e-7 of the pressure
+		// the next would be below 1e-14 of it; the torques are taken at
+		// the pressure the step reached.
+		done = math.Abs(step) <= 1e-7*math.Abs(dp)+dpTolAbs
+	}
+	return 0, false
+}
+
+// portTorques sets every port torque, T = H·b + W·τ, into s.t.
+func (s *Solver) portTorques(e *sysEntry) {
+	c := &s.comp
+	n, np := s.n, s.l.nPorts
+	t := s.t[:np]
+	clear(t)
+	for k := 0; k < e.nExt; k++ {
+		if v := c.b[k]; v != 0 {
+			col := e.h[k*n : k*n+np]
+			for i, h := range col {
+				t[i] += v * h
+			}
+		}
+	}
+	for u := range c.tau {
+		v := float64(c.tau[u])
+		col := e.w[u*n : u*n+np]
+		for i, w := range col {
+			t[i] += v * w
+		}
+	}
+}
+
+// losslessDirections sets the directions of the general path's first pass.
+func (s *Solver) losslessDirections() {
+	for i := range s.gearK {
+		s.gearK[i] = 1
+	}
+	for i := range s.pflow {
+		s.pflow[i] = -1
+	}
+}
+
+// readDirections sets the gear and planetary loss directions from the
+// torques and speeds in s.t and s.w, by the rules of directions, and
+// reports whether any changed.
+func (s *Solver) readDirections() bool {
+	l := s.l
+	changed := false
+	for _, gi := range l.gears {
+		e := &l.elems[gi]
+		if e.eta == 1 {
+			continue
+		}
+		pa := s.t[e.port0] * s.w[e.shafts[0]]
+		pb := s.t[e.port0+1] * s.w[e.shafts[1]]
+		scale := math.Abs(pa) + math.Abs(pb)
+		k := s.gearK[e.index]
+		switch {
+		case scale == 0:
+		case pa > 1e-13*scale:
+			k = e.eta
+		case pb > 1e-13*scale:
+			k = 1 / e.eta
+		}
+		if k != s.gearK[e.index] {
+			s.gearK[e.index] = k
+			changed = true
+		}
+	}
+	for _, pi := range l.planets {
+		e := &l.elems[pi]
+		f := planetFlow(s, e)
+		if f != s.pflow[e.index] {
+			s.pflow[e.index] = f
+			changed = true
+		}
+	}
+	return changed
+}
+
+// planetFlow returns the direction of the rolling power of set e read off
+// the solver's torques and speeds (−1: turning as a block, lossless).
+func planetFlow(s *Solver, e *element) int8 {
+	ws, wr, wc := s.w[e.shafts[0]], s.w[e.shafts[1]], s.w[e.shafts[2]]
+	rel := ws - wc
+	wmax := maxAbs(maxAbs(math.Abs(ws), wr), wc)
+	roll := s.t[e.port0] * rel
+	scale := math.Abs(s.t[e.port0])*wmax + 1e-300
+	f := s.pflow[e.index]
+	switch {
+	case math.Abs(rel) <= planetary.BlockTolerance*wmax:
+		f = -1
+	case roll > 1e-13*scale:
+		f = 0
+	case roll < -1e-13*scale:
+		f = 1
+	case f < 0:
+		f = 0
+	}
+	return f
+}

@@ -1,0 +1,281 @@
+package hydrostat
+
+import (
+	"math"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// Curve is a loop at fixed shaft speeds seen as a function of its pressure
+// difference Δp alone: the settings the loop's schedule gives, the torque
+// each unit's shaft applies to it and that torque's exact slope ∂T/∂Δp. A
+// layout solver with one loop reduces a point to one scalar equation in Δp
+// and solves it by Newton's method with these slopes.
+//
+// A Curve serves loops whose schedule is Sequential and whose units are
+// lossless or follow the Wilson model (leakage affine in |x|, loss torque
+// affine in |Δp|); Loop.Curve reports false for any other loop, and
+// Curve.Torques reports false wherever the schedule leaves its range
+// (a setting limit) or cannot decide: the caller then takes its general
+// path. The settings and torques are those of Loop.At to rounding: the
+// schedule's own closed form on the loop's linear flow balance, with the
+// leakage, proportional to |Δp|, scaled from |Δp| = 1 once per Curve, and
+// the Wilson loss torque, affine in |Δp| at a fixed torque displacement,
+// kept as its two coefficients (TestCurveMatchesAt).
+//
+// With the motors at the common setting s and the pump at x, the flow
+// balance r(x, s) = 0 of the linear balance (see the schedules) has every
+// leakage term proportional to |Δp|, σ·a = α·Δp, σ·b = β·Δp, so the pump
+// branch (s = 1) and the motor branch (x = ±1) give
+//
+//	∂x/∂Δp = (αp + βp·|x| + αm + βm) / (Dp·ωp − βp·Δp·sgn x)
+//	∂s/∂Δp = −(αp + βp·|x| + αm + βm·|s|) / (Σ Dm·ωm + βm·Δp·sgn s)
+//
+// and each unit's torque T = q·x·D + sgn(ω)·τ(|x|, |Δp|), q = Δp for the
+// pump and −Δp for a motor, has the slope
+//
+//	∂T/∂Δp = (∂q/∂Δp)·x·D + q·D·∂x/∂Δp + sgn(ω)·(∂τ/∂|Δp|·sgn Δp + ∂τ/∂D_t·D·s_t·sgn x·∂x/∂Δp)
+//
+// with D_t = D·(1 − s_t + s_t·|x|) the Wilson torque displacement.
+type Curve struct {
+	l      *Loop
+	ok     bool
+	wp     float64
+	wms    []units.AngularVelocity
+	smin   float64
+	pumpQ  float64
+	motorQ float64
+	ap, bp float64       // pump leakage a + b·|x| per |Δp|
+	am, bm float64       // Σ over the motors
+	tau    []curveTorque // per unit, pump first
+}
+
+// curveTorque is what a Curve knows of a unit's loss torque at its speed.
+type curveTorque struct {
+	w      float64 // shaft speed
+	sw     float64 // sgn ω
+	fixed  bool    // τ = t0 + t1·|Δp| (lossless, or Wilson with its torque at full displacement)
+	t0, t1 float64
+}
+
+// Curve prepares c for the loop at the given shaft speeds and reports
+// whether the loop can be seen as a Curve (see the type). c's storage is
+// reused; it does not allocate once c has held a loop with as many motors.
+func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, c *Curve) bool {
+	c.ok = false
+	sq, isSeq := l.sched.(Sequential)
+	n := len(l.spec.Motors)
+	if !isSeq || n == 0 || len(motorSpeeds) != n || validMin(sq.MinMotorSetting) != nil {
+		return false
+	}
+	c.l, c.wp, c.smin = l, float64(pumpSpeed), l.motorFloor(sq.MinMotorSetting)
+	if c.smin <= 0 || l.pumpLow > -1 {
+		// Motors that swing to zero or over centre, a pump that does not:
+		// the schedule's special cases at a standing shaft are left to the
+		// general path.
+		return false
+	}
+	if cap(c.wms) < n {
+		c.wms = make([]units.AngularVelocity, n)
+		c.tau = make([]curveTorque, n+1)
+	}
+	c.wms, c.tau = c.wms[:n], c.tau[:n+1]
+	copy(c.wms, motorSpeeds)
+	// The leakage per unit |Δp| (every term is proportional to it).
+	lin, ok := l.linear(c.wp, c.wms, 1)
+	if !ok || !l.curveUnits() {
+		return false
+	}
+	c.pumpQ, c.motorQ = lin.pumpQ, lin.motorQ
+	c.ap, c.bp, c.am, c.bm = lin.ap, lin.bp, lin.am, lin.bm
+	for i := range c.tau {
+		u, w := &l.spec.Pump, c.wp
+		if i > 0 {
+			u, w = &l.spec.Motors[i-1], float64(c.wms[i-1])
+		}
+		c.tau[i] = u.curveTorque(w, &l.fl)
+	}
+	c.ok = true
+	return true
+}
+
+// curveTorque returns the loss torque of u at speed w as a Curve keeps it.
+func (u *Unit) curveTorque(w float64, f *fluid) curveTorque {
+	ct := curveTorque{w: w, sw: sgn(w)}
+	m := u.wil
+	if m == nil {
+		ct.fixed = true // lossless
+		return ct
+	}
+	if m.TorqueSetting != 0 {
+		return ct
+	}
+	// The torque terms of Wilson.losses at D_t = D_max.
+	dt := u.dmax
+	ct.fixed = true
+	ct.t0 = m.Viscous*dt*f.mu*math.Abs(w) + float64(m.ConstantPressure)*dt
+	if m.Hydrodynamic > 0 {
+		ct.t0 += m.Hydrodynamic * f.rho * w * w * u.d53
+	}
+	ct.t1 = m.Friction * dt
+	return ct
+}
+
+// curveUnits reports whether every unit's torque is one a Curve can
+// differentiate: lossless or Wilson.
+func (l *Loop) curveUnits() bool {
+	if !l.spec.Pump.curveUnit() {
+		return false
+	}
+	for i := range l.spec.Motors {
+		if !l.spec.Motors[i].curveUnit() {
+			return false
+		}
+	}
+	return true
+}
+
+func (u *Unit) curveUnit() bool { return u.wil != nil || u.spec.Loss == nil }
+
+// Torques writes the settings the schedule gives at pressure difference dp
+// (settings[0] the pump), the torque each unit's shaft applies to it
+// (torques[0] the pump) and its slope ∂T/∂Δp, and reports false where the
+// schedule leaves its range or fails, or a unit's model does.
+func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.Torque, slopes []units.Displacement) bool {
+	if !c.ok {
+		return false
+	}
+	l := c.l
+	d := float64(dp)
+	xp, sm, ok := c.sequential(d)
+	if !ok {
+		return false
+	}
+	settings[0] = xp
+	for i := 1; i < len(settings); i++ {
+		settings[i] = sm
+	}
+	// The slopes of the settings: the pump swings while the motors are
+	// full, else the motors.
+	var dxp, dsm float64
+	if sm == 1 {
+		den := c.pumpQ - c.bp*d*sgn(xp)
+		dxp = (c.ap + c.bp*math.Abs(xp) + c.am + c.bm) / den
+	} else {
+		den := c.motorQ + c.bm*d*sgn(sm)
+		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)) / den
+	}
+	fl := &l.fl
+	for i := range c.tau {
+		x, dx, q, dq := xp, dxp, d, 1.0
+		u := &l.spec.Pump
+		if i > 0 {
+			x, dx, q, dq = sm, dsm, -d, -1
+			u = &l.spec.Motors[i-1]
+		}
+		var t, sl float64
+		if tc := &c.tau[i]; tc.fixed {
+			// τ = τ0 + τ1·|Δp| at the full torque displacement.
+			t = q*x*u.dmax + tc.sw*(tc.t0+tc.t1*math.Abs(q))
+			sl = dq*x*u.dmax + q*u.dmax*dx + tc.sw*tc.t1*sgn(q)*dq
+		} else {
+			var ok bool
+			t, sl, ok = u.torqueSlope(x, dx, tc.w, q, dq, fl)
+			if !ok {
+				return false
+			}
+		}
+		torques[i], slopes[i] = units.Torque(t), units.Displacement(sl)
+	}
+	return true
+}
+
+// sequential places the Sequential schedule's settings at dp from the
+// loop's linear flow balance, the leakage scaled from |Δp| = 1: the
+// schedule's own steps (sequentialBoth, linLoop.pumpFor and motorFor) for
+// the case a Curve serves (motor floor above zero, a pump that swings over
+// centre, a balance clearly monotone in the pump setting, so with a single
+// zero), in closed form, with false where the schedule would report a
+// setting limit and where it is not that case.
+func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
+	a, sig := math.Abs(dp), sgn(dp)
+	ap, bp, am, bm := c.ap*a, c.bp*a, c.am*a, c.bm*a
+	q := c.pumpQ
+	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(math.Abs(c.motorQ)+ap+am+bm) {
+		// A balance that is not monotone in the pump setting, or a pump
+		// too near standstill for the schedule's choice of its end to be
+		// more than rounding: the general path's.
+		return 0, 0, false
+	}
+	// Motors full: r(x) = x·Dp·ωp − σ·(ap + bp·|x|) − Σ Dm·ωm − σ·(am + bm),
+	// monotone in x, its zero on the side where −r(0) has the sign of Dp·ωp.
+	k := -sig*ap - c.motorQ - sig*(am+bm) // r(0)
+	if (-k > 0) == (q > 0) {
+		xp = -k / (q - sig*bp)
+	} else {
+		xp = -k / (q + sig*bp)
+	}
+	if math.Abs(xp) <= 1 {
+		return xp, 1, true
+	}
+	if !finite(xp) {
+		return 0, 0, false
+	}
+	// The pump full on the side of its zero: the motors swing back, the
+	// zero of the balance (linear in s > 0) between the floor and full.
+	xp = math.Copysign(1, xp)
+	sm = (xp*q - sig*(ap+bp) - sig*am) / (c.motorQ + sig*bm)
+	if !(sm >= c.smin && sm <= 1) {
+		return 0, 0, false // no motor setting in range: a setting limit
+	}
+	return xp, sm, true
+}
+
+// Fill fills st as Loop.Trial does at pressure difference dp, from the
+// settings the last call of Torques gave at the same dp (settings). It
+// returns what Trial returns: nil, or the bare sentinel of a crossed limit
+// (the limit itself in st.Limit).
+func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error {
+	l := c.l
+	st.size(len(l.spec.Motors))
+	st.Limit = LimitError{}
+	copy(st.Settings, settings)
+	if err := l.fill(units.AngularVelocity(c.wp), c.wms, dp, st); err != nil {
+		return err
+	}
+	l.crossed(st)
+	return st.Limit.Err
+}
+
+// torqueSlope returns the torque of u at setting x, speed w and pressure
+// q = dq·Δp in its own frame (as eval computes it) and its slope over Δp,
+// given the setting's slope dx.
+func (u *Unit) torqueSlope(x, dx, w, q, dq float64, f *fluid) (t, slope float64, ok bool) {
+	ti := q * x * u.dmax
+	slope = dq*x*u.dmax + q*u.dmax*dx
+	m := u.wil
+	if m == nil {
+		return ti, slope, u.spec.Loss == nil
+	}
+	ls, err := m.losses(x, u.dmax, w, math.Abs(q), f.mu, f.rho, f.beta, u.d53)
+	if err != nil {
+		return 0, 0, false
+	}
+	tau := float64(ls.Torque)
+	sw := sgn(w)
+	t = ti + sw*tau
+	if sw == 0 {
+		return t, slope, true
+	}
+	// τ = D_t·(Cv·μ·|ω| + Cf·|Δp| + p_c) + Ch·ρ·ω²·D_t^(5/3).
+	dt := u.dmax * (1 - m.TorqueSetting + m.TorqueSetting*math.Abs(x))
+	slope += sw * dt * m.Friction * sgn(q) * dq
+	if m.TorqueSetting != 0 && dx != 0 {
+		dtau := m.Viscous*f.mu*math.Abs(w) + m.Friction*math.Abs(q) + float64(m.ConstantPressure)
+		if m.Hydrodynamic > 0 {
+			dtau += m.Hydrodynamic * f.rho * w * w * 5.0 / 3 * math.Cbrt(dt*dt)
+		}
+		slope += sw * dtau * u.dmax * m.TorqueSetting * sgn(x) * dx
+	}
+	return t, slope, true
+}
