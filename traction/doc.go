@@ -125,7 +125,12 @@
 //
 // Negative slips of an overrun axle extrapolate the traction equations,
 // which were fitted to driving wheels: treat circulating and wind-up powers
-// as estimates.
+// as estimates. The soil models mirror their driving curve for s < 0, so a
+// braked wheel's coefficient is bounded by the same asymptote as a driving
+// one (the soil's shear strength bounds it either way) instead of growing
+// exponentially, and Pull.Outside flags the overrun. Pull.Outside also
+// flags tyres outside the range a model was fitted to (Brixius: b/d and
+// δ/h); such a pull is reported, not refused.
 //
 // # Ballast
 //

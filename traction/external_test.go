@@ -3,6 +3,7 @@ package traction_test
 import (
 	"errors"
 	"math"
+	"strings"
 	"testing"
 
 	"github.com/powersplit-dev/powersplit/internal/testutil"
@@ -125,12 +126,14 @@ func TestBrixiusLimits(t *testing.T) {
 	if got, want := p.GrossRatio(), 0.92-0.88*math.Exp(-7.5*0.999999); !testutil.Close(got, want, 1e-6, 0) {
 		t.Errorf("GT at huge Bn = %.8g, want %.8g", got, want)
 	}
-	// Towed wheel: zero torque (GT = 0) at a small negative slip,
-	// s = ln(1 + 0.04/(0.88·(1 − e^(−0.1·Bn))))/7.5 below zero.
-	// Source: ASABE D497.7 (2011) equations; hand rearrangement.
+	// Towed wheel: zero torque (GT = 0) at a small negative slip, where
+	// the mirrored slip term 0.88·(1 − e^(−0.1·Bn))·(e^(7.5·s) − 1) meets
+	// −0.04: s = ln(1 − 0.04/(0.88·(1 − e^(−0.1·Bn))))/7.5.
+	// Source: ASABE D497.7 (2011) equations; hand rearrangement with the
+	// package's mirror for s < 0 (see Pull.Outside).
 	soil := traction.FirmSoil()
 	bn, _ := traction.Brixius{}.MobilityNumber(rearTyre, soil, units.Kilonewtons(25))
-	s0 := -math.Log(1+0.04/(0.88*(1-math.Exp(-0.1*bn)))) / 7.5
+	s0 := math.Log(1-0.04/(0.88*(1-math.Exp(-0.1*bn)))) / 7.5
 	q, err := traction.Brixius{}.Pull(rearTyre, soil, units.Kilonewtons(25), s0)
 	if err != nil {
 		t.Fatal(err)
@@ -316,5 +319,53 @@ func demoVehicle() traction.Vehicle {
 		Hitch:        traction.Hitch{Height: units.Metres(0.5), Behind: units.Metres(1.2)},
 		Front:        traction.Axle{Tyre: frontTyre, Wheels: 2, Track: units.Metres(1.9)},
 		Rear:         traction.Axle{Tyre: rearTyre, Wheels: 2, Track: units.Metres(1.8)},
+	}
+}
+
+// TestOverrunBounded: at negative slip every soil model brakes with at most
+// the asymptote of its driving curve, never exponentially more, and flags
+// the overrun as outside the fitted range. Before, Brixius gave a gross
+// traction ratio of −1.24 at −12 % slip.
+func TestOverrunBounded(t *testing.T) {
+	t.Parallel()
+	soil := traction.FirmSoil()
+	load := units.Kilonewtons(25)
+	for _, c := range []struct {
+		name  string
+		m     traction.Model
+		bound float64 // the driving asymptote of |GT − MR at s = 0 side|
+	}{
+		{"Brixius", traction.Brixius{}, 0.88},
+		{"Wismer-Luth", traction.WismerLuth{}, 0.75},
+	} {
+		for _, s := range []float64{-0.01, -0.12, -0.3, traction.MinSlip} {
+			p, err := c.m.Pull(rearTyre, soil, load, s)
+			if err != nil {
+				t.Fatalf("%s at slip %v: %v", c.name, s, err)
+			}
+			// Hand calculation: GT ≥ −asymptote (+ the constant 0.04 of Brixius).
+			if gt := p.GrossRatio(); gt < -c.bound || gt > 0.04+1e-12 {
+				t.Errorf("%s at slip %v: GT = %.4g, want in [−%v, 0.04]", c.name, s, gt, c.bound)
+			}
+			if !strings.Contains(p.Outside, "slip below 0") {
+				t.Errorf("%s at slip %v: Outside = %q, want the overrun flagged", c.name, s, p.Outside)
+			}
+		}
+	}
+	// Driving the rear tyre of the tests on firm soil: no flag.
+	p, err := traction.Brixius{}.Pull(rearTyre, soil, load, 0.1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	t.Logf("b/d %.3g, δ/h %.3g: Outside %q", float64(rearTyre.Width)/float64(rearTyre.Diameter),
+		float64(rearTyre.Deflection)/float64(rearTyre.SectionHeight), p.Outside)
+	wide := rearTyre
+	wide.Width = wide.Diameter * 0.6
+	q, err := traction.Brixius{}.Pull(wide, soil, load, 0.1)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(q.Outside, "b/d 0.6 outside 0.2–0.4") {
+		t.Errorf("b/d 0.6: Outside = %q", q.Outside)
 	}
 }

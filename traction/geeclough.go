@@ -51,10 +51,9 @@ const GeeCloughMinMobility = gcCTmaxB / gcCTmaxA
 // NewWheel, which probes a model at a nominal load, accepts the tyre and
 // soil, and the refusal comes at the load that causes it.
 //
-// Negative slips down to MinSlip (an overrun wheel) extrapolate the
-// equations, as with the other models: CT turns negative, growing
-// exponentially with −s. A slip so negative that e^(−k·s) overflows is an
-// error wrapping ErrSlip.
+// Negative slips down to MinSlip (an overrun wheel) mirror the driving
+// curve, as with the other models: CT turns negative and is bounded by
+// −CTmax (see Pull.Outside, which flags the extrapolation).
 //
 // The zero value is ready to use.
 type GeeClough struct{}
@@ -136,17 +135,14 @@ func (GeeClough) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, 
 	if err != nil {
 		return Pull{}, err
 	}
-	m, crr := c.Mobility, c.Rolling
+	crr := c.Rolling
 	k := c.Slope / c.MaxNet
-	p := makePull(load, slip, c.MaxNet*-math.Expm1(-k*slip)+crr, crr)
+	p := makePull(load, slip, c.MaxNet*slipRise(k, slip)+crr, crr)
 	if !finite(float64(p.Gross)) || !finite(float64(p.Net)) || !finite(float64(p.Resistance)) {
-		if slip < 0 {
-			// An overrun slip makes e^(−k·s) grow without bound.
-			return Pull{}, rangeErr(ErrSlip, "slip", slip,
-				fmt.Sprintf("> %.4g for the Gee-Clough model at mobility number %.4g (the pull overflows)",
-					(math.Log(float64(load))-math.Log(math.MaxFloat64))/k, m))
-		}
 		return Pull{}, rangeErr(ErrLoad, "wheel load", float64(load), "small enough for a finite pull")
+	}
+	if slip < 0 {
+		p.Outside = overrun
 	}
 	return p, nil
 }

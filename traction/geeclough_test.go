@@ -209,6 +209,9 @@ func TestGeeCloughPullEquations(t *testing.T) {
 			t.Fatalf("slip %g: %v", s, err)
 		}
 		ct := ctMax * (1 - math.Exp(-k*s))
+		if s < 0 { // the package's mirror for an overrun wheel (see Pull.Outside)
+			ct = -ctMax * (1 - math.Exp(k*s))
+		}
 		te := 0.0
 		if ct > 0 {
 			te = ct * (1 - s) / (ct + crr)
@@ -252,7 +255,6 @@ func TestGeeCloughErrors(t *testing.T) {
 		{"zero cone index", gcTableTyre, traction.Surface{}, gcTableLoad, 0.1, traction.ErrSurface},
 		{"negative cone index", gcTableTyre, traction.Surface{ConeIndex: -1}, gcTableLoad, 0.1, traction.ErrSurface},
 		{"mobility below range", gcTableTyre, traction.Surface{ConeIndex: units.Kilopascals(50)}, gcTableLoad, 0.1, traction.ErrLoad},
-		{"overrun overflow", gcTableTyre, traction.Surface{ConeIndex: units.Kilopascals(1e9)}, gcTableLoad, -0.5, traction.ErrSlip},
 	}
 	for _, c := range cases {
 		p, err := traction.GeeClough{}.Pull(c.ty, c.s, c.load, c.slip)
@@ -453,13 +455,14 @@ func ExampleGeeClough() {
 	// best TE 0.612 at slip 0.126
 }
 
-// TestWismerLuthOverflow: an overrun slip on very strong soil is an error,
-// not an infinite pull.
-func TestWismerLuthOverflow(t *testing.T) {
+// TestWismerLuthOverrun: an overrun slip on very strong soil brakes with
+// at most the driving asymptote 0.75·W, not an infinite pull (it once
+// overflowed).
+func TestWismerLuthOverrun(t *testing.T) {
 	t.Parallel()
 	soil := traction.Surface{Name: "very strong", ConeIndex: units.Kilopascals(1e9)}
 	p, err := traction.WismerLuth{}.Pull(rearTyre, soil, units.Kilonewtons(1), -0.5)
-	if !errors.Is(err, traction.ErrSlip) {
-		t.Errorf("WismerLuth at Cn ≫ 1, slip −0.5: %+v, %v; want ErrSlip", p, err)
+	if err != nil || !(p.GrossRatio() >= -0.75) || p.Outside == "" {
+		t.Errorf("WismerLuth at Cn ≫ 1, slip −0.5: %+v, %v; want GT ≥ −0.75, flagged", p, err)
 	}
 }

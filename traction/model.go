@@ -2,6 +2,7 @@ package traction
 
 import (
 	"math"
+	"strconv"
 
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -28,6 +29,11 @@ type Pull struct {
 	// gives no net pull or takes no torque (NT <= 0 or GT <= 0): then no
 	// useful power leaves it.
 	Efficiency float64
+	// Outside is a flag, not an error: it names the inputs that lie outside
+	// the range the model was fitted to ("" when all lie within), for
+	// example "slip below 0 (the equations are fitted to driving wheels)"
+	// or "b/d 0.55 outside 0.2–0.4". The pull is then an extrapolation.
+	Outside string
 }
 
 // GrossRatio returns GT = Gross/Load.
@@ -45,6 +51,27 @@ func (p Pull) NetRatio() float64 { return float64(p.Net) / float64(p.Load) }
 type Model interface {
 	Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, error)
 }
+
+// slipRise returns the rise of traction with slip, 1 − e^(−a·s), for a
+// driving wheel (s ≥ 0), and its mirror −(1 − e^(a·s)) for an overrun
+// (braked) wheel (s < 0), so that the braking coefficient is bounded by
+// the same asymptote as the driving one, never growing exponentially with
+// −s as the driving-wheel equations extrapolated would (Brixius at −12 %
+// slip would brake with 1.24 times the wheel load).
+//
+// From memory: Wong, Theory of Ground Vehicles (3rd ed., 2001), ch. 2: a
+// braked tyre develops its braking force by the same shearing of the soil
+// as a driven one, bounded by the soil's shear strength; the mirror of the
+// driving curve is this package's choice of that bound.
+func slipRise(a, s float64) float64 {
+	if s < 0 {
+		return math.Expm1(a * s) // e^(a·s) − 1 in (−1, 0)
+	}
+	return -math.Expm1(-a * s)
+}
+
+// overrun is the Outside flag of a negative slip.
+const overrun = "slip below 0 (the equations are fitted to driving wheels; mirrored for an overrun wheel)"
 
 func makePull(load units.Force, slip, gt, mr float64) Pull {
 	nt := gt - mr
@@ -122,9 +149,48 @@ func (m Brixius) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, 
 		return Pull{}, err
 	}
 	bn := brixiusBn(t, s, load)
-	gt := 0.88*(1-math.Exp(-0.1*bn))*(1-math.Exp(-7.5*slip)) + 0.04
-	mr := 1/bn + 0.04 + 0.5*slip/math.Sqrt(bn)
-	return makePull(load, slip, gt, mr), nil
+	gt := 0.88*(1-math.Exp(-0.1*bn))*slipRise(7.5, slip) + 0.04
+	mr := 1/bn + 0.04 + 0.5*math.Abs(slip)/math.Sqrt(bn)
+	p := makePull(load, slip, gt, mr)
+	p.Outside = brixiusOutside(t, slip)
+	return p, nil
+}
+
+// The ranges of b/d and δ/h the Brixius equations are used within without
+// a flag.
+//
+// From memory: ASABE D497.7 (2011) gives the Brixius (1987) equations for
+// bias-ply tyres, fitted to tyres near b/d = 0.3 and δ/h = 0.2 (the factor
+// (1 + 5δ/h)/(1 + 3b/d) carries them to other tyres); the bands of ±0.1
+// around those values are this package's choice, not the standard's.
+const (
+	brixiusBDMin, brixiusBDMax = 0.2, 0.4
+	brixiusDHMin, brixiusDHMax = 0.1, 0.3
+)
+
+// brixiusOutside names the inputs outside the Brixius model's range.
+func brixiusOutside(t Tyre, slip float64) string {
+	bd := float64(t.Width) / float64(t.Diameter)
+	dh := float64(t.Deflection) / float64(t.SectionHeight)
+	var out string
+	if bd < brixiusBDMin || bd > brixiusBDMax {
+		out = "b/d " + strconv.FormatFloat(bd, 'g', 3, 64) + " outside 0.2–0.4"
+	}
+	if dh < brixiusDHMin || dh > brixiusDHMax {
+		out = join(out, "δ/h "+strconv.FormatFloat(dh, 'g', 3, 64)+" outside 0.1–0.3")
+	}
+	if slip < 0 {
+		out = join(out, overrun)
+	}
+	return out
+}
+
+// join joins two flags with "; ".
+func join(a, b string) string {
+	if a == "" {
+		return b
+	}
+	return a + "; " + b
 }
 
 // WismerLuth is the traction model of Wismer and Luth (1974) with its wheel
@@ -146,12 +212,11 @@ func (WismerLuth) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull,
 		return Pull{}, err
 	}
 	cn := float64(s.ConeIndex) * float64(t.Width) * float64(t.Diameter) / float64(load)
-	gt := 0.75 * (1 - math.Exp(-0.3*cn*slip))
+	gt := 0.75 * slipRise(0.3*cn, slip)
 	mr := 1.2/cn + 0.04
 	p := makePull(load, slip, gt, mr)
-	if !finite(float64(p.Gross)) || !finite(float64(p.Net)) {
-		// An overrun slip on very strong soil makes e^(−0.3·Cn·s) overflow.
-		return Pull{}, rangeErr(ErrSlip, "slip", slip, "closer to 0 for the Wismer–Luth model on this soil (the pull overflows)")
+	if slip < 0 {
+		p.Outside = overrun
 	}
 	return p, nil
 }
@@ -195,6 +260,6 @@ func (m Road) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, err
 		return Pull{}, err
 	}
 	f := s.RollingCoefficient
-	nt := s.adhesion() * (1 - math.Exp(-k*slip))
+	nt := s.adhesion() * slipRise(k, slip)
 	return makePull(load, slip, nt+f, f), nil
 }

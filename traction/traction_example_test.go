@@ -96,7 +96,7 @@ func ExampleVehicle_FixedRatio() {
 	// Output:
 	// geared:      slip front 0.089 rear 0.071, torque front 8611 N·m rear 20318 N·m, TE 0.757
 	//              wheel power 88.0 kW, drawbar 66.7 kW, circulating 0.0 kW
-	// light pull, 5 % lead: slip front 0.040 rear -0.008, circulating 1.73 kW
+	// light pull, 5 % lead: slip front 0.040 rear -0.008, circulating 1.50 kW
 	// independent: slip front 0.077 rear 0.076, front torque share 0.268, TE 0.758
 }
 
@@ -136,8 +136,8 @@ func ExampleVehicle_FixedRatioTurn() {
 	// Output:
 	// front wheel paths 5.77 m and 7.49 m, rear 5.10 m and 6.90 m
 	// steering 29.0° inner, 21.9° outer; front/rear speed ratio 1.1056
-	// geared 1:1: front slip -0.045, rear slip 0.055, wind-up 18.19 kW
-	// own motors: wheel power 10.53 kW against 13.11 kW geared, circulating 0.00 kW
+	// geared 1:1: front slip -0.054, rear slip 0.047, wind-up 14.55 kW
+	// own motors: wheel power 10.53 kW against 13.15 kW geared, circulating 0.00 kW
 }
 
 // Ballast for a front-assist vehicle to pull 32 kN at 10 % slip on firm
