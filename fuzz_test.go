@@ -5,6 +5,7 @@ import (
 	"math"
 	"testing"
 
+	"github.com/powersplit-dev/powersplit/planetary"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -129,24 +130,42 @@ func FuzzBuilders(f *testing.F) {
 	f.Add(uint8(2), 0.0, 1.1, 0.0, 0.5, 1.0, 300.0)
 	f.Add(uint8(3), math.NaN(), math.Inf(1), -1.0, 0.0, 2.0, -1.0)
 	f.Add(uint8(1), 1.0, 0.0, 0.0, 0.0, 0.0, 0.0)
+	f.Add(uint8(4*7+0), -2.5, 1.2, 0.8, 0.3, 0.98, 1.0)  // output-coupled, Input = Member(7)
+	f.Add(uint8(4*4+1), -2.5, 1.1, 0.9, 0.6, 0.98, 0.0)  // input-coupled, Input = Member(4)
+	f.Add(uint8(4*63+0), -2.5, 1.2, 0.8, 0.3, 0.98, 1.0) // Member(63)
 	lp := makeLoop(f, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson})
 	lp2 := makeLoop(f, loopSpec{pumpCC: 100, motorCC: 100, motors: 2})
+	// which packs the builder (which%4) and, for the split builders, the
+	// input member (which/4 as a planetary.Member; 0 is NoMember, the
+	// default layout).
 	f.Fuzz(func(t *testing.T, which uint8, i0, r1, r2, r3, eta, extra float64) {
 		set, err := planetaryFromRatio(i0, 0.98)
-		if err != nil && which < 2 {
+		if err != nil && which%4 < 2 {
 			return // the planetary package rejects the ratio
 		}
+		member := planetary.Member(which / 4)
 		var l Layout
 		switch which % 4 {
 		case 0:
-			l, err = OutputCoupled(OutputCoupledSpec{Set: set, Loop: lp, PumpRatio: r1, MotorRatio: r2, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta})
+			l, err = OutputCoupled(OutputCoupledSpec{Set: set, Loop: lp, PumpRatio: r1, MotorRatio: r2, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta,
+				Input: member})
 		case 1:
-			l, err = InputCoupled(InputCoupledSpec{Set: set, Loop: lp, PumpRatio: r1, InputRatio: r2, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta})
+			l, err = InputCoupled(InputCoupledSpec{Set: set, Loop: lp, PumpRatio: r1, InputRatio: r2, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta,
+				Input: member})
 		case 2:
 			l, err = PureHydrostatic(PureHydrostaticSpec{Loop: lp, PumpRatio: r1, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta})
 		case 3:
 			l, err = PureHydrostatic(PureHydrostaticSpec{Loop: lp2, PumpRatio: r1, Ranges: []RangeGear{{Ratio: r3}}, GearEfficiency: eta,
 				Second: &SecondMotor{Ratio: r2, DeclutchAbove: units.RPM(extra)}})
+		}
+		// A member outside sun, ring and carrier (and the unset default)
+		// must be refused, never built into some other transmission.
+		switch member {
+		case planetary.NoMember, planetary.Sun, planetary.Ring, planetary.Carrier:
+		default:
+			if which%4 < 2 && !errors.Is(err, ErrInput) {
+				t.Fatalf("builder %d with input member %d: error %v, want ErrInput", which%4, int(member), err)
+			}
 		}
 		if err != nil {
 			return
