@@ -80,6 +80,19 @@
 // memory, for illustration only):
 // Cs ≈ 10⁻⁹…10⁻⁸, Cv ≈ 10⁴…10⁵, Cf ≈ 0.01…0.05.
 //
+// # Loss models from measurements
+//
+// Engineers get test-bench data, not coefficients. FitWilson takes
+// measurements in the form of ISO 4409 (speed, pressure difference,
+// setting, effective flow, shaft torque, oil temperature, pumping or
+// motoring) and fits the Wilson model and its extensions by least squares:
+// the leakage and loss torque follow from each measurement directly, the
+// coefficients by linear least squares (gonum/mat), non-negative, the
+// torque's setting share by a bounded one-dimensional search. It reports
+// the residuals, the fitted model's efficiency errors against the ISO 4409
+// efficiencies of the measurements (ISO4409) and the conditioning, and
+// refuses data that cannot determine a coefficient (ErrUndetermined).
+//
 // Map is the alternative for users with test data: tables of η_v and η_hm
 // over speed, pressure and setting, interpolated (bilinear in speed and
 // pressure, linear between settings) and never extrapolated. Any other

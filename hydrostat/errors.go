@@ -31,6 +31,10 @@ var (
 	// ErrModel means a loss model failed or returned a negative, NaN or
 	// infinite loss.
 	ErrModel = errors.New("hydrostat: loss model failed")
+	// ErrUndetermined means measurements cannot determine a coefficient of
+	// a fitted loss model (too few points, or points that do not vary what
+	// the coefficient multiplies).
+	ErrUndetermined = errors.New("hydrostat: measurements cannot determine a coefficient")
 	// ErrOutsideMap means an operating point lies outside a measured map's
 	// axes; a map is never extrapolated.
 	ErrOutsideMap = errors.New("hydrostat: operating point outside the measured map")

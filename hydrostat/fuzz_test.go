@@ -200,3 +200,34 @@ func FuzzLoop(f *testing.F) {
 		}
 	})
 }
+
+func FuzzFitWilson(f *testing.F) {
+	f.Add(1500.0, 200.0, 1.0, 100.0, 90.0, 50.0, true, uint8(0))
+	f.Add(0.0, 0.0, 0.0, 0.0, 0.0, 0.0, false, uint8(15))
+	f.Add(1e300, 1e-300, 0.5, 1e300, 1e-300, 1e4, true, uint8(3))
+	f.Fuzz(func(t *testing.T, rpm, bar, x, lpm, nm, degC float64, pump bool, opts uint8) {
+		mode := Motoring
+		if pump {
+			mode = Pumping
+		}
+		var ms []Measurement
+		for i := range 6 {
+			k := 1 + 0.2*float64(i)
+			ms = append(ms, Measurement{Speed: units.RPM(rpm * k), Pressure: units.Bar(bar * (2 - 0.1*float64(i))), Setting: x,
+				Flow: units.LitresPerMinute(lpm * k), Torque: units.NewtonMetres(nm * (1 + 0.05*float64(i))),
+				Temperature: units.Celsius(degC + float64(i)), Mode: mode})
+		}
+		spec := FitSpec{MaxDisplacement: units.CCPerRev(75), Oil: VG46, Compressibility: opts&1 != 0,
+			Hydrodynamic: opts&2 != 0, ConstantTorque: opts&4 != 0, SettingShares: opts&8 != 0}
+		fit, err := FitWilson(spec, ms)
+		if err != nil {
+			return
+		}
+		if err := fit.Model.Validate(); err != nil {
+			t.Fatalf("fitted model invalid: %v", err)
+		}
+		if !finite(float64(fit.RMSLeakage)) || !finite(float64(fit.RMSTorque)) || !finite(fit.MaxOverallError) {
+			t.Fatalf("non-finite fit summary %v %v %v", fit.RMSLeakage, fit.RMSTorque, fit.MaxOverallError)
+		}
+	})
+}
