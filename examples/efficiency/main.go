@@ -56,7 +56,7 @@ func run(r *demo.Run) error {
 	r.Heading(fmt.Sprintf("Efficiency and hydraulic share by range, at %s engine power", demo.F(power.Kilowatts(), 0, "kW")))
 	solver := powersplit.NewSolver(layout)
 	tb := demo.NewTable("range", "speed span", "best efficiency", "at speed", "mechanical point", "hydraulic share", "feasible points")
-	var effSeries, shareSeries []figures.Series
+	var effSeries, shareSeries, pumpSeries, settingSeries, pressureSeries []figures.Series
 	var csvs []string
 	for rg := range layout.Ranges() {
 		name := layout.RangeName(rg)
@@ -75,6 +75,40 @@ func run(r *demo.Run) error {
 		if err := demo.WriteFile(path, sw.WriteCSV); err != nil {
 			return err
 		}
+		// The speed plan at light load (2 kN pull): the units' speeds and
+		// settings over the range's whole reach.
+		plan, err := layout.Sweep(powersplit.SweepSpec{Design: sc.Transmission.Name, Range: rg, Input: study, From: lo, To: hi, Steps: 80,
+			Torque: conv.torque(units.Kilonewtons(2))})
+		if err != nil {
+			return fmt.Errorf("speed plan of range %s: %w", name, err)
+		}
+		ps := figures.Series{Name: name, Colour: rg + 1}
+		ms := figures.Series{Colour: rg + 1, Dashed: true}
+		pset := figures.Series{Colour: rg + 1}
+		mset := figures.Series{Colour: rg + 1, Dashed: true}
+		for i, c := range plan.Cells {
+			x := conv.kmh(plan.Speeds[i])
+			ps.X, ms.X, pset.X, mset.X = append(ps.X, x), append(ms.X, x), append(pset.X, x), append(mset.X, x)
+			if !c.OK {
+				ps.Y, ms.Y = append(ps.Y, math.NaN()), append(ms.Y, math.NaN())
+				pset.Y, mset.Y = append(pset.Y, math.NaN()), append(mset.Y, math.NaN())
+				continue
+			}
+			ps.Y, ms.Y = append(ps.Y, c.PumpSpeed.RPM()), append(ms.Y, c.MotorSpeed.RPM())
+			pset.Y, mset.Y = append(pset.Y, 100*c.PumpSetting), append(mset.Y, 100*c.MotorSetting)
+		}
+		pumpSeries = append(pumpSeries, ps, ms)
+		settingSeries = append(settingSeries, pset, mset)
+		pr := figures.Series{Name: name, Colour: rg + 1}
+		for i, c := range sw.Cells {
+			pr.X = append(pr.X, conv.kmh(sw.Speeds[i]))
+			if c.OK {
+				pr.Y = append(pr.Y, c.HighPressure.Bar())
+			} else {
+				pr.Y = append(pr.Y, math.NaN())
+			}
+		}
+		pressureSeries = append(pressureSeries, pr)
 		xs := make([]float64, len(sw.Cells))
 		eff := make([]float64, len(sw.Cells))
 		share := make([]float64, len(sw.Cells))
@@ -155,23 +189,86 @@ func run(r *demo.Run) error {
 	}
 	r.Wrote(files...)
 
+	// The speed plan and the line pressure.
+	tr = sc.Transmission
+	var speedLimits []figures.Limit
+	if tr.Pump.MaxSpeed > 0 {
+		speedLimits = append(speedLimits, figures.Limit{Name: "pump maximum " + tr.Pump.MaxSpeed.String(), Y: tr.Pump.MaxSpeed.RPM()},
+			figures.Limit{Y: -tr.Pump.MaxSpeed.RPM()})
+	}
+	if tr.Motor.MaxSpeed > 0 && tr.Motor.MaxSpeed != tr.Pump.MaxSpeed {
+		speedLimits = append(speedLimits, figures.Limit{Name: "motor maximum " + tr.Motor.MaxSpeed.String(), Y: tr.Motor.MaxSpeed.RPM()},
+			figures.Limit{Y: -tr.Motor.MaxSpeed.RPM()})
+	}
+	files, err = figures.Panels(r.Out, "speed_plan",
+		fmt.Sprintf("%s: speed plan at engine %v, light load (solid: pump, dashed: motor)", sc.Name, study), demo.FigureCaution,
+		figures.Panel{Axes: figures.Axes{Y: "unit speed (rpm)", Limits: speedLimits, LegendBottom: true, XMin: 0, XMax: 45}, Series: pumpSeries},
+		figures.Panel{Axes: figures.Axes{X: "travel speed (km/h, no slip)", Y: "displacement setting (%)",
+			Limits: []figures.Limit{{Name: "full displacement", Y: 100}, {Y: -100}}, YMin: -110, YMax: 115, XMin: 0, XMax: 45}, Series: settingSeries})
+	if err != nil {
+		return err
+	}
+	r.Wrote(files...)
+	limits := []figures.Limit{{Name: "relief setting " + tr.Relief.String(), Y: tr.Relief.Bar()}}
+	if rp := tr.Pump.RatedPressure; rp > 0 {
+		limits = append(limits, figures.Limit{Name: "rated continuous pressure " + rp.String(), Y: rp.Bar()})
+	}
+	files, err = figures.Lines(r.Out, "line_pressure", figures.Axes{
+		Title: fmt.Sprintf("%s: high-line pressure by range (engine %v, %.0f kW)", sc.Name, study, power.Kilowatts()),
+		X:     "travel speed (km/h, no slip)", Y: "high-line pressure (bar)", Limits: limits, YMin: 0, YMax: 1.1 * tr.Relief.Bar(),
+		LegendBottom: true, Note: demo.FigureCaution}, pressureSeries...)
+	if err != nil {
+		return err
+	}
+	r.Wrote(files...)
+
 	// 2. Full and part load over travel speed, every loss included.
 	if err := loadCurves(r); err != nil {
 		return err
 	}
 
-	// 3. The efficiency map.
-	r.Heading(fmt.Sprintf("Efficiency map over travel speed × pull (engine %v, best range per point)", study))
+	// 3. Efficiency maps, one per engine speed; the day's driving points
+	// appear on the map nearest their own engine speed.
+	points, rpms, table, err := dayPoints(sc, conv)
+	if err != nil {
+		return err
+	}
+	maps := []struct {
+		rpm    float64
+		lo, hi float64 // engine speeds of the day's points shown on it
+		base   string
+	}{{1200, 0, 1400, "efficiency_map_1200rpm"}, {1600, 1400, 1800, "efficiency_map"}, {2000, 1800, math.Inf(1), "efficiency_map_2000rpm"}}
+	for _, mp := range maps {
+		at := units.RPM(mp.rpm)
+		full, err := eng.MaxTorque(at)
+		if err != nil {
+			return err
+		}
+		r.Heading(fmt.Sprintf("Efficiency map over travel speed × pull (engine %v, best range per point)", at))
+		if err := efficiencyMap(r, layout, conv, at, full, mp.base, mp.lo, mp.hi, points, rpms); err != nil {
+			return err
+		}
+	}
+	r.Printf("\n  The day's driving points (each marked on the map nearest its own engine speed):\n")
+	table.Write(r.W)
+	return nil
+}
+
+// efficiencyMap solves and draws the efficiency map at engine speed eng,
+// marking the day's points whose engine speed lies in [lo, hi).
+func efficiencyMap(r *demo.Run, layout powersplit.Layout, conv converter, eng units.AngularVelocity, full units.Torque,
+	base string, lo, hi float64, points figures.Series, rpms []float64) error {
+	sc := r.Scenario
 	maxKMH := 45.0
 	maxPull := 0.75 * float64(units.ForceFromMass(sc.Tractor.Mass, units.Gravity))
-	m, err := layout.Map(powersplit.MapSpec{Design: sc.Transmission.Name, Range: powersplit.Auto, Input: study,
+	m, err := layout.Map(powersplit.MapSpec{Design: sc.Transmission.Name, Range: powersplit.Auto, Input: eng,
 		SpeedFrom: conv.output(0.5), SpeedTo: conv.output(maxKMH), SpeedSteps: 90,
 		TorqueFrom: conv.torque(units.Kilonewtons(1)), TorqueTo: conv.torque(units.Force(maxPull)), TorqueSteps: 60,
-		Progress: demo.Progress("efficiency map", "operating points")})
+		Progress: demo.Progress("efficiency map at "+eng.String(), "operating points")})
 	if err != nil {
 		return fmt.Errorf("map: %w", err)
 	}
-	path := filepath.Join(r.Out, "efficiency_map.csv")
+	path := filepath.Join(r.Out, base+".csv")
 	if err := demo.WriteFile(path, m.WriteCSV); err != nil {
 		return err
 	}
@@ -214,24 +311,28 @@ func run(r *demo.Run) error {
 		}
 		env.X, env.Y = append(env.X, g.X[j]), append(env.Y, y)
 	}
-	points, table, err := dayPoints(sc, conv)
-	if err != nil {
-		return err
+	pts := figures.Series{Name: fmt.Sprintf("the day's driving points at %.0f–%.0f rpm", math.Max(lo, 800), math.Min(hi, 2250)), Points: true}
+	for k := range points.X {
+		if rpms[k] >= lo && rpms[k] < hi {
+			pts.X, pts.Y = append(pts.X, points.X[k]), append(pts.Y, points.Y[k])
+		}
 	}
-	files, err = figures.HeatMap(r.Out, "efficiency_map", figures.Axes{
-		Title: "Transmission efficiency at engine " + study.String() + ", best range",
-		X:     "travel speed (km/h, no slip)", Y: "pull at the tyres (kN)"}, g,
-		figures.MapOptions{Levels: []float64{70, 75, 80, 85, 88, 90, 92}, ZLabel: "efficiency %", ZMin: 60, ZMax: 95,
-			Envelope: &env, Points: []figures.Series{points}})
+	var marks []figures.Series
+	if len(pts.X) > 0 {
+		marks = append(marks, pts)
+	}
+	files, err := figures.HeatMap(r.Out, base, figures.Axes{
+		Title: fmt.Sprintf("%s: transmission efficiency at engine %v, best range", sc.Name, eng),
+		X:     "travel speed (km/h, no slip)", Y: "pull at the tyres (kN)", Note: demo.FigureCaution}, g,
+		figures.MapOptions{Levels: []float64{70, 75, 80, 85, 88, 90, 92, 94}, ZLabel: "transmission efficiency (%)", ZMin: 70, ZMax: 96,
+			Envelope: &env, Points: marks})
 	if err != nil {
 		return err
 	}
 	r.Printf("  %d of %d points feasible; %d more the transmission could run but the engine cannot\n",
 		feasible, len(m.Speeds)*len(m.Torques), engineLimited)
-	r.Printf("  (input torque above its full-load %s at %v).\n", demo.F(float64(full), 0, "N·m"), study)
-	r.Printf("\n  The day's driving points (marked on the map, at their own engine speeds):\n")
-	table.Write(r.W)
-	r.Printf("\n")
+	r.Printf("  (input torque above its full-load %s at %v); %d of the day's driving points on this map.\n",
+		demo.F(float64(full), 0, "N·m"), eng, len(pts.X))
 	r.Wrote(path)
 	r.Wrote(files...)
 	return nil
@@ -312,16 +413,17 @@ func (c converter) torque(f units.Force) units.Torque {
 // dayPoints solves one operating point per driving segment (and per road
 // stretch) of the day with the least-fuel strategy and returns them in map
 // coordinates, with a table.
-func dayPoints(sc *demo.Scenario, conv converter) (figures.Series, *demo.Table, error) {
+func dayPoints(sc *demo.Scenario, conv converter) (figures.Series, []float64, *demo.Table, error) {
 	pts := figures.Series{Name: "the day's driving points", Points: true}
+	var rpms []float64
 	tb := demo.NewTable("segment", "speed", "pull", "engine", "range", "efficiency", "hydraulic share")
 	v, err := sc.Vehicle(sc.Transmission)
 	if err != nil {
-		return pts, tb, err
+		return pts, rpms, tb, err
 	}
 	cycle, err := sc.Cycle()
 	if err != nil {
-		return pts, tb, err
+		return pts, rpms, tb, err
 	}
 	for _, g := range cycle {
 		var demands []vehicle.Demand
@@ -331,7 +433,7 @@ func dayPoints(sc *demo.Scenario, conv converter) (figures.Series, *demo.Table, 
 			if g.Implement != nil {
 				dr, err := g.Implement.Draft(g.Speed)
 				if err != nil {
-					return pts, tb, err
+					return pts, rpms, tb, err
 				}
 				d.Draft = dr
 			}
@@ -354,9 +456,10 @@ func dayPoints(sc *demo.Scenario, conv converter) (figures.Series, *demo.Table, 
 			pout := units.PowerFromTorque(p.Drive.OutputTorque, p.Drive.OutputSpeed)
 			pin := units.PowerFromTorque(p.Drive.InputTorque, p.EngineSpeed)
 			pts.X, pts.Y = append(pts.X, x), append(pts.Y, y)
+			rpms = append(rpms, p.EngineSpeed.RPM())
 			tb.Row(g.Name, demo.F(d.Speed.KMH(), 1, "km/h"), demo.F(y, 1, "kN"), demo.F(p.EngineSpeed.RPM(), 0, "rpm"),
 				sc.Transmission.RangeNames()[p.Range], demo.Ratio(p.TransmissionEfficiency(), pout, pin, 1), demo.Ratio(p.Drive.HydrostaticShare, pout, pin, 0))
 		}
 	}
-	return pts, tb, nil
+	return pts, rpms, tb, nil
 }

@@ -313,9 +313,10 @@ const NearZero = units.Power(500)
 
 // Ratio formats an efficiency or hydraulic share frac in percent, or "—"
 // when the output power out is below NearZero or below 2 % of the input
-// power in (the engine only turning the drive over).
+// power in (the engine only turning the drive over), or when the engine
+// takes no power in (overrun: the load drives the engine).
 func Ratio(frac float64, out, in units.Power, prec int) string {
-	if math.Abs(float64(out)) < float64(NearZero) || math.Abs(float64(out)) < 0.02*math.Abs(float64(in)) {
+	if in <= 0 || math.Abs(float64(out)) < float64(NearZero) || math.Abs(float64(out)) < 0.02*math.Abs(float64(in)) {
 		return "—"
 	}
 	return Pct(frac, prec)

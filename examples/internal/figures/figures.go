@@ -10,17 +10,23 @@ import (
 	"errors"
 	"fmt"
 	"image/color"
+	"io"
 	"math"
 	"os"
 	"path/filepath"
+	"strconv"
+	"strings"
+	"unicode/utf8"
 
 	"gonum.org/v1/plot"
+	"gonum.org/v1/plot/palette"
 	"gonum.org/v1/plot/palette/moreland"
 	"gonum.org/v1/plot/plotter"
 	"gonum.org/v1/plot/plotutil"
 	"gonum.org/v1/plot/vg"
 	"gonum.org/v1/plot/vg/draw"
 	"gonum.org/v1/plot/vg/vgimg"
+	"gonum.org/v1/plot/vg/vgsvg"
 )
 
 // Size is the figure size.
@@ -38,53 +44,216 @@ type Series struct {
 	Dashed bool
 	// Points draws markers instead of a line.
 	Points bool
+	// Step draws the line as steps (a value held until the next point).
+	Step bool
+	// Colour picks the series' colour: n > 0 is the palette's colour n−1
+	// (so that related series share a colour); 0 means by the series'
+	// position.
+	Colour int
 }
 
 // Axes are a figure's title and axis labels (with their units).
 type Axes struct {
 	Title, X, Y string
-	// YMin and YMax fix the Y range when YMax > YMin.
-	YMin, YMax float64
+	// YMin and YMax fix the Y range when YMax > YMin; XMin and XMax the X
+	// range when XMax > XMin.
+	YMin, YMax, XMin, XMax float64
 	// LegendBottom and LegendLeft move the legend from the top right.
 	LegendBottom, LegendLeft bool
+	// Note is printed in small type under the figure (a source, the
+	// safety caution of figures that show pressures, loads or speeds).
+	Note string
+	// Limits are drawn as dashed horizontal lines with their names (a
+	// unit's maximum speed, a relief setting).
+	Limits []Limit
+	// Band is shaded across the plot between two X values (a recommended
+	// range); nil means none.
+	Band *Band
+}
+
+// Limit is a horizontal line at Y named Name.
+type Limit struct {
+	Name string
+	Y    float64
+}
+
+// Band is an X interval shaded and named in the legend.
+type Band struct {
+	Name     string
+	From, To float64
 }
 
 // save writes p as base.svg and base.png in dir and returns both paths.
-func save(p *plot.Plot, dir, base string) ([]string, error) {
+func save(p *plot.Plot, dir, base, note string) ([]string, error) {
+	return saveWith(func(c draw.Canvas) { p.Draw(c) }, dir, base, note)
+}
+
+// noteHeight is the strip under a figure that holds its note.
+const noteHeight = 0.55 * vg.Centimeter
+
+// saveWith draws with paint (and the note under it) into base.svg and
+// base.png in dir.
+func saveWith(paint func(c draw.Canvas), dir, base, note string) ([]string, error) {
+	full := func(c draw.Canvas) {
+		if note == "" {
+			paint(c)
+			return
+		}
+		paint(draw.Crop(c, 0, 0, noteHeight, 0))
+		sty := plot.New().X.Label.TextStyle
+		sty.Font.Size = vg.Points(7)
+		sty.XAlign = draw.XLeft
+		c.FillText(sty, vg.Point{X: c.Min.X + vg.Points(4), Y: c.Min.Y + vg.Points(4)}, note)
+	}
 	svg := filepath.Join(dir, base+".svg")
-	if err := p.Save(Width, Height, svg); err != nil {
-		return nil, fmt.Errorf("figures: saving %s: %w", svg, err)
+	sc := vgsvg.New(Width, Height)
+	full(draw.New(sc))
+	if err := writeTo(svg, sc); err != nil {
+		return nil, err
 	}
 	// The PNG at 150 dpi, sharp enough for a README.
 	png := filepath.Join(dir, base+".png")
 	c := vgimg.PngCanvas{Canvas: vgimg.NewWith(vgimg.UseWH(Width, Height), vgimg.UseDPI(150))}
-	p.Draw(draw.New(c))
-	f, err := os.Create(png)
-	if err != nil {
-		return nil, err
-	}
-	if _, err := c.WriteTo(f); err != nil {
-		f.Close()
-		return nil, fmt.Errorf("figures: saving %s: %w", png, err)
-	}
-	if err := f.Close(); err != nil {
+	full(draw.New(c))
+	if err := writeTo(png, c); err != nil {
 		return nil, err
 	}
 	return []string{svg, png}, nil
 }
 
+func writeTo(path string, w io.WriterTo) error {
+	f, err := os.Create(path)
+	if err != nil {
+		return err
+	}
+	if _, err := w.WriteTo(f); err != nil {
+		f.Close()
+		return fmt.Errorf("figures: saving %s: %w", path, err)
+	}
+	return f.Close()
+}
+
+// niceTicks puts major ticks at 1, 2, 2.5 or 5 times a power of ten, six to
+// ten of them, labelled without trailing noise, with a minor tick between.
+type niceTicks struct{}
+
+// Ticks implements plot.Ticker.
+func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
+	if !(hi > lo) || math.IsInf(hi-lo, 0) {
+		return plot.DefaultTicks{}.Ticks(lo, hi)
+	}
+	span := hi - lo
+	mag := math.Pow(10, math.Floor(math.Log10(span/8)))
+	step := mag
+	for _, m := range []float64{1, 2, 2.5, 5, 10} {
+		step = m * mag
+		if span/step <= 9 {
+			break
+		}
+	}
+	k := int(math.Floor(math.Log10(step) + 1e-9))
+	dec := max(0, -k)
+	if math.Abs(step/math.Pow(10, float64(k))-2.5) < 1e-9 {
+		dec = max(0, 1-k)
+	}
+	var out []plot.Tick
+	for k := math.Ceil(lo/step - 1e-9); k*step <= hi+1e-9*step; k++ {
+		v := k * step
+		if v == 0 {
+			v = 0 // no "-0"
+		}
+		out = append(out, plot.Tick{Value: v, Label: strconv.FormatFloat(v, 'f', dec, 64)})
+		if m := v + step/2; m <= hi {
+			out = append(out, plot.Tick{Value: m})
+		}
+	}
+	if f := math.Ceil(lo/step-1e-9)*step - step/2; f >= lo {
+		out = append(out, plot.Tick{Value: f})
+	}
+	return out
+}
+
 func newPlot(a Axes) *plot.Plot {
 	p := plot.New()
 	p.Title.Text = a.Title
+	// A long title (a design's name, then what the figure shows) takes two
+	// lines rather than running off the figure.
+	if i := strings.Index(a.Title, ": "); i > 0 && utf8.RuneCountInString(a.Title) > 55 {
+		p.Title.Text = a.Title[:i] + "\n" + a.Title[i+2:]
+	}
+	p.Title.TextStyle.Font.Size = vg.Points(11)
 	p.X.Label.Text = a.X
 	p.Y.Label.Text = a.Y
+	p.X.Tick.Marker = niceTicks{}
+	p.Y.Tick.Marker = niceTicks{}
 	p.Add(plotter.NewGrid())
 	p.Legend.Top = !a.LegendBottom
 	p.Legend.Left = a.LegendLeft
+	p.Legend.TextStyle.Font.Size = vg.Points(9)
+	p.Legend.XOffs, p.Legend.YOffs = -vg.Points(6), -vg.Points(6)
+	if a.LegendLeft {
+		p.Legend.XOffs = vg.Points(6)
+	}
+	if a.LegendBottom {
+		p.Legend.YOffs = vg.Points(6)
+	}
 	if a.YMax > a.YMin {
 		p.Y.Min, p.Y.Max = a.YMin, a.YMax
 	}
+	if a.XMax > a.XMin {
+		p.X.Min, p.X.Max = a.XMin, a.XMax
+	}
 	return p
+}
+
+// decorate adds a's band and limit lines to p (after the data ranges are
+// known) and the legend's background.
+func decorate(p *plot.Plot, a Axes, legend bool) error {
+	if a.Band != nil {
+		ymin, ymax := p.Y.Min, p.Y.Max
+		poly, err := plotter.NewPolygon(plotter.XYs{{X: a.Band.From, Y: ymin}, {X: a.Band.To, Y: ymin}, {X: a.Band.To, Y: ymax}, {X: a.Band.From, Y: ymax}})
+		if err != nil {
+			return err
+		}
+		poly.Color = color.RGBA{R: 120, G: 190, B: 120, A: 70}
+		poly.LineStyle.Width = 0
+		p.Add(poly)
+		if a.Band.Name != "" {
+			p.Legend.Add(a.Band.Name, poly)
+		}
+	}
+	xmin, xmax := p.X.Min, p.X.Max
+	named := 0
+	for _, lim := range a.Limits {
+		l, err := plotter.NewLine(plotter.XYs{{X: xmin, Y: lim.Y}, {X: xmax, Y: lim.Y}})
+		if err != nil {
+			return err
+		}
+		l.LineStyle.Color = color.Gray{Y: 60}
+		l.LineStyle.Width = vg.Points(1)
+		l.LineStyle.Dashes = []vg.Length{vg.Points(2), vg.Points(2)}
+		p.Add(l)
+		if lim.Name == "" {
+			continue
+		}
+		// Names alternate between the left and the right end, so that
+		// close limits do not print over each other.
+		at, align := xmin, draw.XLeft
+		if named%2 == 1 {
+			at, align = xmax, draw.XRight
+		}
+		named++
+		lb, err := plotter.NewLabels(plotter.XYLabels{XYs: plotter.XYs{{X: at, Y: lim.Y}}, Labels: []string{" " + lim.Name + " "}})
+		if err != nil {
+			return err
+		}
+		lb.TextStyle[0].Font.Size = vg.Points(7)
+		lb.TextStyle[0].YAlign = draw.YBottom
+		lb.TextStyle[0].XAlign = align
+		p.Add(lb)
+	}
+	_ = legend
+	return nil
 }
 
 // pieces splits a series at NaN points.
@@ -112,17 +281,33 @@ func pieces(s Series) []plotter.XYs {
 // Lines draws the series as lines (or points) and saves base.svg and
 // base.png in dir.
 func Lines(dir, base string, a Axes, series ...Series) ([]string, error) {
+	p, legend, err := linesPlot(a, series)
+	if err != nil {
+		return nil, errors.New("figures: " + base + ": " + err.Error())
+	}
+	if err := settle(p, a, legend); err != nil {
+		return nil, err
+	}
+	return save(p, dir, base, a.Note)
+}
+
+// linesPlot builds the plot of Lines; legend reports whether it has one.
+func linesPlot(a Axes, series []Series) (*plot.Plot, bool, error) {
 	p := newPlot(a)
 	drawn := 0
+	legend := false
 	for i, s := range series {
 		c := plotutil.Color(i)
+		if s.Colour > 0 {
+			c = plotutil.Color(s.Colour - 1)
+		}
 		first := true
 		for _, xy := range pieces(s) {
 			drawn++
 			if s.Points {
 				sc, err := plotter.NewScatter(xy)
 				if err != nil {
-					return nil, err
+					return nil, false, err
 				}
 				sc.GlyphStyle.Color = c
 				sc.GlyphStyle.Radius = vg.Points(2.5)
@@ -130,29 +315,51 @@ func Lines(dir, base string, a Axes, series ...Series) ([]string, error) {
 				p.Add(sc)
 				if first && s.Name != "" {
 					p.Legend.Add(s.Name, sc)
+					legend = true
 				}
 			} else {
 				l, err := plotter.NewLine(xy)
 				if err != nil {
-					return nil, err
+					return nil, false, err
 				}
 				l.LineStyle.Color = c
 				l.LineStyle.Width = vg.Points(1.5)
 				if s.Dashed {
 					l.LineStyle.Dashes = []vg.Length{vg.Points(5), vg.Points(3)}
 				}
+				if s.Step {
+					l.StepStyle = plotter.PostStep
+				}
 				p.Add(l)
 				if first && s.Name != "" {
 					p.Legend.Add(s.Name, l)
+					legend = true
 				}
 			}
 			first = false
 		}
 	}
 	if drawn == 0 {
-		return nil, errors.New("figures: " + base + ": no finite points to draw")
+		return nil, false, errors.New("no finite points to draw")
 	}
-	return save(p, dir, base)
+	return p, legend, nil
+}
+
+// settle fixes the data ranges (so that bands and limit lines span them,
+// limits included in the Y range) and decorates p.
+func settle(p *plot.Plot, a Axes, legend bool) error {
+	if a.XMax > a.XMin {
+		p.X.Min, p.X.Max = a.XMin, a.XMax
+	}
+	if a.YMax > a.YMin {
+		p.Y.Min, p.Y.Max = a.YMin, a.YMax
+	}
+	for _, lim := range a.Limits {
+		if !(a.YMax > a.YMin) {
+			p.Y.Min, p.Y.Max = math.Min(p.Y.Min, lim.Y), math.Max(p.Y.Max, 1.05*lim.Y)
+		}
+	}
+	return decorate(p, a, legend)
 }
 
 // Grid is a regular grid of values: Z[r][c] at X[c], Y[r]. Feasible[r][c]
@@ -240,10 +447,18 @@ type MapOptions struct {
 	Points []Series
 	// ZMin and ZMax fix the colour range when ZMax > ZMin.
 	ZMin, ZMax float64
+	// Reverse runs the colour scale from dark at high values to light at
+	// low ones (for a quantity where low is good, such as specific fuel
+	// consumption).
+	Reverse bool
 }
 
-// HeatMap draws a heat map of g with contours; infeasible cells are filled
-// grey. It saves base.svg and base.png in dir.
+// colourBarWidth is the strip right of a heat map that holds its colour bar.
+const colourBarWidth = 2.3 * vg.Centimeter
+
+// HeatMap draws a heat map of g on a sequential colour scale with a colour
+// bar and labelled contours; infeasible cells are grey. It saves base.svg
+// and base.png in dir.
 func HeatMap(dir, base string, a Axes, g Grid, o MapOptions) ([]string, error) {
 	if len(g.X) < 2 || len(g.Y) < 2 || len(g.Z) != len(g.Y) || len(g.Feasible) != len(g.Y) {
 		return nil, errors.New("figures: " + base + ": grid needs at least 2×2 cells and matching rows")
@@ -277,25 +492,21 @@ func HeatMap(dir, base string, a Axes, g Grid, o MapOptions) ([]string, error) {
 			}
 		}
 	}
-	cm := moreland.SmoothBlueRed()
+	cm := sequential(o.Reverse)
 	cm.SetMin(lo)
 	cm.SetMax(hi)
 	pal := cm.Palette(64)
 	p := newPlot(a)
 	h := plotter.NewHeatMap(gridXYZ{g.X, g.Y, hz}, pal)
 	h.Min, h.Max = lo, hi
-	h.NaN = color.Gray{Y: 200}
+	h.NaN = color.Gray{Y: 215}
 	h.Rasterized = true
 	p.Add(h)
+	legend := false
 	if len(o.Levels) > 0 {
 		ct := plotter.NewContour(gridXYZ{g.X, g.Y, z}, o.Levels, nil)
-		ct.LineStyles = []draw.LineStyle{{Color: color.Black, Width: vg.Points(0.8)}}
+		ct.LineStyles = []draw.LineStyle{{Color: color.Gray{Y: 40}, Width: vg.Points(0.7)}}
 		p.Add(ct)
-		// Label each level once, at a point of the filled grid near it.
-		labels := contourLabels(g, z, o.Levels)
-		if labels != nil {
-			p.Add(labels)
-		}
 		// Cover the contours' run into the infeasible cells: a grey mask
 		// over those cells, transparent over the feasible ones.
 		mz := make([][]float64, len(g.Y))
@@ -313,6 +524,10 @@ func HeatMap(dir, base string, a Axes, g Grid, o MapOptions) ([]string, error) {
 		mask.NaN = color.Transparent
 		mask.Rasterized = true
 		p.Add(mask)
+		// Label the levels where they do not collide.
+		if labels := contourLabels(g, z, o.Levels); labels != nil {
+			p.Add(labels)
+		}
 	}
 	if o.Envelope != nil {
 		for k, xy := range pieces(*o.Envelope) {
@@ -325,6 +540,7 @@ func HeatMap(dir, base string, a Axes, g Grid, o MapOptions) ([]string, error) {
 			p.Add(l)
 			if k == 0 && o.Envelope.Name != "" {
 				p.Legend.Add(o.Envelope.Name, l)
+				legend = true
 			}
 		}
 	}
@@ -336,50 +552,123 @@ func HeatMap(dir, base string, a Axes, g Grid, o MapOptions) ([]string, error) {
 			}
 			sc.GlyphStyle.Shape = plotutil.Shape(i + 1)
 			sc.GlyphStyle.Radius = vg.Points(3.5)
-			sc.GlyphStyle.Color = color.Black
+			sc.GlyphStyle.Color = color.RGBA{R: 0, G: 90, B: 200, A: 255}
 			p.Add(sc)
 			if k == 0 && s.Name != "" {
 				p.Legend.Add(s.Name, sc)
+				legend = true
 			}
 		}
 	}
 	p.X.Min, p.X.Max = g.X[0], g.X[len(g.X)-1]
 	p.Y.Min, p.Y.Max = g.Y[0], g.Y[len(g.Y)-1]
-	if o.ZLabel != "" {
-		p.X.Label.Text += fmt.Sprintf("\ncolour: %s from %.3g (blue) to %.3g (red); grey: infeasible", o.ZLabel, lo, hi)
+	if err := decorate(p, a, legend); err != nil {
+		return nil, err
 	}
-	return save(p, dir, base)
+	bar := plot.New()
+	bar.HideX()
+	bar.Y.Tick.Marker = niceTicks{}
+	bar.Y.Label.Text = o.ZLabel
+	bar.Add(&plotter.ColorBar{ColorMap: cm, Vertical: true})
+	note := a.Note
+	if note == "" {
+		note = "grey: infeasible"
+	} else {
+		note = "grey: infeasible. " + note
+	}
+	return saveWith(func(c draw.Canvas) {
+		p.Draw(draw.Crop(c, 0, -colourBarWidth, 0, 0))
+		right := draw.Crop(c, c.Max.X-c.Min.X-colourBarWidth+vg.Points(8), 0, 0, 0)
+		// Leave the title's height free above the bar.
+		right.Max.Y -= p.Title.TextStyle.Rectangle(p.Title.Text).Size().Y + p.Title.Padding
+		bar.Draw(right)
+	}, dir, base, note)
 }
+
+// sequential is the colour scale of heat maps: one hue family from light
+// to mid-dark, so that the order of values reads at a glance (and in grey)
+// and black contours and labels stay readable everywhere. High values are
+// dark unless reverse.
+func sequential(reverse bool) palette.ColorMap {
+	cm, err := moreland.NewLuminance([]color.Color{
+		color.NRGBA{R: 60, G: 130, B: 185, A: 255},
+		color.NRGBA{R: 90, G: 180, B: 190, A: 255},
+		color.NRGBA{R: 170, G: 220, B: 180, A: 255},
+		color.NRGBA{R: 255, G: 255, B: 210, A: 255},
+	})
+	if err != nil {
+		panic("figures: colour scale: " + err.Error()) // fixed controls: a bug if it fails
+	}
+	if reverse {
+		return cm
+	}
+	return reversed{cm}
+}
+
+// reversed runs a colour map backwards.
+type reversed struct{ palette.ColorMap }
+
+// At implements palette.ColorMap.
+func (r reversed) At(v float64) (color.Color, error) {
+	return r.ColorMap.At(r.Max() - (v - r.Min()))
+}
+
+// Palette implements palette.ColorMap.
+func (r reversed) Palette(n int) palette.Palette {
+	c := make([]color.Color, n)
+	for i := range c {
+		v := r.Min() + (r.Max()-r.Min())*float64(i)/float64(max(n-1, 1))
+		c[i], _ = r.At(v)
+	}
+	return plainPalette(c)
+}
+
+type plainPalette []color.Color
+
+func (p plainPalette) Colors() []color.Color { return p }
 
 // greyPalette is the one colour of the infeasibility mask.
 type greyPalette struct{}
 
-func (greyPalette) Colors() []color.Color { return []color.Color{color.Gray{Y: 200}} }
+func (greyPalette) Colors() []color.Color { return []color.Color{color.Gray{Y: 215}} }
 
-// contourLabels places the value of each level at one grid point close to
-// it, inside the feasible region.
+// contourLabels places the value of each level once, at a grid point inside
+// the feasible region close to the level, choosing among the candidates the
+// one farthest from the labels already placed so that labels do not
+// collide.
 func contourLabels(g Grid, z [][]float64, levels []float64) *plotter.Labels {
 	var xys plotter.XYs
 	var text []string
+	nx, ny := float64(len(g.X)), float64(len(g.Y))
+	type cand struct{ r, c int }
 	for _, lv := range levels {
-		best, br, bc := math.Inf(1), -1, -1
-		for r := 1; r < len(g.Y)-1; r++ {
-			for c := 1; c < len(g.X)-1; c++ {
-				if !g.Feasible[r][c] {
-					continue
-				}
-				// Prefer points in the middle of the X span.
-				d := math.Abs(z[r][c]-lv) + 1e-3*math.Abs(float64(c)-float64(len(g.X))/2)
-				if d < best {
-					best, br, bc = d, r, c
+		var cs []cand
+		tol := 0.01*math.Abs(lv) + 1e-9
+		for r := 2; r < len(g.Y)-2; r++ {
+			for c := 2; c < len(g.X)-2; c++ {
+				if g.Feasible[r][c] && math.Abs(z[r][c]-lv) <= tol {
+					cs = append(cs, cand{r, c})
 				}
 			}
 		}
-		if br < 0 || best > 0.02*math.Abs(lv)+1e-9 {
+		best, bestD := -1, -1.0
+		for i, cd := range cs {
+			d := math.Inf(1)
+			for _, q := range xys {
+				// Distance in grid fractions, X weighted for the label's width.
+				dx := (float64(cd.c) - colOf(g, q.X)) / nx * 2.5
+				dy := (float64(cd.r) - rowOf(g, q.Y)) / ny
+				d = math.Min(d, math.Hypot(dx, dy))
+			}
+			if d > bestD {
+				best, bestD = i, d
+			}
+		}
+		if best < 0 {
 			continue
 		}
-		xys = append(xys, plotter.XY{X: g.X[bc], Y: g.Y[br]})
-		text = append(text, fmt.Sprintf("%.3g", lv))
+		xys = append(xys, plotter.XY{X: g.X[cs[best].c], Y: g.Y[cs[best].r]})
+		text = append(text, strconv.FormatFloat(lv, 'g', 4, 64))
 	}
 	if len(xys) == 0 {
 		return nil
@@ -388,7 +677,30 @@ func contourLabels(g Grid, z [][]float64, levels []float64) *plotter.Labels {
 	if err != nil {
 		return nil
 	}
+	for i := range l.TextStyle {
+		l.TextStyle[i].Font.Size = vg.Points(8)
+		l.TextStyle[i].XAlign = draw.XCenter
+		l.TextStyle[i].YAlign = draw.YCenter
+	}
 	return l
+}
+
+func colOf(g Grid, x float64) float64 {
+	for c := range g.X {
+		if g.X[c] == x {
+			return float64(c)
+		}
+	}
+	return 0
+}
+
+func rowOf(g Grid, y float64) float64 {
+	for r := range g.Y {
+		if g.Y[r] == y {
+			return float64(r)
+		}
+	}
+	return 0
 }
 
 // Bars draws a bar chart of values with one label per bar and saves
@@ -424,5 +736,67 @@ func Bars(dir, base string, a Axes, labels []string, values []float64) ([]string
 	if top > 0 {
 		p.Y.Max = 1.1 * top
 	}
-	return save(p, dir, base)
+	return save(p, dir, base, a.Note)
+}
+
+// Panel is one panel of a figure of stacked panels: its axes (the title is
+// ignored; the figure has one) and its series.
+type Panel struct {
+	Axes   Axes
+	Series []Series
+}
+
+// Panels draws panels stacked top to bottom under one title, sharing the X
+// axis (labelled on the bottom panel only), and saves base.svg and base.png
+// in dir. The figure is taller than the others: 6 cm per panel.
+func Panels(dir, base, title, note string, panels ...Panel) ([]string, error) {
+	if len(panels) == 0 {
+		return nil, errors.New("figures: " + base + ": no panel")
+	}
+	plots := make([]*plot.Plot, len(panels))
+	xmin, xmax := math.Inf(1), math.Inf(-1)
+	for k, pn := range panels {
+		a := pn.Axes
+		a.Title = ""
+		if k < len(panels)-1 {
+			a.X = ""
+		}
+		p, legend, err := linesPlot(a, pn.Series)
+		if err != nil {
+			return nil, fmt.Errorf("figures: %s panel %d: %w", base, k+1, err)
+		}
+		if err := settle(p, a, legend); err != nil {
+			return nil, err
+		}
+		xmin, xmax = math.Min(xmin, p.X.Min), math.Max(xmax, p.X.Max)
+		plots[k] = p
+	}
+	for _, p := range plots {
+		p.X.Min, p.X.Max = xmin, xmax
+	}
+	h := Height
+	Height = vg.Length(len(panels))*6*vg.Centimeter + vg.Centimeter
+	defer func() { Height = h }()
+	head := plot.New()
+	head.Title.Text = title
+	head.Title.TextStyle.Font.Size = vg.Points(11)
+	return saveWith(func(c draw.Canvas) {
+		th := head.Title.TextStyle.Rectangle(title).Size().Y + vg.Points(6)
+		c.FillText(head.Title.TextStyle, vg.Point{X: c.Center().X, Y: c.Max.Y}, title)
+		body := draw.Crop(c, 0, 0, 0, -th)
+		tiles := draw.Tiles{Rows: len(plots), Cols: 1, PadY: vg.Points(4), PadTop: vg.Points(2)}
+		// Align the panels' data areas: the widest Y axis sets the left edge.
+		canvases := plot.Align(columnOf(plots), tiles, body)
+		for k, p := range plots {
+			p.Draw(canvases[k][0])
+		}
+	}, dir, base, note)
+}
+
+func columnOf(ps []*plot.Plot) [][]*plot.Plot {
+	out := make([][]*plot.Plot, len(ps))
+	for i, p := range ps {
+		out[i] = []*plot.Plot{p}
+	}
+	return out
 }
