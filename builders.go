@@ -31,6 +31,14 @@ type RangeGear struct {
 	// kinds can shift synchronously (Solver.ShiftPoints). Not for
 	// PureHydrostatic.
 	FromVariator bool
+	// Locked makes this a locked (purely mechanical) range: a brake named
+	// "<range> lock" holds the variator member (the pump member of an
+	// output-coupled split, the motor member of an input-coupled one) and
+	// the hydrostat is bypassed with its units destroked, so the range
+	// runs at the split's mechanical point only, at one output speed per
+	// engine speed (any other is ErrUnreachable). Not with FromVariator;
+	// not for PureHydrostatic.
+	Locked bool
 }
 
 // PTOSpec is a power take-off geared to the engine: ωPTO = Ratio·ωengine.
@@ -390,6 +398,18 @@ func addRanges(b *Builder, c *specCheck, from, alt Shaft, reverseAlt bool, out S
 		if src < 0 {
 			continue
 		}
+		engaged := []string{name + " clutch"}
+		if rg.Locked {
+			if (alt < 0 || rg.FromVariator) && c.err == nil {
+				c.err = &InputError{Field: fmt.Sprintf("Ranges[%d].Locked", i), Value: units.Plain(1),
+					Reason: "a locked range needs a variator member to hold and a gear from the summing member"}
+			}
+			if alt >= 0 {
+				b.Brake(name+" lock", alt)
+				engaged = append(engaged, name+" lock")
+				b.LockedRange(name)
+			}
+		}
 		rs := b.Shaft(name + " gear shaft")
 		b.Gear(name+" gear", src, rs, rg.Ratio, orDefault(rg.Efficiency, eta))
 		b.Clutch(name+" clutch", rs, out)
@@ -397,9 +417,9 @@ func addRanges(b *Builder, c *specCheck, from, alt Shaft, reverseAlt bool, out S
 			b.ReverseShare(name)
 		}
 		if more != nil {
-			more(name, []string{name + " clutch"})
+			more(name, engaged)
 		} else {
-			b.Range(name, name+" clutch")
+			b.Range(name, engaged...)
 		}
 	}
 }

@@ -61,12 +61,18 @@ type element struct {
 
 // rangeDef is one named range: which clutches and brakes are engaged.
 type rangeDef struct {
-	name     string
-	engaged  []bool    // per element index; only clutches and brakes are read
-	maxOut   float64   // |first output speed| limit in rad/s, 0 = none
-	reverse  bool      // hydraulic share counted from the motors to the pump
-	g        []float64 // S × (1+nOut) row-major: shaft speeds = g · [win, wout...]
-	kinRows  int
+	name    string
+	engaged []bool    // per element index; only clutches and brakes are read
+	maxOut  float64   // |first output speed| limit in rad/s, 0 = none
+	reverse bool      // hydraulic share counted from the motors to the pump
+	g       []float64 // S × (1+nOut) row-major: shaft speeds = g · [win, wout...]
+	kinRows int
+	// locked: the range fixes the loops' ratios (locked.go); the given
+	// speeds must satisfy nConsist rows consist (each 1+nOut long)
+	wantLock bool // declared locked (Builder.LockedRange)
+	locked   bool
+	consist  []float64
+	nConsist int
 	nTorque  int // unknowns of the torque system (ports + loops)
 	relCount int
 }
@@ -108,6 +114,7 @@ type Builder struct {
 	rangeEngaged [][]string
 	limits       map[string]float64
 	reverse      map[string]bool
+	lockedRanges map[string]bool
 	lube         Lubricant
 	drags        []dragSrc
 	pins         []pinSpec
@@ -373,7 +380,7 @@ func (b *Builder) Build() (Layout, error) {
 			return Layout{}, &LayoutError{Element: n, Reason: "duplicate range name", Err: ErrLayout}
 		}
 		seen[n] = true
-		r := rangeDef{name: n, engaged: make([]bool, len(l.elems)), maxOut: b.limits[n], reverse: b.reverse[n]}
+		r := rangeDef{name: n, engaged: make([]bool, len(l.elems)), maxOut: b.limits[n], reverse: b.reverse[n], wantLock: b.lockedRanges[n]}
 		for _, en := range engaged[i] {
 			found := false
 			for j, e := range l.elems {
@@ -396,6 +403,11 @@ func (b *Builder) Build() (Layout, error) {
 	for n := range b.limits {
 		if !seen[n] {
 			return Layout{}, &LayoutError{Element: n, Reason: "speed limit for an unknown range", Err: ErrLayout}
+		}
+	}
+	for n := range b.lockedRanges {
+		if !seen[n] {
+			return Layout{}, &LayoutError{Element: n, Reason: "LockedRange for an unknown range", Err: ErrLayout}
 		}
 	}
 	for n := range b.reverse {
@@ -507,7 +519,13 @@ func (l *layout) prepareRange(r *rangeDef) error {
 			rank++
 		}
 	}
-	if rank < S || rows != S {
+	locked := r.wantLock && rank == S && rows-S == len(l.loops) && len(l.loops) > 0 && l.prepareLocked(r, k, bm)
+	if r.wantLock && !locked {
+		return &LayoutError{Element: r.name, Err: ErrKinematics, Reason: fmt.Sprintf(
+			"a locked range must fix every loop's ratio: %d kinematic constraints of rank %d for %d shafts and %d loops",
+			rows, rank, S, len(l.loops))}
+	}
+	if !locked && (rank < S || rows != S) {
 		ke := &KinematicsError{Range: r.name, Shafts: S, Constraints: rows, Rank: rank}
 		if rank < S {
 			var v mat.Dense
@@ -523,17 +541,19 @@ func (l *layout) prepareRange(r *rangeDef) error {
 		}
 		return ke
 	}
-	var inv mat.Dense
-	if err := inv.Inverse(k); err != nil {
-		return &KinematicsError{Range: r.name, Shafts: S, Constraints: rows, Rank: rank}
-	}
-	var g mat.Dense
-	g.Mul(&inv, bm)
-	_, nG := g.Dims()
-	r.g = make([]float64, S*nG)
-	for s := 0; s < S; s++ {
-		for j := 0; j < nG; j++ {
-			r.g[s*nG+j] = g.At(s, j)
+	if !locked {
+		var inv mat.Dense
+		if err := inv.Inverse(k); err != nil {
+			return &KinematicsError{Range: r.name, Shafts: S, Constraints: rows, Rank: rank}
+		}
+		var g mat.Dense
+		g.Mul(&inv, bm)
+		_, nG := g.Dims()
+		r.g = make([]float64, S*nG)
+		for s := 0; s < S; s++ {
+			for j := 0; j < nG; j++ {
+				r.g[s*nG+j] = g.At(s, j)
+			}
 		}
 	}
 	rel := 0
@@ -542,6 +562,10 @@ func (l *layout) prepareRange(r *rangeDef) error {
 	}
 	r.relCount = rel
 	r.nTorque = l.nPorts + len(l.loops)
+	if locked {
+		rel += len(l.loops) // Δp = 0 for each bypassed loop
+		r.relCount = rel
+	}
 	if S+rel != r.nTorque {
 		return &LayoutError{Element: r.name, Err: ErrTorques, Reason: fmt.Sprintf(
 			"%d torque equations for %d unknowns; outputs with a given torque (%d) must equal hydrostatic loops (%d)",

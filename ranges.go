@@ -42,7 +42,16 @@ func (s *Solver) reachable(p *Point, rg int, v float64) bool {
 	q := *p
 	q.Range = rg
 	s.setPins(&q, false)
+	s.lockedNow = r.locked
+	if r.locked {
+		if _, ok := r.lockedSpeed(float64(p.Input), s.outW); !ok {
+			return false
+		}
+	}
 	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	if r.locked {
+		snapSpeeds(s.w)
+	}
 	if s.unitSpeeds() != nil {
 		return false
 	}
@@ -72,6 +81,17 @@ func (s *Solver) Interval(p Point) ([]SpeedInterval, error) {
 	}
 	l := s.l
 	r := &l.ranges[p.Range]
+	if r.locked {
+		// A locked range reaches one speed: the one its input speed gives.
+		s.outputSpeeds(&p, 0)
+		v, _ := r.lockedSpeed(float64(p.Input), s.outW)
+		s.outputSpeeds(&p, v)
+		if want, ok := r.lockedSpeed(float64(p.Input), s.outW); ok && s.reachable(&p, p.Range, v) {
+			return []SpeedInterval{{Lo: units.AngularVelocity(want), Hi: units.AngularVelocity(want)}}, nil
+		}
+		return nil, s.limitErr(LimitError{Element: r.name, Quantity: "output speed", Value: units.Of(units.AngularVelocity(v)),
+			Bound: boundLockedSpeed, Limit: units.Of(units.AngularVelocity(v)), Err: ErrUnreachable})
+	}
 	// Speeds of every unit are affine in v: a + b·v.
 	V := 0.0
 	s.outputSpeeds(&p, 0)

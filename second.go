@@ -179,7 +179,9 @@ func (s *Solver) initPins() {
 	for j, e := range l.loops {
 		el := &l.elems[e]
 		s.pinHeld[j] = make([]float64, len(el.shafts)-1)
-		lp, err := el.loop.WithSchedule(hydrostat.Pinned{Held: s.pinHeld[j], MinMotorSetting: el.loop.MinMotorSetting()})
+		// The loop's floor is negative for over-centre motors; Pinned takes
+		// 0 for "as far as the swings allow", as Sequential does.
+		lp, err := el.loop.WithSchedule(hydrostat.Pinned{Held: s.pinHeld[j], MinMotorSetting: math.Max(0, el.loop.MinMotorSetting())})
 		if err != nil {
 			panic("powersplit: pinned schedule: " + err.Error())
 		}
@@ -190,6 +192,9 @@ func (s *Solver) initPins() {
 // loopOf returns the loop j to evaluate at this point: its pinned copy
 // when a motor is held.
 func (s *Solver) loopOf(j int) *hydrostat.Loop {
+	if s.lockedNow {
+		return &s.lockLoop[j]
+	}
 	if s.pinOn[j] {
 		return &s.pinLoop[j]
 	}

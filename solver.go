@@ -80,7 +80,11 @@ type Solver struct {
 	pinHeld [][]float64
 	pinLoop []hydrostat.Loop
 	pinOn   []bool
-	outs    []OutputDemand // SolveTotal's copy of the point's demands
+	// locked ranges (locked.go): each loop with its units destroked, used
+	// while lockedNow
+	lockLoop  []hydrostat.Loop
+	lockedNow bool
+	outs      []OutputDemand // SolveTotal's copy of the point's demands
 
 	slab  []LimitError           // fresh errors (limitErr)
 	hslab []hydrostat.LimitError // fresh causes (loopLimit)
@@ -137,6 +141,7 @@ func NewSolver(l Layout) *Solver {
 	s.initCompiled()
 	s.prevT = make([]float64, s.nU)
 	s.initPins()
+	s.initLocked()
 	return s
 }
 
@@ -255,7 +260,23 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 		s.outW[i] = float64(o.Speed)
 	}
 	s.setPins(&p, flip)
+	s.lockedNow = r.locked
+	if r.locked {
+		if want, ok := r.lockedSpeed(float64(p.Input), s.outW); !ok {
+			// The speeds of a locked range follow from the input speed:
+			// report the output speed it gives.
+			s.outW[0] = want
+			l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+			s.outW[0] = float64(p.Outputs[0].Speed)
+			s.fill(st, p, r, 0, 0)
+			return s.limitErr(LimitError{Element: r.name, Quantity: "output speed", Value: units.Of(units.AngularVelocity(math.Abs(s.outW[0]))),
+				Bound: boundLockedSpeed, Limit: units.Of(units.AngularVelocity(math.Abs(want))), Err: ErrUnreachable})
+		}
+	}
 	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	if r.locked {
+		snapSpeeds(s.w)
+	}
 	for i := range s.gearK {
 		s.gearK[i], s.flip[i] = 1, 0
 	}
@@ -1012,6 +1033,11 @@ func (s *Solver) assembleInto(r *rangeDef, p *Point, a, rhs []float64, e *sysEnt
 				// T - d·dp = t0 - d·dp0, with dp in units of pScale.
 				set(row, l.nPorts+j, -s.ld[u]*pScale)
 				rhs[row] = s.lt0[u] - s.ld[u]*s.dp[j]
+				row++
+			}
+			if r.locked {
+				// A bypassed loop (locked range): Δp = 0.
+				set(row, l.nPorts+j, 1)
 				row++
 			}
 		}

@@ -1,0 +1,95 @@
+package powersplit
+
+import (
+	"errors"
+	"math"
+	"testing"
+
+	"github.com/powersplit-dev/powersplit/units"
+)
+
+// A locked range at the mechanical point of the output-coupled fixture
+// (carrier on the engine, sun to the pump at 1.2, ring the summing shaft,
+// range gear 0.5): with the sun held, Willis gives ωring = (i0−1)/i0·ωcarrier
+// = 1.4·ωengine, so the output turns at ν_M = 0.7 of the engine. With
+// lossless gears and planetary, the output power equals the input power
+// less the destroked motor's own drag. Hand calculation: the torque at the
+// output is 1/0.7 of the engine's through the locked set.
+func TestLockedRange(t *testing.T) {
+	t.Parallel()
+	lp := makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100})
+	l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(t, testI0, 1), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
+		Ranges: []RangeGear{{Name: "split", Ratio: 0.5}, {Name: "locked", Ratio: 0.5, Locked: true}}, GearEfficiency: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := NewSolver(l)
+	var st State
+	win := units.RPM(2000)
+	p := Point{Range: 1, Input: win, Outputs: []OutputDemand{{Speed: units.AngularVelocity(0.7 * float64(win)), Torque: units.NewtonMetres(700)}}}
+	if err := s.Solve(p, &st); err != nil {
+		t.Fatal(err)
+	}
+	// Lossless units: the engine gives 0.7·700 N·m, the brake holds the sun.
+	if got := float64(st.InputTorque); math.Abs(got-490) > 1e-6 {
+		t.Errorf("input torque %.9g N·m, want 490", got)
+	}
+	if st.Loops[0].Pressure != 0 || st.Loops[0].Settings[0] != 0 || st.Loops[0].Settings[1] != 0 {
+		t.Errorf("locked loop: pressure %v, settings %v", st.Loops[0].Pressure, st.Loops[0].Settings)
+	}
+	if math.Abs(st.Efficiency-1) > 1e-12 || st.HydraulicShare != 0 {
+		t.Errorf("efficiency %v, hydraulic share %v", st.Efficiency, st.HydraulicShare)
+	}
+	// Any other output speed is unreachable in the locked range, and the
+	// error names the speed the range gives.
+	p.Outputs[0].Speed = units.AngularVelocity(0.69 * float64(win))
+	err = s.Solve(p, &st)
+	var le *LimitError
+	if !errors.Is(err, ErrUnreachable) || !errors.As(err, &le) || math.Abs(le.Limit.SI-0.7*float64(win)) > 1e-9*float64(win) {
+		t.Errorf("off-speed point: %v", err)
+	}
+	// The split range runs away from the mechanical point.
+	p.Range = 0
+	p.Outputs[0].Speed = units.AngularVelocity(0.6 * float64(win))
+	if err := s.Solve(p, &st); err != nil {
+		t.Errorf("split range at 0.6: %v", err)
+	}
+
+	// With lossy units the destroked units' drag is the only loss, and
+	// the balance closes.
+	lp = makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson})
+	l, err = OutputCoupled(OutputCoupledSpec{Set: mustSet(t, testI0, 1), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
+		Ranges: []RangeGear{{Name: "locked", Ratio: 0.5, Locked: true}}, GearEfficiency: 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s = NewSolver(l)
+	p = Point{Input: win, Outputs: []OutputDemand{{Speed: units.AngularVelocity(0.7 * float64(win)), Torque: units.NewtonMetres(700)}}}
+	if err := s.Solve(p, &st); err != nil {
+		t.Fatal(err)
+	}
+	if !(st.HydrostatLoss > 0) || math.Abs(float64(st.InputPower-st.OutputPower-st.Loss)) > 1e-9*float64(st.InputPower) {
+		t.Errorf("lossy locked: in %v out %v loss %v (hydrostat %v)", st.InputPower, st.OutputPower, st.Loss, st.HydrostatLoss)
+	}
+	if st.Loops[0].Pump.Speed != 0 {
+		t.Errorf("pump turns at %v in the locked range", st.Loops[0].Pump.Speed)
+	}
+}
+
+// The interval of a locked range is its one output speed.
+func TestLockedRangeInterval(t *testing.T) {
+	t.Parallel()
+	lp := makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson})
+	l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(t, testI0, 0.98), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
+		Ranges: []RangeGear{{Name: "locked", Ratio: 0.5, Locked: true}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := NewSolver(l)
+	win := units.RPM(2000)
+	ivs, err := s.Interval(Point{Input: win, Outputs: []OutputDemand{{Speed: 1}}})
+	t.Logf("intervals %v, %v", ivs, err)
+	if err != nil || len(ivs) != 1 || math.Abs(float64(ivs[0].Lo)-0.7*float64(win)) > 1e-9*float64(win) || ivs[0].Hi != ivs[0].Lo {
+		t.Errorf("Interval of a locked range = %v, %v; want the single speed %v", ivs, err, units.AngularVelocity(0.7*float64(win)))
+	}
+}
