@@ -42,6 +42,63 @@
 //	...
 //	err = f.Save("smaller-pump.json")
 //
+// # Requirements and the feasibility report
+//
+// Requirements (the optional "requirements" object of a file) state what
+// the design must do: top speed at or below an engine speed, standstill
+// or a lowest working speed, reverse speed, drawbar pulls at travel
+// speeds, PTO speeds, unit-speed and pressure margins, matching range
+// changes and the hydrostat's corner power. File.Check returns a Report:
+// each requirement met or not with its relative margin and the operating
+// point where it binds (Check.Binding), the speeds each range reaches at
+// rated engine speed, and — always, required or not — whether the forward
+// speeds start at standstill and every gap between ranges.
+//
+// # The tractive-effort diagram
+//
+// TractiveEffort finds, for every range and travel speed, the greatest
+// drawbar pull at full engine power on level ground, by bisection on the
+// pull, and names the limit that binds: the engine's full-load torque, the
+// relief pressure, a unit's greatest speed, the variator's ratio range, or
+// the tyres (beyond their peak pull, or beyond the slip counted as usable,
+// 15 % by default). WriteEffortCSV writes it; the examples draw it.
+//
+// # A day as a duty spectrum
+//
+// Spectrum condenses a working day into its steady operating points
+// (travel speed, draft, trailer, grade, PTO demand, ground) weighted by
+// time; SpectrumFuel runs them under a strategy. For the constant-speed
+// segments the vehicle package simulates, the spectrum's fuel equals the
+// day's (2e-15 relative on the demo day) at one solve per point instead of
+// one per time step.
+//
+// # Search
+//
+// A Space holds named parameters, each free within bounds (whole numbers
+// where Integer is set) or fixed. A Problem adds the objectives (all
+// minimised) and the evaluation of one candidate; File.SplitProblem makes
+// the usual one (parameters named by the Param constants and "range1",
+// "range2", ...; feasible when the requirements are met; objectives fuel
+// over the duty spectrum, installed displacement and peak pressure).
+//
+// Explore evaluates a space-filling sample: candidate i is point i of
+// Owen's scrambled Halton sequence (the one gonum's samplemv.Halton draws),
+// computed for its index alone, so it depends only on (space, seed, i) and
+// the results are identical for one worker or many. Pareto returns the
+// non-dominated feasible candidates, Best the best by weighted objectives,
+// Refine improves it by gonum's Nelder–Mead (bounds by clamping, integers
+// by single steps). File.Apply turns a candidate into a design file to
+// check, simulate or Save.
+//
+// A large search splits into parts: part k of n evaluates the indices
+// i ≡ k (mod n); RunPart writes its CSV (the header names the space and its
+// fingerprint, the seed, the number of candidates and the library version)
+// and skips a part already complete, so a rerun resumes; Merge reads the
+// parts and returns exactly the results of one run. An existing batch
+// scheduler runs the parts (a Kubernetes Indexed Job, a Slurm job array:
+// see the README); nothing here talks to a cluster. Explore.Progress and
+// vehicle.Options.Progress report (done, total).
+//
 // # Caution
 //
 // The library estimates; it does not certify. Hydraulic circuits at
