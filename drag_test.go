@@ -271,3 +271,34 @@ func TestPropertyConservationDrags(t *testing.T) {
 		solved++
 	})
 }
+
+// Solving with every drag source on allocates nothing once the State has
+// been used (the drag torques live in the solver's work space).
+func TestDragsAllocateNothing(t *testing.T) {
+	lp := makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson})
+	l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(t, testI0, 0.98), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
+		Ranges: []RangeGear{{Ratio: 0.5}}, GearEfficiency: 0.98})
+	if err != nil {
+		t.Fatal(err)
+	}
+	l, err = l.WithLosses(NoLoad{
+		Lubricant:   Lubricant{Viscosity: units.Centistokes(30), Density: 860},
+		Bearings:    []ShaftBearings{{Name: "b", Shaft: "engine", Bearings: Bearings{MeanDiameter: units.Millimetres(80), F0: 2}}},
+		Churning:    []ShaftWheel{{Name: "w", Shaft: "sum", Wheel: Wheel{Diameter: units.Millimetres(250), Sides: true, Dip: 0.2}}},
+		ChargePumps: []LoopChargePump{{Name: "c", Loop: "hydrostat", Shaft: "engine", ChargePump: ChargePump{Flushing: units.LitresPerMinute(8), Efficiency: 0.8}}},
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := NewSolver(l)
+	var st State
+	if err := solveNu(t, s, &st, 0.5, 500); err != nil {
+		t.Fatal(err)
+	}
+	if !(st.DragLoss > 0) || st.Residual > 1e-9 {
+		t.Fatalf("drag loss %v, residual %g", st.DragLoss, st.Residual)
+	}
+	if n := testing.AllocsPerRun(20, func() { _ = solveNu(t, s, &st, 0.5, 500) }); n != 0 {
+		t.Errorf("Solve with drags allocates %v times", n)
+	}
+}

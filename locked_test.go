@@ -5,6 +5,8 @@ import (
 	"math"
 	"testing"
 
+	"pgregory.net/rapid"
+
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -92,4 +94,66 @@ func TestLockedRangeInterval(t *testing.T) {
 	if err != nil || len(ivs) != 1 || math.Abs(float64(ivs[0].Lo)-0.7*float64(win)) > 1e-9*float64(win) || ivs[0].Hi != ivs[0].Lo {
 		t.Errorf("Interval of a locked range = %v, %v; want the single speed %v", ivs, err, units.AngularVelocity(0.7*float64(win)))
 	}
+}
+
+// Conservation in locked ranges, with every drag source on: random
+// output-coupled splits with a locked range, at the range's one speed.
+func TestPropertyLockedConservation(t *testing.T) {
+	t.Parallel()
+	solved := 0
+	defer func() {
+		if solved < 5 {
+			t.Errorf("only %d points solved", solved)
+		}
+	}()
+	rapid.Check(t, func(t *rapid.T) {
+		set, err := planetaryFromRatio(rapid.Float64Range(-3.5, -1.6).Draw(t, "i0"), rapid.Float64Range(0.94, 1).Draw(t, "eta0"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		l0, err := OutputCoupled(OutputCoupledSpec{Set: set, Loop: genLoop(t, 1),
+			PumpRatio: rapid.Float64Range(0.4, 1.2).Draw(t, "pump ratio"), MotorRatio: rapid.Float64Range(0.5, 1.5).Draw(t, "motor ratio"),
+			Ranges:         []RangeGear{{Name: "locked", Ratio: rapid.Float64Range(0.2, 1.5).Draw(t, "range ratio"), Locked: true}},
+			GearEfficiency: rapid.Float64Range(0.94, 1).Draw(t, "gear eta")})
+		if err != nil {
+			t.Fatal(err)
+		}
+		l, err := l0.WithLosses(genNoLoad(t, l0))
+		if err != nil {
+			t.Fatal(err)
+		}
+		s := NewSolver(l)
+		win := units.RPM(rapid.Float64Range(900, 2300).Draw(t, "engine rpm"))
+		ivs, err := s.Interval(Point{Input: win, Outputs: []OutputDemand{{Speed: 1}}})
+		if err != nil {
+			t.Skipf("locked speed unreachable: %v", err)
+		}
+		p := Point{Input: win, Outputs: []OutputDemand{{Speed: ivs[0].Lo, Torque: units.NewtonMetres(rapid.Float64Range(-1500, 1500).Draw(t, "N·m"))}}}
+		var st State
+		if err := s.Solve(p, &st); err != nil {
+			if errors.Is(err, ErrInfeasible) || errors.Is(err, ErrSelfLocking) {
+				t.Skipf("infeasible: %v", err)
+			}
+			t.Fatal(err)
+		}
+		pin, pout := float64(st.InputPower), float64(st.OutputPower)
+		scale := math.Abs(pin) + math.Abs(pout) + 1e-3*st.powerScale()
+		loss := 0.0
+		for _, e := range st.Elements {
+			if e.Loss < 0 {
+				t.Fatalf("%s loss %v", e.Name, e.Loss)
+			}
+			loss += float64(e.Loss)
+		}
+		for _, d := range st.Drags {
+			loss += float64(d.Loss)
+		}
+		if r := math.Abs(pin - pout - loss); r > 1e-9*scale {
+			t.Fatalf("balance residual %g (in %v out %v loss %g)", r/scale, st.InputPower, st.OutputPower, loss)
+		}
+		if st.Loops[0].Pressure != 0 || st.Loops[0].Pump.Speed != 0 {
+			t.Fatalf("locked loop: pressure %v, pump speed %v", st.Loops[0].Pressure, st.Loops[0].Pump.Speed)
+		}
+		solved++
+	})
 }
