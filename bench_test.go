@@ -327,6 +327,48 @@ func BenchmarkMap(b *testing.B) {
 	}
 }
 
+// generalOnly returns a copy of l whose solvers take the general path
+// only, with full states in maps and sweeps: the solver before the
+// compiled path.
+func generalOnly(l Layout) Layout {
+	c := *l.l
+	c.general = true
+	return Layout{l: &c}
+}
+
+// BenchmarkMapVsGeneral solves the 200 × 200 map with all losses (50 × 50
+// in -short mode) on GOMAXPROCS workers, with the compiled path and Brief
+// states and with the general path and full states (today's map before the
+// compiled path), in turn in every iteration, and reports how many times
+// faster the first is ("x-faster", best of each over the iterations; on a
+// shared machine other load only adds time) and the time per point of
+// each.
+func BenchmarkMapVsGeneral(b *testing.B) {
+	l := benchLayout(b, true)
+	g := generalOnly(l)
+	n := 200
+	if testing.Short() {
+		n = 50
+	}
+	spec := benchMapSpec(n, 0)
+	bestC, bestG := time.Duration(math.MaxInt64), time.Duration(math.MaxInt64)
+	b.ReportAllocs()
+	for b.Loop() {
+		start := time.Now()
+		if _, err := l.Map(spec); err != nil {
+			b.Fatal(err)
+		}
+		mid := time.Now()
+		if _, err := g.Map(spec); err != nil {
+			b.Fatal(err)
+		}
+		bestC, bestG = min(bestC, mid.Sub(start)), min(bestG, time.Since(mid))
+	}
+	b.ReportMetric(float64(bestG)/float64(bestC), "x-faster")
+	b.ReportMetric(float64(bestC.Nanoseconds())/float64(n*n), "ns/point")
+	b.ReportMetric(float64(bestG.Nanoseconds())/float64(n*n), "ns/point-general")
+}
+
 // BenchmarkMapSpeedup solves the 200 × 200 map (50 × 50 in -short mode)
 // on 1 core (GOMAXPROCS 1, 1 worker) and on 2 (GOMAXPROCS 2, 2 workers) in
 // turn, each loop iteration both, and reports the parallel speed-up

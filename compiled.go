@@ -52,6 +52,7 @@ type compiledState struct {
 	slope    []units.Displacement
 	settings []float64
 	b        []float64   // given torques, in the order of the entries' extSrc
+	v        []float64   // b, then the units' torques
 	guessK   [][]float64 // per range: the directions the last point ended with
 	guessF   [][]int8
 	guessOK  []bool
@@ -71,6 +72,7 @@ func (s *Solver) initCompiled() {
 	c.wms = make([]units.AngularVelocity, nu-1)
 	c.tau, c.slope, c.settings = make([]units.Torque, nu), make([]units.Displacement, nu), make([]float64, nu)
 	c.b = make([]float64, len(l.outputs)+len(l.ptos))
+	c.v = make([]float64, len(c.b)+nu)
 	c.guessK, c.guessF, c.guessOK = make([][]float64, len(l.ranges)), make([][]int8, len(l.ranges)), make([]bool, len(l.ranges))
 	for i := range l.ranges {
 		c.guessK[i], c.guessF[i] = make([]float64, len(l.gears)), make([]int8, len(l.planets))
@@ -82,8 +84,9 @@ func (s *Solver) initCompiled() {
 }
 
 // compiled solves p on the compiled path and reports whether it did; st is
-// then filled and the point is feasible. Otherwise the solver's iteration
-// state is left for the general path to reset.
+// then filled and s.compErr holds the point's error: nil, or the setting
+// limit of a point no setting in range reaches. Otherwise the solver's
+// iteration state is left for the general path to reset.
 func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	c := &s.comp
 	if !c.on || s.general || s.noFactor || s.pinOn[0] {
@@ -147,18 +150,34 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	}
 	// Accepted: the loop state at the final pressure, then the state.
 	s.dp[0] = dp
-	if c.curve.Fill(units.Pressure(dp), c.settings, &s.loopA[0]) != nil {
-		return false
+	if lerr := c.curve.Fill(units.Pressure(dp), c.settings, &s.loopA[0]); lerr != nil {
+		if lerr != hydrostat.ErrSettingLimit {
+			return false
+		}
+		// No setting in range gives the speeds: as the general path ends
+		// (the state filled as far as it goes, the loop's limit).
+		s.fill(st, *p, r, evals, 1)
+		s.compErr = s.loopLimit(el.name, &s.loopA[0].Limit)
+		s.keepGuess(rg)
+		return true
 	}
 	res := s.fill(st, *p, r, evals, 1)
 	if !(res <= balanceTo) || s.hasBad {
 		return false
 	}
+	s.compErr = nil
+	s.keepGuess(rg)
+	return true
+}
+
+// keepGuess keeps the directions of a point solved on the compiled path as
+// the first guess for the next point of range rg.
+func (s *Solver) keepGuess(rg int) {
+	c := &s.comp
 	copy(c.guessK[rg], s.gearK)
 	copy(c.guessF[rg], s.pflow)
 	c.guessOK[rg] = true
 	c.hits++
-	return true
 }
 
 // newton solves F(Δp) = 0 for the directions of e from Δp = 0 and returns
@@ -215,23 +234,21 @@ func (s *Solver) newton(e *sysEntry, p *Point, lim float64, evals *int) (float64
 // portTorques sets every port torque, T = H·b + W·τ, into s.t.
 func (s *Solver) portTorques(e *sysEntry) {
 	c := &s.comp
-	n, np := s.n, s.l.nPorts
-	t := s.t[:np]
-	clear(t)
-	for k := 0; k < e.nExt; k++ {
-		if v := c.b[k]; v != 0 {
-			col := e.h[k*n : k*n+np]
-			for i, h := range col {
-				t[i] += v * h
-			}
-		}
+	v := c.v[:e.nExt+len(c.tau)]
+	copy(v, c.b[:e.nExt])
+	for u, t := range c.tau {
+		v[e.nExt+u] = float64(t)
 	}
-	for u := range c.tau {
-		v := float64(c.tau[u])
-		col := e.w[u*n : u*n+np]
-		for i, w := range col {
-			t[i] += v * w
+	m := len(v)
+	t := s.t[:s.l.nPorts]
+	pt := e.pt[:len(t)*m]
+	for i := range t {
+		row := pt[i*m : (i+1)*m]
+		var sum float64
+		for j, x := range row {
+			sum += x * v[j]
 		}
+		t[i] = sum
 	}
 }
 

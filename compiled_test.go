@@ -120,3 +120,60 @@ func TestCompiledEvals(t *testing.T) {
 	}
 	t.Logf("%d points, %.2f evaluations each", len(pts), float64(tot)/float64(len(pts)))
 }
+
+// TestMapCompiledMatchesGeneral: the benchmark map (a fifth of it beyond
+// the motors' setting range) solved on the compiled path and on the
+// general path: every cell feasible in both or neither, with the same
+// reason, and the same numbers to 1e-12 relative.
+func TestMapCompiledMatchesGeneral(t *testing.T) {
+	l := benchLayout(t, true)
+	n := 60
+	if testing.Short() {
+		n = 24
+	}
+	spec := benchMapSpec(n, 1)
+	mc, err := l.Map(spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	mg, err := generalOnly(l).Map(spec)
+	if err != nil {
+		t.Fatal(err)
+	}
+	bad, ok := 0, 0
+	for i := range mc.Cells {
+		for j := range mc.Cells[i] {
+			a, b := mc.Cells[i][j], mg.Cells[i][j]
+			if a.OK != b.OK || a.Reason() != b.Reason() {
+				t.Fatalf("cell %d,%d: compiled %v %q, general %v %q", i, j, a.OK, a.Reason(), b.OK, b.Reason())
+			}
+			if !a.OK {
+				bad++
+				continue
+			}
+			ok++
+			scale := math.Abs(float64(b.InputPower)) + math.Abs(float64(b.OutputPower))
+			for _, q := range []struct {
+				name string
+				x, y float64
+				s    float64
+			}{
+				{"input torque", float64(a.InputTorque), float64(b.InputTorque), 0},
+				{"input power", float64(a.InputPower), float64(b.InputPower), scale},
+				{"loss", float64(a.Loss), float64(b.Loss), scale},
+				{"efficiency", a.Efficiency, b.Efficiency, 1},
+				{"hydraulic share", a.HydraulicShare, b.HydraulicShare, 1},
+				{"pressure", float64(a.Pressure), float64(b.Pressure), 1e5},
+				{"pump setting", a.PumpSetting, b.PumpSetting, 1},
+				{"motor setting", a.MotorSetting, b.MotorSetting, 1},
+			} {
+				if math.Abs(q.x-q.y) > 1e-12*(math.Abs(q.y)+q.s) {
+					t.Fatalf("cell %d,%d: %s compiled %.17g, general %.17g", i, j, q.name, q.x, q.y)
+				}
+			}
+		}
+	}
+	if bad == 0 || ok == 0 {
+		t.Errorf("%d feasible and %d infeasible cells: the map should have both", ok, bad)
+	}
+}

@@ -73,6 +73,9 @@ type sysEntry struct {
 	h        []float64      // A_ref⁻¹ times the unit vector of each given-torque row
 	a        sparse.Matrix  // A_ref itself, for the residual of the refinement
 	f        sparse.Factors // its factors by rows
+	// pt holds, port by port, the rows of H then W: T_port = H·b + W·τ
+	// (the compiled path, compiled.go), nPorts × (nExt + units).
+	pt []float64
 }
 
 // initCache allocates the cache and the work space of the Woodbury solve.
@@ -105,6 +108,7 @@ func (s *Solver) initCache() {
 		e.extRow, e.extSrc = make([]int, nExt), make([]int, nExt)
 		e.w, e.h = make([]float64, n*nu), make([]float64, n*nExt)
 		e.a, e.f = sparse.NewMatrix(n, n*n), sparse.NewFactors(n)
+		e.pt = make([]float64, l.nPorts*(nExt+nu))
 	}
 }
 
@@ -185,6 +189,15 @@ func (s *Solver) factor(e *sysEntry, r *rangeDef, p *Point) {
 			clear(c)
 			c[e.extRow[k]] = 1
 			e.f.Solve(c)
+		}
+		m := e.nExt + s.nU
+		for i := 0; i < l.nPorts; i++ {
+			for k := 0; k < e.nExt; k++ {
+				e.pt[i*m+k] = e.h[k*n+i]
+			}
+			for u := 0; u < s.nU; u++ {
+				e.pt[i*m+e.nExt+u] = e.w[u*n+i]
+			}
 		}
 		e.ok = true
 		return

@@ -96,6 +96,10 @@ type layout struct {
 	hasCharge bool        // a drag source is a charge pump
 	pins      []pinDef    // motors whose settings the layout sets (second.go)
 	second    *SecondInfo // a builder's second motor
+	// general makes every Solver of this layout solve on the general path
+	// only and sweeps and maps fill full States: the solver as it was
+	// before the compiled path, kept reachable for tests and benchmarks.
+	general bool
 }
 
 // Layout is a validated, immutable transmission layout: shafts, elements and

@@ -70,6 +70,7 @@ type Solver struct {
 	noFactor  bool      // tests: always solve by full LU
 	general   bool      // the general path only (tests and benchmarks: today's path)
 	comp      compiledState
+	compErr   error // the error of the last point solved on the compiled path
 
 	// Drag sources (drag.go): torque per source, the shafts' right-hand
 	// sides −Σ T_d, and the work space of their share of the solution.
@@ -139,6 +140,7 @@ func NewSolver(l Layout) *Solver {
 	s.havePrev, s.prevDp = make([]bool, len(ly.loops)), make([]float64, len(ly.loops))
 	s.initCache()
 	s.initCompiled()
+	s.general = ly.general
 	s.prevT = make([]float64, s.nU)
 	s.initPins()
 	s.initLocked()
@@ -302,7 +304,7 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 	// A range with one loop: the compiled path (compiled.go), which hands
 	// every point it cannot decide to the general iteration below.
 	if s.compiled(r, &p, st) {
-		return nil
+		return s.compErr
 	}
 	s.losslessDirections()
 	clear(s.dp)

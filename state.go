@@ -349,12 +349,13 @@ func (s *Solver) summary(st *State, p Point, r *rangeDef, iters int, torques int
 	// a point where almost no power flows is judged by the rounding of the
 	// powers it could carry.
 	var tmax, wmax float64
-	for i := range l.elems {
-		e := &l.elems[i]
-		for k, sh := range e.shafts {
-			tmax = maxAbs(tmax, s.portTorque(e.port0+k, torques))
-			wmax = maxAbs(wmax, s.w[sh])
+	if torques != 0 {
+		for _, v := range s.t[:l.nPorts] {
+			tmax = maxAbs(tmax, v)
 		}
+	}
+	for _, v := range s.w[:len(l.shafts)] { // every shaft has a port
+		wmax = maxAbs(wmax, v)
 	}
 	scale := math.Abs(pin) + math.Abs(useful) + float64(st.Loss) + 1e-3*tmax*wmax
 	res := pin - useful - float64(st.Loss)
@@ -517,7 +518,7 @@ func (s *Solver) margins(st *State, known bool) {
 			}
 			return // a rating is a flag, not a limit
 		}
-		if r := m.Left().SI / m.Limit.SI; r < room {
+		if r := (m.Limit.SI - m.Value.SI) / m.Limit.SI; r < room { // Left, without its kind check
 			room, st.Binding = r, m
 		}
 		if !s.hasBad && m.Crossed() {
@@ -525,17 +526,17 @@ func (s *Solver) margins(st *State, known bool) {
 		}
 	}
 	if r := &l.ranges[st.Range]; r.maxOut > 0 {
-		add(Margin{Element: r.name, Quantity: "output speed", Value: units.Of(units.AngularVelocity(math.Abs(s.outW[0]))),
-			Bound: boundRangeSpeed, Limit: units.Of(units.AngularVelocity(r.maxOut))})
+		add(Margin{Element: r.name, Quantity: "output speed", Value: measure(math.Abs(s.outW[0]), units.AngularVelocityKind),
+			Bound: boundRangeSpeed, Limit: measure(r.maxOut, units.AngularVelocityKind)})
 	}
 	for j, e := range l.loops {
 		el := &l.elems[e]
 		spec := &el.lspec
 		ls := &st.Loops[j]
 		high := float64(spec.Charge) + math.Abs(float64(ls.Pressure))
-		add(Margin{Element: el.name, Quantity: "high-line pressure", Value: units.Of(units.Pressure(high)),
-			Bound: boundRelief, Limit: units.Of(spec.Relief), Unchecked: spec.Relief <= 0})
-		dp := units.Of(units.Pressure(math.Abs(float64(ls.Pressure))))
+		add(Margin{Element: el.name, Quantity: "high-line pressure", Value: measure(high, units.PressureKind),
+			Bound: boundRelief, Limit: measure(float64(spec.Relief), units.PressureKind), Unchecked: spec.Relief <= 0})
+		dp := measure(math.Abs(float64(ls.Pressure)), units.PressureKind)
 		for k := range el.shafts {
 			pt := &ls.Pump
 			if k > 0 {
@@ -543,16 +544,20 @@ func (s *Solver) margins(st *State, known bool) {
 			}
 			us := &el.uspec[k]
 			add(Margin{Element: el.name, Quantity: el.unames[k][0], Value: dp, Bound: boundRated,
-				Limit: units.Of(us.RatedPressure), Unchecked: us.RatedPressure <= 0})
+				Limit: measure(float64(us.RatedPressure), units.PressureKind), Unchecked: us.RatedPressure <= 0})
 			add(Margin{Element: el.name, Quantity: el.unames[k][0], Value: dp, Bound: boundPeak,
-				Limit: units.Of(us.PeakPressure), Unchecked: us.PeakPressure <= 0})
-			add(Margin{Element: el.name, Quantity: el.unames[k][1], Value: units.Of(units.AngularVelocity(math.Abs(float64(pt.Speed)))),
-				Bound: boundSpeed, Limit: units.Of(us.MaxSpeed), Unchecked: us.MaxSpeed <= 0})
+				Limit: measure(float64(us.PeakPressure), units.PressureKind), Unchecked: us.PeakPressure <= 0})
+			add(Margin{Element: el.name, Quantity: el.unames[k][1], Value: measure(math.Abs(float64(pt.Speed)), units.AngularVelocityKind),
+				Bound: boundSpeed, Limit: measure(float64(us.MaxSpeed), units.AngularVelocityKind), Unchecked: us.MaxSpeed <= 0})
 			add(Margin{Element: el.name, Quantity: el.unames[k][2], Value: units.Plain(math.Abs(pt.Setting)),
 				Bound: boundFull, Limit: units.Plain(1)})
 		}
 	}
 }
+
+// measure is units.Of for a known kind, without its type switch (margins
+// builds several for every point).
+func measure(v float64, k units.Kind) units.Measure { return units.Measure{SI: v, Kind: k} }
 
 // limits returns a *LimitError for the first infeasible margin that
 // margins found.

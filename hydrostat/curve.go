@@ -48,6 +48,7 @@ type Curve struct {
 	ap, bp float64       // pump leakage a + b·|x| per |Δp|
 	am, bm float64       // Σ over the motors
 	tau    []curveTorque // per unit, pump first
+	limit  setLimit      // the setting limit of the last Torques, if hit
 }
 
 // curveTorque is what a Curve knows of a unit's loss torque at its speed.
@@ -139,14 +140,18 @@ func (u *Unit) curveUnit() bool { return u.wil != nil || u.spec.Loss == nil }
 
 // Torques writes the settings the schedule gives at pressure difference dp
 // (settings[0] the pump), the torque each unit's shaft applies to it
-// (torques[0] the pump) and its slope ∂T/∂Δp, and reports false where the
-// schedule leaves its range or fails, or a unit's model does.
+// (torques[0] the pump) and its slope ∂T/∂Δp, and reports false where it
+// cannot decide (see the type) or a unit's model fails. Where no motor
+// setting in range gives continuity it gives, as Loop.At does, the
+// schedule's nearest settings (held: their slopes are zero); Fill then
+// reports the setting limit.
 func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.Torque, slopes []units.Displacement) bool {
 	if !c.ok {
 		return false
 	}
 	l := c.l
 	d := float64(dp)
+	c.limit = setLimit{}
 	xp, sm, ok := c.sequential(d)
 	if !ok {
 		return false
@@ -158,10 +163,13 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 	// The slopes of the settings: the pump swings while the motors are
 	// full, else the motors.
 	var dxp, dsm float64
-	if sm == 1 {
+	switch {
+	case c.limit.hit:
+		// Both settings held at the ends of their ranges.
+	case sm == 1:
 		den := c.pumpQ - c.bp*d*sgn(xp)
 		dxp = (c.ap + c.bp*math.Abs(xp) + c.am + c.bm) / den
-	} else {
+	default:
 		den := c.motorQ + c.bm*d*sgn(sm)
 		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)) / den
 	}
@@ -225,9 +233,32 @@ func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	// zero of the balance (linear in s > 0) between the floor and full.
 	xp = math.Copysign(1, xp)
 	sm = (xp*q - sig*(ap+bp) - sig*am) / (c.motorQ + sig*bm)
-	if !(sm >= c.smin && sm <= 1) {
-		return 0, 0, false // no motor setting in range: a setting limit
+	if sm >= c.smin && sm <= 1 {
+		return xp, sm, true
 	}
+	// No motor setting in range: the schedule's nearest end and the setting
+	// it would need (sequentialBoth), a setting limit.
+	lin := linLoop{sigma: sig, pumpQ: q, ap: ap, bp: bp, motorQ: c.motorQ, am: am, bm: bm}
+	ha, hb := lin.residual(xp, c.smin), lin.residual(xp, 1)
+	if (ha > 0) != (hb > 0) || ha == 0 || hb == 0 || !(math.Abs(hb-ha) > 1e-6*math.Max(math.Abs(ha), math.Abs(hb))) {
+		// Rounding at an end of the range, or motors so near standstill
+		// that the setting needed is lost in rounding: the schedule's to
+		// decide.
+		return 0, 0, false
+	}
+	sm = c.smin
+	if math.Abs(hb) < math.Abs(ha) {
+		sm = 1
+	}
+	need := c.smin - ha*(1-c.smin)/(hb-ha)
+	lim := c.smin
+	if need > 1 {
+		lim = 1
+	}
+	if !finite(need) {
+		return 0, 0, false
+	}
+	c.limit = setLimit{hit: true, need: need, lim: lim}
 	return xp, sm, true
 }
 
@@ -240,10 +271,15 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 	st.size(len(l.spec.Motors))
 	st.Limit = LimitError{}
 	copy(st.Settings, settings)
+	if c.limit.hit {
+		st.Limit = c.limit.value()
+	}
 	if err := l.fill(units.AngularVelocity(c.wp), c.wms, dp, st); err != nil {
 		return err
 	}
-	l.crossed(st)
+	if st.Limit.Err == nil {
+		l.crossed(st)
+	}
 	return st.Limit.Err
 }
 
