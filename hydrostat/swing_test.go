@@ -5,6 +5,7 @@ import (
 	"math"
 	"testing"
 
+	"github.com/powersplit-dev/powersplit/internal/testutil"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -199,4 +200,34 @@ func TestOverCentreAllocations(t *testing.T) {
 			t.Errorf("%s allocates %v times", name, n)
 		}
 	}
+}
+
+// TestMinLossOverCentreMirror: with the pump turning backwards an
+// over-centre motor runs on the negative side; the state is the mirror of
+// the forward one (pump speed, motor setting and pressure negated), so
+// MinLoss must choose the mirrored setting.
+func TestMinLossOverCentreMirror(t *testing.T) {
+	t.Parallel()
+	// Invented demo coefficients that make smaller settings pay at light
+	// load (as in TestMinLossSchedule).
+	w := Wilson{Slip: 5e-9, Viscous: 8e4, Friction: 0.02, ConstantPressure: units.Bar(3), Hydrodynamic: 30, LeakageSetting: 1, TorqueSetting: 1}
+	l := swingLoop(t, SwingUnstated, SwingOverCentre, w, MinLoss{})
+	wm := []units.AngularVelocity{units.RPM(600)}
+	var fwd, rev LoopState
+	if err := l.At(units.RPM(2000), wm, units.Bar(150), &fwd); err != nil {
+		t.Fatal(err)
+	}
+	if err := l.At(units.RPM(-2000), wm, units.Bar(-150), &rev); err != nil {
+		t.Fatal(err)
+	}
+	if !(fwd.Settings[1] > 0.2 && fwd.Settings[1] < 0.999) {
+		t.Fatalf("forward MinLoss motor setting %v: the case should move it off full", fwd.Settings[1])
+	}
+	if !testutil.Close(rev.Settings[1], -fwd.Settings[1], 1e-6, 0) || !testutil.Close(rev.Settings[0], fwd.Settings[0], 1e-6, 0) {
+		t.Errorf("reverse settings %v, want the mirror of %v", rev.Settings, fwd.Settings)
+	}
+	if !testutil.Close(float64(rev.Loss), float64(fwd.Loss), 1e-6, 0) {
+		t.Errorf("reverse loss %v, forward %v", rev.Loss, fwd.Loss)
+	}
+	checkLoopState(t, &rev)
 }
