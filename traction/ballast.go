@@ -2,6 +2,7 @@ package traction
 
 import (
 	"math"
+	"strconv"
 
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -81,13 +82,30 @@ type BallastAdvice struct {
 	// FrontOverloaded and RearOverloaded flag a wheel load above its
 	// tyre's rated load (static or dynamic); the advice is then unsafe.
 	FrontOverloaded, RearOverloaded bool
+	// PullMass is the operating mass the pull alone asks for; Mass differs
+	// from it when a bound holds it back, and Bound then names that bound
+	// ("fitted ballast", "permissible operating mass", "front tyre rated
+	// load", "rear axle permissible load", ...); "" when none does. With
+	// an upper bound holding, the target pull is not reached at the target
+	// slip.
+	PullMass units.Mass
+	Bound    string
+	// Respects lists the limits the advice keeps to, with their values;
+	// NotChecked the ones the vehicle does not give, which the advice
+	// therefore cannot respect.
+	Respects, NotChecked []string
 	// Caution is BallastCaution.
 	Caution string
 }
 
 // Ballast returns the operating mass, with the recommended static weight
 // split for the drive and hitch type, at which the vehicle gives the
-// operation's drawbar pull at the target slip (both axles of a
+// operation's drawbar pull at the target slip, kept within the bounds the
+// vehicle gives: no more ballast removed than is fitted (Vehicle.FittedBallast),
+// no more mass than permitted (Vehicle.MaxMass), and no axle loaded above
+// its permissible load (Axle.MaxLoad) or its tyres' rated load
+// (Tyre.RatedLoad), at rest or under the pull; BallastAdvice.Bound says
+// which bound held, Respects lists them and NotChecked those not given (both axles of a
 // four-wheel-drive or front-assist vehicle at the same slip, the front of
 // a rear-wheel-drive one rolling free at zero torque). The mass is found by
 // Brent's method; a pull beyond what any mass gives is a *PullError.
@@ -163,6 +181,20 @@ func (v Vehicle) Ballast(m Model, s Surface, op Operation, d DriveType, h HitchT
 			return BallastAdvice{}, ErrNoConvergence
 		}
 	}
+	pullMass := mass
+	b := v.ballastBounds(trial, op)
+	bound := ""
+	switch {
+	case mass < b.low:
+		mass, bound = b.low, b.lowName
+	case mass > b.high:
+		mass, bound = b.high, b.highName
+	}
+	if b.low > b.high {
+		// The bounds contradict each other: even with all ballast off a
+		// limit is crossed; keep the ballast on and say so.
+		mass, bound = b.low, b.lowName+" (and above the "+b.highName+")"
+	}
 	t := trial
 	t.Mass = units.Mass(mass)
 	st, err := t.StaticLoads()
@@ -184,10 +216,93 @@ func (v Vehicle) Ballast(m Model, s Surface, op Operation, d DriveType, h HitchT
 		Static:       st,
 		Dynamic:      dy,
 		Caution:      BallastCaution,
+		PullMass:     units.Mass(pullMass),
+		Bound:        bound,
+		Respects:     b.respects,
+		NotChecked:   b.notChecked,
 	}
 	a.FrontOverloaded = v.Front.Tyre.Overloaded(units.Force(float64(st.Front)/nf)) ||
 		v.Front.Tyre.Overloaded(units.Force(float64(dy.Front)/nf))
 	a.RearOverloaded = v.Rear.Tyre.Overloaded(units.Force(float64(st.Rear)/nr)) ||
 		v.Rear.Tyre.Overloaded(units.Force(float64(dy.Rear)/nr))
 	return a, nil
+}
+
+// bounds are the least and greatest operating mass a ballast advice may
+// give, with the names of the limits that set them.
+type bounds struct {
+	low, high            float64
+	lowName, highName    string
+	respects, notChecked []string
+}
+
+// ballastBounds returns the bounds on the operating mass of trial (v with
+// the recommended split) that its fitted ballast, permissible mass, axle
+// and tyre ratings set, for the loads at rest and under the pull of the
+// operation. The axle loads are linear in the mass at a fixed split.
+func (v Vehicle) ballastBounds(trial Vehicle, op Operation) bounds {
+	m0 := float64(v.Mass)
+	b := bounds{low: m0 - float64(v.FittedBallast), high: math.Inf(1), lowName: "fitted ballast"}
+	kg := func(m float64) string { return strconv.FormatFloat(m, 'f', 0, 64) + " kg" }
+	if v.FittedBallast > 0 {
+		b.respects = append(b.respects, "fitted ballast "+kg(float64(v.FittedBallast))+" (no more can be removed)")
+	} else {
+		b.respects = append(b.respects, "no ballast fitted (none can be removed)")
+	}
+	if v.MaxMass > 0 {
+		b.high, b.highName = float64(v.MaxMass), "permissible operating mass"
+		b.respects = append(b.respects, "permissible operating mass "+kg(float64(v.MaxMass)))
+	} else {
+		b.notChecked = append(b.notChecked, "permissible operating mass")
+	}
+	// The axle loads at rest and under the pull, each linear in the mass,
+	// taken at two masses; the larger of the two counts for each axle (the
+	// pull unloads the front and loads the rear). A mass at which the front
+	// would lift gives no load here: the advice search has excluded it.
+	loads := func(m float64) (st, dy AxleLoads, ok bool) {
+		t := trial
+		t.Mass = units.Mass(m)
+		st, err1 := t.StaticLoads()
+		dy, err2 := t.DynamicLoads(op.Pull, op.Implement)
+		return st, dy, err1 == nil && err2 == nil
+	}
+	s1, d1, ok1 := loads(m0)
+	s2, d2, ok2 := loads(2 * m0)
+	if !ok1 || !ok2 {
+		return b
+	}
+	type line struct{ f1, f2 float64 }
+	for _, ax := range []struct {
+		name  string
+		axle  Axle
+		lines [2]line
+	}{
+		{"front", v.Front, [2]line{{float64(s1.Front), float64(s2.Front)}, {float64(d1.Front), float64(d2.Front)}}},
+		{"rear", v.Rear, [2]line{{float64(s1.Rear), float64(s2.Rear)}, {float64(d1.Rear), float64(d2.Rear)}}},
+	} {
+		limits := []struct {
+			what  string
+			limit float64
+		}{
+			{ax.name + " axle permissible load", float64(ax.axle.MaxLoad)},
+			{ax.name + " tyre rated load", float64(ax.axle.Tyre.RatedLoad) * float64(ax.axle.Wheels)},
+		}
+		for _, lim := range limits {
+			if !(lim.limit > 0) {
+				b.notChecked = append(b.notChecked, lim.what)
+				continue
+			}
+			b.respects = append(b.respects, lim.what+" "+units.Force(lim.limit).String())
+			for _, ln := range ax.lines {
+				slope := (ln.f2 - ln.f1) / m0
+				if !(slope > 0) {
+					continue
+				}
+				if m := m0 + (lim.limit-ln.f1)/slope; m < b.high {
+					b.high, b.highName = m, lim.what
+				}
+			}
+		}
+	}
+	return b
 }

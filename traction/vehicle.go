@@ -8,6 +8,9 @@ type Axle struct {
 	Tyre   Tyre
 	Wheels int          // wheels on the axle: 2 for singles, 4 for duals; >= 1
 	Track  units.Length // track width, centre to centre of the wheels; needed only for turning, else >= 0
+	// MaxLoad is the axle's permissible load (the vehicle maker's rating);
+	// zero means not given. Ballast advice keeps within it.
+	MaxLoad units.Force
 }
 
 func (a Axle) validate(name string) error {
@@ -19,6 +22,9 @@ func (a Axle) validate(name string) error {
 	}
 	if t := float64(a.Track); !finite(t) || t < 0 {
 		return rangeErr(ErrInput, name+" axle track", t, ">= 0 and finite")
+	}
+	if l := float64(a.MaxLoad); !finite(l) || l < 0 {
+		return rangeErr(ErrInput, name+" axle permissible load", l, ">= 0 and finite (0: not given)")
 	}
 	return nil
 }
@@ -39,6 +45,11 @@ type Vehicle struct {
 	CentreOfMass units.Length
 	Hitch        Hitch
 	Front, Rear  Axle
+	// FittedBallast is the ballast fitted, part of Mass; MaxMass the
+	// permissible operating mass. Zero means none fitted and not given.
+	// Ballast advice never removes more than FittedBallast and never
+	// exceeds MaxMass.
+	FittedBallast, MaxMass units.Mass
 }
 
 // Validate reports whether v is usable.
@@ -55,6 +66,10 @@ func (v Vehicle) Validate() error {
 		return rangeErr(ErrInput, "hitch height", float64(v.Hitch.Height), ">= 0 and finite")
 	case !finite(float64(v.Hitch.Behind)) || v.Hitch.Behind < 0:
 		return rangeErr(ErrInput, "hitch distance behind rear axle", float64(v.Hitch.Behind), ">= 0 and finite")
+	case !finite(float64(v.FittedBallast)) || v.FittedBallast < 0 || v.FittedBallast >= v.Mass:
+		return rangeErr(ErrInput, "fitted ballast", float64(v.FittedBallast), ">= 0 and below the vehicle mass")
+	case !finite(float64(v.MaxMass)) || v.MaxMass < 0:
+		return rangeErr(ErrInput, "permissible operating mass", float64(v.MaxMass), ">= 0 and finite (0: not given)")
 	}
 	if err := v.Front.validate("front"); err != nil {
 		return err

@@ -3,6 +3,7 @@ package traction_test
 import (
 	"errors"
 	"math"
+	"slices"
 	"strings"
 	"testing"
 
@@ -124,9 +125,10 @@ func TestBallast(t *testing.T) {
 	if a.FrontShare != 0.35 || !strings.Contains(a.Caution, "road rules") {
 		t.Errorf("front share %g, caution %q", a.FrontShare, a.Caution)
 	}
-	// At the advised mass, the vehicle at equal slips gives the pull.
+	// At the mass the pull asks for, the vehicle at equal slips gives the
+	// pull (the advised Mass is bounded by the fitted ballast, none here).
 	w := v
-	w.Mass = a.Mass
+	w.Mass = a.PullMass
 	w.CentreOfMass = units.Length(a.FrontShare * float64(v.Wheelbase))
 	d, err := w.FixedRatio(traction.Brixius{}, traction.FirmSoil(), firmOp, 0)
 	if err != nil {
@@ -218,7 +220,7 @@ func TestFreeRollingAndRearDriveBallast(t *testing.T) {
 		t.Fatal(err)
 	}
 	wv := v
-	wv.Mass = a.Mass
+	wv.Mass = a.PullMass
 	wv.CentreOfMass = units.Length(a.FrontShare * float64(v.Wheelbase))
 	d, err := wv.RearDrive(traction.Brixius{}, traction.FirmSoil(), firmOp)
 	if err != nil {
@@ -226,5 +228,70 @@ func TestFreeRollingAndRearDriveBallast(t *testing.T) {
 	}
 	if math.Abs(d.Rear.Wheel.Slip-0.12) > 1e-6 {
 		t.Errorf("rear-drive slip at advised mass = %.6f, want 0.12", d.Rear.Wheel.Slip)
+	}
+}
+
+// TestBallastBounded: ballast advice never removes more than the fitted
+// ballast and keeps within the permissible mass and the axle and tyre
+// ratings, says which bound held and lists what it respects. Before, it
+// could tell the user to remove more ballast than was fitted.
+func TestBallastBounded(t *testing.T) {
+	t.Parallel()
+	v := demoVehicle() // 9000 kg; the pull of firmOp at 10 % slip asks for less
+	free, err := v.Ballast(traction.Brixius{}, traction.FirmSoil(), firmOp, traction.FrontWheelAssist, traction.Towed, 0.10)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !(free.PullMass < v.Mass) {
+		t.Fatalf("the test needs a pull that asks for less than the vehicle mass: %v", free.PullMass)
+	}
+	v.FittedBallast = units.Kilograms(300)
+	a, err := v.Ballast(traction.Brixius{}, traction.FirmSoil(), firmOp, traction.FrontWheelAssist, traction.Towed, 0.10)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Hand calculation: at most the 300 kg fitted come off.
+	if a.Ballast != -v.FittedBallast || a.Mass != v.Mass-v.FittedBallast || a.Bound != "fitted ballast" {
+		t.Errorf("fitted 300 kg: ballast %v, mass %v, bound %q; want −300 kg, 8700 kg, fitted ballast", a.Ballast, a.Mass, a.Bound)
+	}
+	if len(a.Respects) == 0 || !strings.HasPrefix(a.Respects[0], "fitted ballast 300 kg") {
+		t.Errorf("Respects = %q", a.Respects)
+	}
+	// A heavy pull asks for more mass than the permissible mass and the
+	// rear tyres' rating allow.
+	heavy := traction.Operation{Pull: units.Kilonewtons(60), Speed: firmOp.Speed}
+	// With the rear tyres' rating even the lightest mass overloads them
+	// under this pull: the advice keeps the ballast on and says so.
+	c, err := v.Ballast(traction.Brixius{}, traction.FirmSoil(), heavy, traction.FrontWheelAssist, traction.Towed, 0.10)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if c.Mass != v.Mass-v.FittedBallast || c.Bound != "fitted ballast (and above the rear tyre rated load)" || !c.RearOverloaded {
+		t.Errorf("contradicting bounds: mass %v, bound %q, rear overloaded %v", c.Mass, c.Bound, c.RearOverloaded)
+	}
+	v.Front.Tyre.RatedLoad, v.Rear.Tyre.RatedLoad = 0, 0
+	v.MaxMass = units.Kilograms(10000)
+	h, err := v.Ballast(traction.Brixius{}, traction.FirmSoil(), heavy, traction.FrontWheelAssist, traction.Towed, 0.10)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !(h.PullMass > v.MaxMass) || h.Mass != v.MaxMass || h.Bound != "permissible operating mass" {
+		t.Errorf("heavy pull: pull mass %v, mass %v, bound %q; want the permissible 10000 kg", h.PullMass, h.Mass, h.Bound)
+	}
+	v.MaxMass = 0
+	v.Rear.MaxLoad = units.Kilonewtons(75)
+	r, err := v.Ballast(traction.Brixius{}, traction.FirmSoil(), heavy, traction.FrontWheelAssist, traction.Towed, 0.10)
+	if err != nil {
+		t.Fatal(err)
+	}
+	// Hand calculation: under the pull the rear load is
+	// (1 − 0.35)·m·gₙ + P·h/L, which reaches 75 kN at
+	// m = (75000 − 60000·0.5/2.8)/(0.65·9.80665) = 10085.4 kg.
+	want := (75000 - 60000*0.5/2.8) / (0.65 * 9.80665)
+	if r.Bound != "rear axle permissible load" || math.Abs(float64(r.Mass)-want) > 1e-6*want {
+		t.Errorf("rear axle limit: mass %v, bound %q; want %.1f kg", r.Mass, r.Bound, want)
+	}
+	if !slices.Contains(r.NotChecked, "permissible operating mass") || !slices.Contains(r.NotChecked, "rear tyre rated load") {
+		t.Errorf("NotChecked = %q, want the permissible mass listed", r.NotChecked)
 	}
 }

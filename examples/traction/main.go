@@ -17,6 +17,7 @@ import (
 	"os"
 	"path/filepath"
 	"strconv"
+	"strings"
 
 	"github.com/powersplit-dev/powersplit/examples/internal/demo"
 	"github.com/powersplit-dev/powersplit/examples/internal/figures"
@@ -185,7 +186,7 @@ func run(r *demo.Run) error {
 		tb.Row("front tyres above rating", strconv.FormatBool(adv.FrontOverloaded))
 		tb.Row("rear tyres above rating", strconv.FormatBool(adv.RearOverloaded))
 		tb.Write(r.W)
-		r.Note(ballastVerdict(sc.Tractor.Mass, sc.Tractor.Ballast, sc.Tractor.MaxMass, adv))
+		r.Note(ballastVerdict(sc.Tractor.Ballast, adv))
 		r.Note("Caution: " + adv.Caution)
 	}
 
@@ -304,20 +305,26 @@ func short(err error) string {
 // ballastVerdict says whether the advice can be followed: never removing
 // more than the fitted ballast, never beyond the permissible mass or a
 // tyre's rated load.
-func ballastVerdict(mass, fitted, maxMass units.Mass, adv traction.BallastAdvice) string {
+func ballastVerdict(fitted units.Mass, adv traction.BallastAdvice) string {
 	kg := func(m units.Mass) string { return demo.F(m.Kilograms(), 0, "kg") }
+	var v string
 	switch {
 	case adv.FrontOverloaded || adv.RearOverloaded:
-		return "Not permissible: the advised mass loads a tyre beyond its rating. Pull less (a narrower implement) or accept more slip."
-	case maxMass > 0 && adv.Mass > maxMass:
-		return "Not permissible: the advised " + kg(adv.Mass) + " exceeds the permissible operating mass of " + kg(maxMass) +
-			". Ballast up to " + kg(maxMass-mass) + " at most, and pull less or accept more slip."
-	case adv.Ballast < 0 && -adv.Ballast > fitted:
-		return "The tractor is heavier than the pull needs even without its " + kg(fitted) + " of fitted ballast: remove it all; the rest is the tractor's own mass."
+		v = "Not permissible: the advised mass loads a tyre beyond its rating. Pull less (a narrower implement) or accept more slip."
+	case adv.Bound == "fitted ballast":
+		v = "The tractor is heavier than the pull needs (" + kg(adv.PullMass) + ") even without its " + kg(fitted) +
+			" of fitted ballast: remove it all; the rest is the tractor's own mass."
+	case adv.Bound != "":
+		v = "Held at " + kg(adv.Mass) + " by the " + adv.Bound + ": the pull asks for " + kg(adv.PullMass) +
+			", so the target slip is not reached. Pull less or accept more slip."
 	case adv.Ballast < 0:
-		return "Remove " + kg(-adv.Ballast) + " of the " + kg(fitted) + " of fitted ballast for this pull."
-	case maxMass > 0:
-		return "Within limits: " + kg(mass+adv.Ballast) + " against the permissible " + kg(maxMass) + ", tyres within their ratings."
+		v = "Remove " + kg(-adv.Ballast) + " of the " + kg(fitted) + " of fitted ballast for this pull."
+	default:
+		v = "Add " + kg(adv.Ballast) + " for this pull."
 	}
-	return "Within the tyres' ratings; no permissible operating mass is given in the design file, so that limit is unchecked."
+	v += " The advice keeps to: " + strings.Join(adv.Respects, ", ") + "."
+	if len(adv.NotChecked) > 0 {
+		v += " Not checked (not in the design file): " + strings.Join(adv.NotChecked, ", ") + "."
+	}
+	return v
 }

@@ -383,6 +383,7 @@ func (s *File) TractionVehicle() traction.Vehicle {
 			RollingRadius: y.RollingRadius, Deflection: y.Deflection, RatedLoad: y.RatedLoad}
 	}
 	return traction.Vehicle{Mass: t.Mass, Wheelbase: t.Wheelbase, CentreOfMass: t.CentreOfMass,
+		FittedBallast: t.Ballast, MaxMass: t.MaxMass,
 		Hitch: traction.Hitch{Height: t.HitchHeight, Behind: t.HitchBehind},
 		Front: traction.Axle{Tyre: tyre(t.Front.Tyre), Wheels: t.Front.Wheels, Track: t.Front.Track},
 		Rear:  traction.Axle{Tyre: tyre(t.Rear.Tyre), Wheels: t.Rear.Wheels, Track: t.Rear.Track}}
