@@ -318,9 +318,9 @@ func ballastVerdict(fitted units.Mass, adv traction.BallastAdvice) string {
 		v = "Held at " + kg(adv.Mass) + " by the " + adv.Bound + ": the pull asks for " + kg(adv.PullMass) +
 			", so the target slip is not reached. Pull less or accept more slip."
 	case adv.Ballast < 0:
-		v = "Remove " + kg(-adv.Ballast) + " of the " + kg(fitted) + " of fitted ballast for this pull."
+		v = "Within limits: remove " + kg(-adv.Ballast) + " of the " + kg(fitted) + " of fitted ballast for this pull."
 	default:
-		v = "Add " + kg(adv.Ballast) + " for this pull."
+		v = "Within limits: add " + kg(adv.Ballast) + " for this pull."
 	}
 	v += " The advice keeps to: " + strings.Join(adv.Respects, ", ") + "."
 	if len(adv.NotChecked) > 0 {
