@@ -10,6 +10,7 @@ import (
 	"reflect"
 	"strconv"
 	"strings"
+	"sync"
 )
 
 // leaf is where a value sits in the file and how it was written.
@@ -124,15 +125,7 @@ func (s *scanner) value(t reflect.Type, path string) error {
 		if tok != json.Delim('{') {
 			return s.fail(line, path, text, ErrType, "want an object")
 		}
-		fields := map[string]reflect.Type{}
-		for i := range t.NumField() {
-			f := t.Field(i)
-			name, _, _ := strings.Cut(f.Tag.Get("json"), ",")
-			if !f.IsExported() || name == "-" || name == "" {
-				continue
-			}
-			fields[name] = f.Type
-		}
+		fields := fieldsOf(t)
 		return s.object(path, func(key string, keyLine int, p string) error {
 			ft, ok := fields[key]
 			if !ok {
@@ -184,6 +177,27 @@ func (s *scanner) value(t reflect.Type, path string) error {
 		panic("design: scanner meets a field of kind " + t.Kind().String())
 	}
 	return nil
+}
+
+// structFields caches each struct type's JSON keys and field types.
+var structFields sync.Map // reflect.Type → map[string]reflect.Type
+
+// fieldsOf returns the JSON keys of struct type t and their types.
+func fieldsOf(t reflect.Type) map[string]reflect.Type {
+	if m, ok := structFields.Load(t); ok {
+		return m.(map[string]reflect.Type)
+	}
+	fields := map[string]reflect.Type{}
+	for i := range t.NumField() {
+		f := t.Field(i)
+		name, _, _ := strings.Cut(f.Tag.Get("json"), ",")
+		if !f.IsExported() || name == "-" || name == "" {
+			continue
+		}
+		fields[name] = f.Type
+	}
+	structFields.Store(t, fields)
+	return fields
 }
 
 // object reads the keys of an object whose '{' has been read, refusing
