@@ -8,6 +8,7 @@ import (
 
 	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/internal/numeric"
+	"github.com/powersplit-dev/powersplit/internal/solvepath"
 	"github.com/powersplit-dev/powersplit/internal/sparse"
 	"github.com/powersplit-dev/powersplit/planetary"
 	"github.com/powersplit-dev/powersplit/units"
@@ -140,7 +141,7 @@ func NewSolver(l Layout) *Solver {
 	s.havePrev, s.prevDp = make([]bool, len(ly.loops)), make([]float64, len(ly.loops))
 	s.initCache()
 	s.initCompiled()
-	s.general = ly.general
+	s.general = ly.general || solvepath.General.Load()
 	s.prevT = make([]float64, s.nU)
 	s.initPins()
 	s.initLocked()

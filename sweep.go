@@ -161,7 +161,7 @@ func (l Layout) run(n, cols, workers int, progress func(int, int), p Point, f jo
 	for range workers {
 		wg.Go(func() {
 			s := NewSolver(l)
-			st := State{Brief: !l.l.general} // a cell needs the summary only
+			st := State{Brief: !s.general} // a cell needs the summary only
 			q := p
 			q.Outputs = append([]OutputDemand(nil), p.Outputs...)
 			for {

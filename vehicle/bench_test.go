@@ -3,6 +3,7 @@ package vehicle_test
 import (
 	"testing"
 
+	"github.com/powersplit-dev/powersplit/internal/solvepath"
 	"github.com/powersplit-dev/powersplit/units"
 	"github.com/powersplit-dev/powersplit/vehicle"
 )
@@ -76,18 +77,31 @@ func benchDay(b *testing.B, v *vehicle.Vehicle) {
 // solved point by point by the root package's solver (an output-coupled
 // split through LayoutDrive) with the least-fuel strategy, which solves
 // the split at many engine speeds per step.
+//
+// "general" is the same day with the layout solved on the general path
+// only (the solver before its compiled path), for the comparison.
 func BenchmarkDemoDayLayout(b *testing.B) {
-	drive, err := vehicle.FromLayout(demoLayout(b))
-	if err != nil {
-		b.Fatal(err)
+	for _, general := range []bool{false, true} {
+		name := "compiled"
+		if general {
+			name = "general"
+		}
+		b.Run(name, func(b *testing.B) {
+			solvepath.General.Store(general)
+			defer solvepath.General.Store(false)
+			drive, err := vehicle.FromLayout(demoLayout(b))
+			if err != nil {
+				b.Fatal(err)
+			}
+			v, err := vehicle.New(vehicle.Spec{Mass: units.Tonnes(9), Tyres: demoTyres(0.03), Transmission: drive,
+				FinalDrive: 20, Engine: demoEngine(b, true),
+				PTO: vehicle.PTO{Ratios: []float64{3.5, 1.9}, MaxPower: units.Kilowatts(130)}})
+			if err != nil {
+				b.Fatal(err)
+			}
+			benchDay(b, v)
+		})
 	}
-	v, err := vehicle.New(vehicle.Spec{Mass: units.Tonnes(9), Tyres: demoTyres(0.03), Transmission: drive,
-		FinalDrive: 20, Engine: demoEngine(b, true),
-		PTO: vehicle.PTO{Ratios: []float64{3.5, 1.9}, MaxPower: units.Kilowatts(130)}})
-	if err != nil {
-		b.Fatal(err)
-	}
-	benchDay(b, v)
 }
 
 // TestLayoutDriveAllocatesNothing: the adapter reuses its State, so an

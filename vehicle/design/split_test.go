@@ -11,6 +11,7 @@ import (
 	"pgregory.net/rapid"
 
 	"github.com/powersplit-dev/powersplit"
+	"github.com/powersplit-dev/powersplit/internal/solvepath"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -157,17 +158,30 @@ func TestSplitSearchDeterministic(t *testing.T) {
 
 // BenchmarkCandidate measures candidate evaluations per second of the
 // three-range split problem (requirements check and duty spectrum).
+//
+// "general" evaluates the same candidates with the layouts solved on the
+// general path only (the solver before its compiled path).
 func BenchmarkCandidate(b *testing.B) {
-	f := demoFile(b)
-	p, err := f.SplitProblem(demoSpace(), nil)
-	if err != nil {
-		b.Fatal(err)
+	for _, general := range []bool{false, true} {
+		name := "compiled"
+		if general {
+			name = "general"
+		}
+		b.Run(name, func(b *testing.B) {
+			solvepath.General.Store(general)
+			defer solvepath.General.Store(false)
+			f := demoFile(b)
+			p, err := f.SplitProblem(demoSpace(), nil)
+			if err != nil {
+				b.Fatal(err)
+			}
+			b.ReportAllocs()
+			i := 0
+			for b.Loop() {
+				p.Evaluate(Candidate(p.Space, 1, i))
+				i++
+			}
+			b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "candidates/s")
+		})
 	}
-	b.ReportAllocs()
-	i := 0
-	for b.Loop() {
-		p.Evaluate(Candidate(p.Space, 1, i))
-		i++
-	}
-	b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "candidates/s")
 }
