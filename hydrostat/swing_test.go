@@ -32,17 +32,27 @@ func TestOverCentreLossless(t *testing.T) {
 	t.Parallel()
 	for _, sched := range []Schedule{Sequential{}, MinLoss{}} {
 		l := swingLoop(t, SwingOverCentre, SwingOverCentre, nil, sched)
-		wm := units.RPM(1500)
 		dp, dm := 90.0, 110.0
-		for rpm := -3000.0; rpm <= 3000; rpm += 125 {
+		// The pump speed through zero at a fixed motor speed, then the motor
+		// speed through zero (the pump through zero) at a fixed pump speed.
+		type pt struct{ rpm, wmRPM float64 }
+		var pts []pt
+		for v := -3000.0; v <= 3000; v += 125 {
+			pts = append(pts, pt{v, 1500}, pt{1800, v})
+		}
+		for _, q := range pts {
+			rpm, wm := q.rpm, units.RPM(q.wmRPM)
 			var st LoopState
 			if err := l.At(units.RPM(rpm), []units.AngularVelocity{wm}, units.Bar(200), &st); err != nil {
-				t.Fatalf("%T at pump %v rpm: %v", sched, rpm, err)
+				t.Fatalf("%T at pump %v rpm, motor %v: %v", sched, rpm, wm, err)
 			}
 			checkLoopState(t, &st)
 			// Hand calculation: x_p·D_p·ω_p = x_m·D_m·ω_m with
 			// (x_p, x_m) = k·(D_m·ω_m, D_p·ω_p), k > 0, max |x| = 1.
 			mq, pq := dm*wm.RPM(), dp*rpm
+			if mq == 0 {
+				continue // motor at rest: the pump passes only leakage (none here)
+			}
 			k := 1 / math.Max(math.Abs(mq), math.Abs(pq))
 			if got, want := st.Settings[0], k*mq; math.Abs(got-want) > 1e-12 {
 				t.Errorf("%T pump %v rpm: pump setting %v, want %v", sched, rpm, got, want)
