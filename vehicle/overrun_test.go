@@ -4,6 +4,7 @@ import (
 	"math"
 	"testing"
 
+	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/units"
 	"github.com/powersplit-dev/powersplit/vehicle"
 )
@@ -86,5 +87,48 @@ func TestOverrunEngineBraking(t *testing.T) {
 		} else if f.Brake != 0 || -float64(p.EngineTorque) > tm*(1+1e-9) {
 			t.Errorf("grade %g: brake %v with engine torque %v (motoring %.2f)", c.grade, f.Brake, p.EngineTorque, tm)
 		}
+	}
+}
+
+// The idle drag of an unloaded PTO driveline against a hand calculation:
+// 6 oil films of 60–85 mm radius at 0.25 mm in oil of 20 cSt and
+// 860 kg/m³ (μ = 0.0172 Pa·s), slipping at the engine speed 1800 rpm
+// (188.50 rad/s): T = 6·π·0.0172·188.50·(0.085⁴ − 0.060⁴)/(2·0.25e-3)
+// = 4.796 N·m, plus two bearings of dm 70 mm, f0 2 at ν·n = 36000:
+// 2·1e-7·2·36000^(2/3)·70³ N·mm = 0.1496 N·m; P = 4.946·188.50 = 932.3 W.
+// Hand calculation from the published formulas of the root package.
+func TestPTOIdleDrag(t *testing.T) {
+	t.Parallel()
+	idle := &vehicle.PTOIdle{
+		Plates:    powersplit.Plates{Films: 6, Inner: units.Millimetres(60), Outer: units.Millimetres(85), Clearance: units.Millimetres(0.25)},
+		Bearings:  powersplit.Bearings{MeanDiameter: units.Millimetres(70), F0: 2, Count: 2},
+		Lubricant: powersplit.Lubricant{Viscosity: units.Centistokes(20), Density: 860},
+	}
+	w := units.RPM(1800)
+	ws := float64(w)
+	plates := 6 * math.Pi * 20e-6 * 860 * ws * (math.Pow(0.085, 4) - math.Pow(0.060, 4)) / (2 * 0.25e-3)
+	bearings := 2 * 1e-7 * 2 * math.Pow(20*1800, 2.0/3) * 70 * 70 * 70 * 1e-3
+	want := (plates + bearings) * ws
+	if got := float64(idle.Power(w)); math.Abs(got-want) > 1e-9*want || math.Abs(got-932.3) > 0.5 {
+		t.Errorf("idle PTO drag %.3f W, want %.3f (≈932.3)", got, want)
+	}
+	v, err := vehicle.New(vehicle.Spec{Mass: units.Tonnes(9), Tyres: demoTyres(0.02), Transmission: demoTransmission(), FinalDrive: 20,
+		Engine: demoEngine(t, true), PTO: vehicle.PTO{Ratios: []float64{3.5, 1.9}, Idle: idle}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	p, err := v.At(vehicle.Demand{Speed: units.KMH(8)}, w, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(float64(p.Flows.PTOLoss)-want) > 1e-9*want {
+		t.Errorf("unloaded PTO loss %v, want %.3f W", p.Flows.PTOLoss, want)
+	}
+	p, err = v.At(vehicle.Demand{Speed: units.KMH(8), PTOPower: units.Kilowatts(40)}, w, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := 40e3 * (1/vehicle.DefaultPTOEfficiency - 1); math.Abs(float64(p.Flows.PTOLoss)-want) > 1e-9*want {
+		t.Errorf("loaded PTO loss %v, want %.3f W", p.Flows.PTOLoss, want)
 	}
 }

@@ -3,6 +3,7 @@ package vehicle
 import (
 	"math"
 
+	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -28,6 +29,74 @@ type PTO struct {
 	Efficiency float64
 	// MaxPower is the PTO shaft's rated power; zero means no limit.
 	MaxPower units.Power
+	// Idle is the drag of the PTO driveline while no PTO power is asked
+	// (disengaged or unloaded); nil means none.
+	Idle *PTOIdle
+}
+
+// PTOIdle is the idle drag of a PTO driveline: the open wet plates of its
+// clutch, slipping at the clutch's input speed, and the bearings turning
+// with it, by the models of powersplit.PlateTorque (viscous film drag) and
+// powersplit.BearingTorque (Palmgren), in the given oil. Under load the
+// driveline's Efficiency accounts for its losses instead.
+type PTOIdle struct {
+	Plates    powersplit.Plates
+	Bearings  powersplit.Bearings // MeanDiameter zero: no bearings
+	Lubricant powersplit.Lubricant
+	// SpeedRatio is the clutch input's speed over the engine speed; zero
+	// means 1.
+	SpeedRatio float64
+}
+
+// Power returns the idle drag power at engine speed w.
+func (i *PTOIdle) Power(w units.AngularVelocity) units.Power {
+	r := i.SpeedRatio
+	if r == 0 {
+		r = 1
+	}
+	ws := units.AngularVelocity(r * math.Abs(float64(w)))
+	mu := units.DynamicFromKinematic(i.Lubricant.Viscosity, i.Lubricant.Density)
+	t := float64(powersplit.PlateTorque(i.Plates, mu, ws))
+	if i.Bearings.MeanDiameter > 0 {
+		n := i.Bearings.Count
+		if n == 0 {
+			n = 1
+		}
+		t += float64(n) * float64(powersplit.BearingTorque(i.Bearings, i.Lubricant.Viscosity, ws))
+	}
+	return units.Power(t * float64(ws))
+}
+
+func (i *PTOIdle) validate() error {
+	p := i.Plates
+	if p.Films <= 0 || !(p.Inner > 0) || !(p.Outer > p.Inner) || !(p.Clearance > 0) ||
+		!finite(float64(p.Inner), float64(p.Outer), float64(p.Clearance)) {
+		return invalid("PTO.Idle.Plates", float64(p.Films), "needs films > 0 and 0 < inner < outer, clearance > 0, finite")
+	}
+	if err := positive("PTO.Idle.Lubricant.Viscosity", i.Lubricant.Viscosity); err != nil {
+		return err
+	}
+	if err := positive("PTO.Idle.Lubricant.Density", i.Lubricant.Density); err != nil {
+		return err
+	}
+	if b := i.Bearings; b.MeanDiameter != 0 {
+		if err := positive("PTO.Idle.Bearings.MeanDiameter", b.MeanDiameter); err != nil {
+			return err
+		}
+		if err := positive("PTO.Idle.Bearings.F0", b.F0); err != nil {
+			return err
+		}
+		if err := nonNegative("PTO.Idle.Bearings.F1", b.F1); err != nil {
+			return err
+		}
+		if err := nonNegative("PTO.Idle.Bearings.Load", b.Load); err != nil {
+			return err
+		}
+		if b.Count < 0 {
+			return invalid("PTO.Idle.Bearings.Count", float64(b.Count), "must be ≥ 0")
+		}
+	}
+	return nonNegative("PTO.Idle.SpeedRatio", i.SpeedRatio)
 }
 
 // DefaultPTOEfficiency is the PTO driveline efficiency used when none is
@@ -71,6 +140,11 @@ func (p PTO) validate() error {
 	}
 	if p.Efficiency != 0 {
 		if err := fraction("PTO.Efficiency", p.Efficiency); err != nil {
+			return err
+		}
+	}
+	if p.Idle != nil {
+		if err := p.Idle.validate(); err != nil {
 			return err
 		}
 	}

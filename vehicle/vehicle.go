@@ -1,9 +1,9 @@
 package vehicle
 
 import (
-	"github.com/powersplit-dev/powersplit/internal/numeric"
 	"math"
 
+	"github.com/powersplit-dev/powersplit/internal/numeric"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -261,6 +261,10 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		}
 		f.PTO = d.PTOPower
 		f.PTOLoss = units.Power(float64(d.PTOPower) * (1/s.PTO.efficiency() - 1))
+	}
+	if d.PTOPower == 0 && s.PTO.Idle != nil {
+		// The PTO driveline turns without load: its idle drag.
+		f.PTOLoss = s.PTO.Idle.Power(w)
 	}
 	ptoTorque := units.TorqueFromPower(f.PTO+f.PTOLoss, w)
 

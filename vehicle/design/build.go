@@ -435,6 +435,17 @@ func (s *File) Vehicle(t Transmission) (*vehicle.Vehicle, error) {
 	for _, sp := range s.PTO.Speeds {
 		pto.Ratios = append(pto.Ratios, float64(s.PTO.AtEngine)/float64(sp))
 	}
+	if id := s.PTO.Idle; id != nil {
+		lube, err := t.lubricant()
+		if err != nil {
+			return nil, fmt.Errorf("pto.idle: %w", err)
+		}
+		pto.Idle = &vehicle.PTOIdle{
+			Plates:    powersplit.Plates{Films: id.Films, Inner: id.Inner, Outer: id.Outer, Clearance: id.Clearance},
+			Bearings:  powersplit.Bearings{MeanDiameter: id.MeanDiameter, F0: id.F0, Count: id.Bearings},
+			Lubricant: lube,
+		}
+	}
 	tr := s.Tractor
 	v, err := vehicle.New(vehicle.Spec{
 		Mass: tr.Mass, RotatingMass: tr.RotatingMass, DragArea: tr.DragArea,

@@ -185,6 +185,23 @@ type PTO struct {
 	Efficiency float64 `json:"efficiency,omitempty"`
 	// MaxPower is the PTO drive's rated power (optional, kW).
 	MaxPower units.Power `json:"maxPower,omitempty"`
+	// Idle is the PTO driveline's drag while no PTO power is asked
+	// (optional; none when left out).
+	Idle *PTOIdle `json:"idle,omitempty"`
+}
+
+// PTOIdle is the idle drag of the PTO driveline: the open plates of its
+// clutch, slipping at engine speed, and its bearings, in the
+// transmission's oil at its no-load temperature (see powersplit.Plates
+// and powersplit.Bearings).
+type PTOIdle struct {
+	Films        int          `json:"films"`
+	Inner        units.Length `json:"inner"`
+	Outer        units.Length `json:"outer"`
+	Clearance    units.Length `json:"clearance"`
+	MeanDiameter units.Length `json:"bearingMeanDiameter,omitempty"`
+	F0           float64      `json:"f0,omitempty"`
+	Bearings     int          `json:"bearings,omitempty"`
 }
 
 // Transmission is a power-split design: its kind ("input-coupled",

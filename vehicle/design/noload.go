@@ -70,6 +70,28 @@ type ChargePump struct {
 	Efficiency float64          `json:"efficiency"`
 }
 
+// lubricant returns the transmission oil at its no-load temperature: the
+// noLoad block's grade and temperature, else the loop's.
+func (t Transmission) lubricant() (powersplit.Lubricant, error) {
+	grade, temp := t.Oil, units.Celsius(50)
+	if t.OilTemperature != nil {
+		temp = *t.OilTemperature
+	}
+	if n := t.NoLoad; n != nil {
+		if n.Oil != "" {
+			grade = n.Oil
+		}
+		if n.Temperature != nil {
+			temp = *n.Temperature
+		}
+	}
+	oil, ok := oils[strings.ReplaceAll(strings.ToUpper(grade), " ", "")]
+	if !ok {
+		return powersplit.Lubricant{}, fmt.Errorf("noLoad.oil: %q is not one of VG32, VG46, VG68", grade)
+	}
+	return powersplit.Lubricant{Viscosity: oil.Viscosity(temp), Density: oil.Density(temp)}, nil
+}
+
 var oils = map[string]hydrostat.Oil{"VG32": hydrostat.VG32, "VG46": hydrostat.VG46, "VG68": hydrostat.VG68}
 
 // withLosses adds t's no-load losses to layout l.
@@ -78,22 +100,11 @@ func (t Transmission) withLosses(l powersplit.Layout) (powersplit.Layout, error)
 	if n == nil {
 		return l, nil
 	}
-	grade := n.Oil
-	if grade == "" {
-		grade = t.Oil
+	lube, err := t.lubricant()
+	if err != nil {
+		return l, err
 	}
-	oil, ok := oils[strings.ReplaceAll(strings.ToUpper(grade), " ", "")]
-	if !ok {
-		return l, fmt.Errorf("noLoad.oil: %q is not one of VG32, VG46, VG68", grade)
-	}
-	temp := units.Celsius(50)
-	if t.OilTemperature != nil {
-		temp = *t.OilTemperature
-	}
-	if n.Temperature != nil {
-		temp = *n.Temperature
-	}
-	spec := powersplit.NoLoad{Lubricant: powersplit.Lubricant{Viscosity: oil.Viscosity(temp), Density: oil.Density(temp)}}
+	spec := powersplit.NoLoad{Lubricant: lube}
 	for _, b := range n.Bearings {
 		spec.Bearings = append(spec.Bearings, powersplit.ShaftBearings{Name: b.Name, Shaft: b.Shaft, Bearings: powersplit.Bearings{
 			MeanDiameter: b.MeanDiameter, F0: b.F0, F1: b.F1, Load: b.Load, Count: b.Count}})
@@ -111,7 +122,7 @@ func (t Transmission) withLosses(l powersplit.Layout) (powersplit.Layout, error)
 		spec.ChargePumps = append(spec.ChargePumps, powersplit.LoopChargePump{Name: "charge pump", Loop: "hydrostat", Shaft: cp.Shaft,
 			ChargePump: powersplit.ChargePump{Flushing: cp.Flushing, Efficiency: cp.Efficiency}})
 	}
-	l, err := l.WithLosses(spec)
+	l, err = l.WithLosses(spec)
 	if err != nil {
 		return l, fmt.Errorf("noLoad: %w", err)
 	}
