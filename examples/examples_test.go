@@ -25,11 +25,11 @@ var programs = []struct {
 	figures []string
 	args    []string
 }{
-	{"demoday", []string{"fuel_per_segment", "losses"}, nil},
+	{"demoday", []string{"fuel_per_segment", "losses", "day_trace", "engine_fuel_map"}, nil},
 	{"efficiency", []string{"efficiency_ranges", "hydraulic_share", "speed_plan", "line_pressure", "efficiency_map",
 		"efficiency_map_1200rpm", "efficiency_map_2000rpm"}, nil},
 	{"compare", []string{"compare_efficiency", "compare_fuel"}, nil},
-	{"traction", []string{"tractive_efficiency"}, nil},
+	{"traction", []string{"tractive_efficiency", "pull_slip"}, nil},
 	{"design", []string{"design_pareto", "design_effort_chosen", "design_effort_demo"}, []string{"-candidates", "300"}},
 }
 

@@ -17,6 +17,7 @@ import (
 	"math"
 	"path/filepath"
 	"slices"
+	"strconv"
 	"strings"
 	"sync"
 
@@ -251,12 +252,34 @@ func run(r *demo.Run) error {
 		return err
 	}
 	r.Wrote(files...)
-	files, err = figures.Bars(r.Out, "compare_fuel", figures.Axes{
-		Title: "Three splits for one tractor: fuel for the day", Y: "diesel fuel (L)"}, fullNames(results), totals)
-	if err != nil {
-		return err
+	// Fuel: the alternatives' differences from the first design, segment by
+	// segment (a 2 % difference is invisible in bars of the totals).
+	var panels []figures.BarPanel
+	for _, res := range results[1:] {
+		var labels []string
+		var diff []float64
+		for k := range cycle {
+			a, b := results[0].day.Segments[k], res.day.Segments[k]
+			labels = append(labels, strconv.Itoa(k+1))
+			if a.Err != nil || b.Err != nil {
+				diff = append(diff, math.NaN())
+				continue
+			}
+			diff = append(diff, b.Audit.Volume(res.fuel).Litres()-a.Audit.Volume(results[0].fuel).Litres())
+		}
+		panels = append(panels, figures.BarPanel{Axes: figures.Axes{Title: res.t.Name, X: "segment of the day (as in the table)", Y: "fuel difference (L)"},
+			Labels: labels, Values: diff})
 	}
-	r.Wrote(files...)
+	if len(panels) > 0 {
+		files, err = figures.BarPanels(r.Out, "compare_fuel",
+			sc.Name+": fuel per segment, each alternative minus the first design",
+			"First design: "+results[0].t.Name+". Positive: the alternative burns more; a segment a design cannot run has no bar.", panels...)
+		if err != nil {
+			return err
+		}
+		r.Wrote(files...)
+	}
+	_ = totals
 	for _, res := range results {
 		path := filepath.Join(r.Out, "compare_"+demo.FileName(res.t.Kind)+".csv")
 		if err := demo.WriteFile(path, res.day.WriteCSV); err != nil {

@@ -166,8 +166,34 @@ func run(r *demo.Run) error {
 		return err
 	}
 	r.Wrote(files...)
-	files, err = figures.Bars(r.Out, "losses", figures.Axes{
-		Title: sc.Name + ": where the day's losses went", Y: "energy lost (MJ)"}, lossNames, lossMJ)
+	// The engine's loss dwarfs the rest: it gets its own panel, and the
+	// losses after the engine theirs.
+	var afterNames []string
+	var afterMJ []float64
+	for i, n := range lossNames {
+		if n != "engine" {
+			afterNames, afterMJ = append(afterNames, n), append(afterMJ, lossMJ[i])
+		}
+	}
+	after := 0.0
+	for _, x := range afterMJ {
+		after += x
+	}
+	files, err = figures.BarPanels(r.Out, "losses", sc.Name+": where the day's losses went", "",
+		figures.BarPanel{Axes: figures.Axes{Title: "engine and the rest", Y: "energy lost (MJ)"},
+			Labels: []string{"engine", "after the engine"}, Values: []float64{a.EngineLoss.Megajoules(), after}, Share: 0.35},
+		figures.BarPanel{Axes: figures.Axes{Title: "after the engine", Y: "energy lost (MJ)"},
+			Labels: afterNames, Values: afterMJ, Share: 0.65})
+	if err != nil {
+		return err
+	}
+	r.Wrote(files...)
+	files, err = dayTrace(r, day, names)
+	if err != nil {
+		return err
+	}
+	r.Wrote(files...)
+	files, err = fuelMap(r, eng, day)
 	if err != nil {
 		return err
 	}
@@ -492,4 +518,94 @@ func firstLine(err error) string {
 		err = se.Err
 	}
 	return demo.FirstLine(err)
+}
+
+// dayTrace draws the day against time: travel speed, engine speed, range
+// and high-line pressure, one panel each.
+func dayTrace(r *demo.Run, day vehicle.Day, names []string) ([]string, error) {
+	sc := r.Scenario
+	speed := figures.Series{Step: true}
+	rpm := figures.Series{Step: true, Colour: 2}
+	rng := figures.Series{Step: true, Colour: 3}
+	pres := figures.Series{Step: true, Colour: 4}
+	for _, s := range day.Segments {
+		for _, st := range s.Steps {
+			h := st.Start.Hours()
+			speed.X, speed.Y = append(speed.X, h), append(speed.Y, st.Speed.KMH())
+			rpm.X, rpm.Y = append(rpm.X, h), append(rpm.Y, st.EngineSpeed.RPM())
+			rng.X, rng.Y = append(rng.X, h), append(rng.Y, float64(st.Range+1))
+			p := math.NaN()
+			if st.Range >= 0 {
+				p = st.Hydrostat.HighPressure.Bar()
+			}
+			pres.X, pres.Y = append(pres.X, h), append(pres.Y, p)
+		}
+	}
+	rangeTicks := append([]string{"standing"}, names...)
+	tr := sc.Transmission
+	return figures.Panels(r.Out, "day_trace", sc.Name+": the working day, step by step", demo.FigureCaution,
+		figures.Panel{Axes: figures.Axes{Y: "travel speed (km/h)"}, Series: []figures.Series{speed}},
+		figures.Panel{Axes: figures.Axes{Y: "engine speed (rpm)"}, Series: []figures.Series{rpm}},
+		figures.Panel{Axes: figures.Axes{Y: "range", YTicks: rangeTicks, YMin: -0.3, YMax: float64(len(names)) + 0.3}, Series: []figures.Series{rng}},
+		figures.Panel{Axes: figures.Axes{X: "time of the day (h)", Y: "high-line pressure (bar)", YMin: 0, YMax: 1.1 * tr.Relief.Bar(),
+			Limits: []figures.Limit{{Name: "relief setting " + tr.Relief.String(), Y: tr.Relief.Bar()}}}, Series: []figures.Series{pres}})
+}
+
+// fuelMap draws the engine's specific fuel consumption over speed and
+// torque, below the full-load curve, with the day's operating points.
+func fuelMap(r *demo.Run, eng *vehicle.Engine, day vehicle.Day) ([]string, error) {
+	sc := r.Scenario
+	lo, hi := eng.SpeedRange()
+	g := figures.Grid{}
+	const nx, ny = 80, 60
+	top := 0.0
+	for i := range nx {
+		w := lo.RPM() + (hi.RPM()-lo.RPM())*float64(i)/(nx-1)
+		g.X = append(g.X, w)
+		if t, err := eng.MaxTorque(units.RPM(w)); err == nil {
+			top = math.Max(top, float64(t))
+		}
+	}
+	for j := range ny {
+		g.Y = append(g.Y, 1.05*top*float64(j+1)/ny)
+	}
+	env := figures.Series{Name: "full-load torque"}
+	for _, w := range g.X {
+		t, err := eng.MaxTorque(units.RPM(w))
+		y := math.NaN()
+		if err == nil {
+			y = float64(t)
+		}
+		env.X, env.Y = append(env.X, w), append(env.Y, y)
+	}
+	g.Z = make([][]float64, ny)
+	g.Feasible = make([][]bool, ny)
+	for j, t := range g.Y {
+		g.Z[j] = make([]float64, nx)
+		g.Feasible[j] = make([]bool, nx)
+		for i, w := range g.X {
+			full, err := eng.MaxTorque(units.RPM(w))
+			if err != nil || t > float64(full) {
+				continue
+			}
+			sfc, err := eng.SpecificFuel(units.RPM(w), units.Torque(t))
+			if err != nil {
+				continue
+			}
+			g.Z[j][i], g.Feasible[j][i] = sfc.GramsPerKWh(), true
+		}
+	}
+	pts := figures.Series{Name: "the day's operating points", Points: true}
+	for _, s := range day.Segments {
+		for _, st := range s.Steps {
+			if st.EngineTorque > 0 {
+				pts.X, pts.Y = append(pts.X, st.EngineSpeed.RPM()), append(pts.Y, float64(st.EngineTorque))
+			}
+		}
+	}
+	return figures.HeatMap(r.Out, "engine_fuel_map", figures.Axes{
+		Title: sc.Name + ": engine specific fuel consumption (" + demo.FuelModel(sc) + ")",
+		X:     "engine speed (rpm)", Y: "engine torque (N·m)"}, g,
+		figures.MapOptions{Levels: []float64{210, 215, 220, 230, 240, 260, 300}, ZLabel: "specific fuel (g/kWh)", ZMin: 205, ZMax: 320,
+			Reverse: true, Envelope: &env, Points: []figures.Series{pts}})
 }

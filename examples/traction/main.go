@@ -192,13 +192,28 @@ func run(r *demo.Run) error {
 
 	// Figure and CSV.
 	r.Heading("Files")
-	var series []figures.Series
+	var series, pulls []figures.Series
 	for _, c := range curves {
 		series = append(series, figures.Series{Name: c.name, X: scale(c.slip, 100), Y: scale(c.efficiency, 100)})
+		pulls = append(pulls, figures.Series{Name: c.name, X: scale(c.slip, 100), Y: c.pull})
+	}
+	var band *figures.Band
+	if rec, err := traction.Recommended(traction.ClassFirm); err == nil {
+		band = &figures.Band{Name: "recommended slip on firm soil (ASABE D497)", From: 100 * rec.SlipLow, To: 100 * rec.SlipHigh}
 	}
 	files, err := figures.Lines(r.Out, "tractive_efficiency",
-		figures.Axes{Title: "Demo tractor: tractive efficiency against slip (fixed lead, 7 km/h)",
-			X: "rear-axle slip (%)", Y: "tractive efficiency (%)", YMin: 0, YMax: 100}, series...)
+		figures.Axes{Title: sc.Name + ": tractive efficiency against slip (fixed lead, 7 km/h)",
+			X: "rear-axle slip (%)", Y: "tractive efficiency (%)", YMin: 0, YMax: 100, XMin: 0, XMax: 40, Band: band,
+			LegendBottom: true}, series...)
+	if err != nil {
+		return err
+	}
+	r.Wrote(files...)
+	files, err = figures.Lines(r.Out, "pull_slip",
+		figures.Axes{Title: sc.Name + ": drawbar pull against slip (fixed lead, 7 km/h)",
+			X: "rear-axle slip (%)", Y: "drawbar pull (kN)", XMin: 0, XMax: 40, Band: band, LegendBottom: true,
+			Limits: []figures.Limit{{Name: "working pull " + demo.F(pull.Kilonewtons(), 1, "kN"), Y: pull.Kilonewtons()}},
+			Note: demo.FigureCaution}, pulls...)
 	if err != nil {
 		return err
 	}

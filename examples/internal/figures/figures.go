@@ -69,6 +69,36 @@ type Axes struct {
 	// Band is shaded across the plot between two X values (a recommended
 	// range); nil means none.
 	Band *Band
+	// YTicks names the integer Y values 0, 1, 2, ... (for a quantity such
+	// as the range in use); nil means numeric ticks.
+	YTicks []string
+}
+
+// unlabelled keeps a ticker's ticks and drops their labels (for the X axis
+// of all but the bottom panel).
+type unlabelled struct{ plot.Ticker }
+
+// Ticks implements plot.Ticker.
+func (u unlabelled) Ticks(lo, hi float64) []plot.Tick {
+	ts := u.Ticker.Ticks(lo, hi)
+	for i := range ts {
+		ts[i].Label = ""
+	}
+	return ts
+}
+
+// named ticks label 0, 1, 2, ... with names.
+type named []string
+
+// Ticks implements plot.Ticker.
+func (n named) Ticks(lo, hi float64) []plot.Tick {
+	var ts []plot.Tick
+	for i, s := range n {
+		if v := float64(i); v >= lo && v <= hi {
+			ts = append(ts, plot.Tick{Value: v, Label: s})
+		}
+	}
+	return ts
 }
 
 // Limit is a horizontal line at Y named Name.
@@ -173,14 +203,18 @@ func (niceTicks) Ticks(lo, hi float64) []plot.Tick {
 	return out
 }
 
+// twoLines breaks a long title (a design's name, then what the figure
+// shows) after its first ": " so that it does not run off the figure.
+func twoLines(t string) string {
+	if i := strings.Index(t, ": "); i > 0 && utf8.RuneCountInString(t) > 55 {
+		return t[:i] + "\n" + t[i+2:]
+	}
+	return t
+}
+
 func newPlot(a Axes) *plot.Plot {
 	p := plot.New()
-	p.Title.Text = a.Title
-	// A long title (a design's name, then what the figure shows) takes two
-	// lines rather than running off the figure.
-	if i := strings.Index(a.Title, ": "); i > 0 && utf8.RuneCountInString(a.Title) > 55 {
-		p.Title.Text = a.Title[:i] + "\n" + a.Title[i+2:]
-	}
+	p.Title.Text = twoLines(a.Title)
 	p.Title.TextStyle.Font.Size = vg.Points(11)
 	p.X.Label.Text = a.X
 	p.Y.Label.Text = a.Y
@@ -215,7 +249,7 @@ func decorate(p *plot.Plot, a Axes, legend bool) error {
 		if err != nil {
 			return err
 		}
-		poly.Color = color.RGBA{R: 120, G: 190, B: 120, A: 70}
+		poly.Color = color.NRGBA{R: 90, G: 180, B: 90, A: 60}
 		poly.LineStyle.Width = 0
 		p.Add(poly)
 		if a.Band.Name != "" {
@@ -704,10 +738,18 @@ func rowOf(g Grid, y float64) float64 {
 }
 
 // Bars draws a bar chart of values with one label per bar and saves
-// base.svg and base.png in dir.
+// base.svg and base.png in dir. Negative values draw downwards.
 func Bars(dir, base string, a Axes, labels []string, values []float64) ([]string, error) {
+	p, _, err := barsPlot(a, labels, values)
+	if err != nil {
+		return nil, errors.New("figures: " + base + ": " + err.Error())
+	}
+	return save(p, dir, base, a.Note)
+}
+
+func barsPlot(a Axes, labels []string, values []float64) (*plot.Plot, *plotter.BarChart, error) {
 	if len(labels) != len(values) || len(values) == 0 {
-		return nil, errors.New("figures: " + base + ": need one label per value")
+		return nil, nil, errors.New("need one label per value")
 	}
 	v := make(plotter.Values, len(values))
 	for i, x := range values {
@@ -717,9 +759,9 @@ func Bars(dir, base string, a Axes, labels []string, values []float64) ([]string
 		v[i] = x
 	}
 	p := newPlot(a)
-	b, err := plotter.NewBarChart(v, vg.Points(22))
+	b, err := plotter.NewBarChart(v, vg.Points(18))
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
 	b.Color = plotutil.Color(0)
 	b.LineStyle.Width = vg.Length(0)
@@ -728,15 +770,73 @@ func Bars(dir, base string, a Axes, labels []string, values []float64) ([]string
 	p.X.Tick.Label.Rotation = math.Pi / 6
 	p.X.Tick.Label.XAlign = draw.XRight
 	p.X.Tick.Label.YAlign = draw.YCenter
-	p.Y.Min = 0
-	top := 0.0
+	lo, hi := 0.0, 0.0
 	for _, x := range v {
-		top = math.Max(top, x)
+		lo, hi = math.Min(lo, x), math.Max(hi, x)
 	}
-	if top > 0 {
-		p.Y.Max = 1.1 * top
+	if hi > lo {
+		pad := 0.1 * (hi - lo)
+		p.Y.Min, p.Y.Max = lo, hi+pad
+		if lo < 0 {
+			p.Y.Min = lo - pad
+		}
 	}
-	return save(p, dir, base, a.Note)
+	if a.YMax > a.YMin {
+		p.Y.Min, p.Y.Max = a.YMin, a.YMax
+	}
+	return p, b, nil
+}
+
+// BarPanel is one bar chart of a figure of panels side by side.
+type BarPanel struct {
+	Axes   Axes
+	Labels []string
+	Values []float64
+	// Share is the panel's share of the figure's width (0 means equal).
+	Share float64
+}
+
+// BarPanels draws bar charts side by side under one title and saves
+// base.svg and base.png in dir.
+func BarPanels(dir, base, title, note string, panels ...BarPanel) ([]string, error) {
+	plots := make([]*plot.Plot, len(panels))
+	bars := make([]*plotter.BarChart, len(panels))
+	total := 0.0
+	title = twoLines(title)
+	for k, pn := range panels {
+		a := pn.Axes
+		a.Title = ""
+		p, b, err := barsPlot(a, pn.Labels, pn.Values)
+		if err != nil {
+			return nil, fmt.Errorf("figures: %s panel %d: %w", base, k+1, err)
+		}
+		bars[k] = b
+		p.Title.Text = pn.Axes.Title
+		p.Title.TextStyle.Font.Size = vg.Points(9)
+		plots[k] = p
+		if pn.Share <= 0 {
+			panels[k].Share = 1
+		}
+		total += panels[k].Share
+	}
+	head := plot.New()
+	head.Title.TextStyle.Font.Size = vg.Points(11)
+	return saveWith(func(c draw.Canvas) {
+		th := head.Title.TextStyle.Rectangle(title).Size().Y + vg.Points(6)
+		c.FillText(head.Title.TextStyle, vg.Point{X: c.Center().X, Y: c.Max.Y}, title)
+		body := draw.Crop(c, 0, 0, 0, -th)
+		w := body.Max.X - body.Min.X
+		x := body.Min.X
+		for k, p := range plots {
+			pw := vg.Length(panels[k].Share / total * float64(w))
+			sub := body
+			sub.Min.X, sub.Max.X = x, x+pw-vg.Points(6)
+			// Bars fill about 60 % of their slot.
+			bars[k].Width = vg.Length(0.6 * float64(pw-1.5*vg.Centimeter) / float64(len(panels[k].Values)))
+			p.Draw(sub)
+			x += pw
+		}
+	}, dir, base, note)
 }
 
 // Panel is one panel of a figure of stacked panels: its axes (the title is
@@ -754,30 +854,40 @@ func Panels(dir, base, title, note string, panels ...Panel) ([]string, error) {
 		return nil, errors.New("figures: " + base + ": no panel")
 	}
 	plots := make([]*plot.Plot, len(panels))
+	legends := make([]bool, len(panels))
 	xmin, xmax := math.Inf(1), math.Inf(-1)
 	for k, pn := range panels {
 		a := pn.Axes
 		a.Title = ""
-		if k < len(panels)-1 {
-			a.X = ""
-		}
 		p, legend, err := linesPlot(a, pn.Series)
 		if err != nil {
 			return nil, fmt.Errorf("figures: %s panel %d: %w", base, k+1, err)
 		}
-		if err := settle(p, a, legend); err != nil {
-			return nil, err
+		if a.XMax > a.XMin {
+			p.X.Min, p.X.Max = a.XMin, a.XMax
 		}
 		xmin, xmax = math.Min(xmin, p.X.Min), math.Max(xmax, p.X.Max)
-		plots[k] = p
+		plots[k], legends[k] = p, legend
 	}
-	for _, p := range plots {
-		p.X.Min, p.X.Max = xmin, xmax
+	for k, p := range plots {
+		a := panels[k].Axes
+		a.XMin, a.XMax = xmin, xmax
+		if err := settle(p, a, legends[k]); err != nil {
+			return nil, err
+		}
+		if k < len(plots)-1 {
+			p.X.Label.Text = ""
+			p.X.Tick.Marker = unlabelled{niceTicks{}}
+		}
+		if len(a.YTicks) > 0 {
+			p.Y.Tick.Marker = named(a.YTicks)
+		}
 	}
 	h := Height
 	Height = vg.Length(len(panels))*6*vg.Centimeter + vg.Centimeter
 	defer func() { Height = h }()
 	head := plot.New()
+	title = twoLines(title)
 	head.Title.Text = title
 	head.Title.TextStyle.Font.Size = vg.Points(11)
 	return saveWith(func(c draw.Canvas) {
