@@ -213,7 +213,7 @@ func run(r *demo.Run) error {
 		figures.Axes{Title: sc.Name + ": drawbar pull against slip (fixed lead, 7 km/h)",
 			X: "rear-axle slip (%)", Y: "drawbar pull (kN)", XMin: 0, XMax: 40, Band: band, LegendBottom: true,
 			Limits: []figures.Limit{{Name: "working pull " + demo.F(pull.Kilonewtons(), 1, "kN"), Y: pull.Kilonewtons()}},
-			Note: demo.FigureCaution}, pulls...)
+			Note:   demo.FigureCaution}, pulls...)
 	if err != nil {
 		return err
 	}
