@@ -422,53 +422,73 @@ func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief float64
 	if g0 == 0 {
 		return sol, nil
 	}
-	dir := 1.0
-	if g0 < 0 {
-		dir = -1
-	}
-	step := math.Max(math.Abs(g0)/rf, 1e-3*(hi-lo))
-	x1, g1 := x0, g0
-	for range 60 {
-		xn := math.Min(math.Max(x1+dir*step, lo), hi)
+	// Secant steps from there (g is close to linear in N_f: about −r_f
+	// per newton of front pull), kept inside any bracket found; a split
+	// the transmission refuses (a limit) is approached halfway, a few
+	// times, before the limit is reported.
+	tolG := func(x float64) float64 { return 1e-10 * (math.Abs(x)*rf + math.Abs(pull)*rr + 1) }
+	x := math.Min(math.Max(x0+g0/rf, lo), hi)
+	try := func(xn, from float64) (float64, float64, error) {
 		gn, err := g(xn)
-		for h := 0; err != nil && h < 30; h++ {
-			// The transmission refuses this split (a limit): come back
-			// towards the last split it took.
-			xn = 0.5 * (x1 + xn)
+		for h := 0; err != nil && h < 6; h++ {
+			xn = 0.5 * (from + xn)
 			gn, err = g(xn)
 		}
-		if err != nil {
-			return axles{}, err
-		}
-		if (gn > 0) != (g1 > 0) || gn == 0 {
-			x0, g0, x1, g1 = x1, g1, xn, gn
+		return xn, gn, err
+	}
+	x, g1, err := try(x, x0)
+	if err != nil {
+		return axles{}, err
+	}
+	bLo, bHi, bracketed := 0.0, 0.0, false
+	xa, ga := x0, g0
+	converged := false
+	for range 40 {
+		if math.Abs(g1) <= tolG(x) {
+			converged = true
 			break
 		}
-		if xn == lo || xn == hi {
+		if (x == hi && g1 > 0) || (x == lo && g1 < 0) {
+			// The transmission gives the front wheels more (or less)
+			// torque than any slip of theirs takes: beyond traction.
 			return axles{}, &LimitError{Quantity: "front axle torque", Value: units.Of(units.Torque(sol.frontWheelT)),
 				Bound: "torque a slip of the front axle matches", Limit: units.Of(units.Torque(fa.nMax * rf)), Err: ErrTraction}
 		}
-		x0, g0, x1, g1 = x1, g1, xn, gn
-		step *= 2
-	}
-	if (g0 > 0) == (g1 > 0) && g0 != 0 && g1 != 0 {
-		return axles{}, errors.Join(ErrTraction, traction.ErrNoConvergence)
-	}
-	var ferr error
-	f := func(x float64) float64 {
-		r, err := g(x)
-		if err != nil {
-			ferr = err
-			return math.NaN()
+		if (g1 > 0) != (ga > 0) {
+			bLo, bHi, bracketed = math.Min(xa, x), math.Max(xa, x), true
 		}
-		return r
+		xn := x - g1*(x-xa)/(g1-ga)
+		if g1 == ga || math.IsNaN(xn) {
+			xn = x + g1/rf
+		}
+		if bracketed && !(xn > bLo && xn < bHi) {
+			xn = 0.5 * (bLo + bHi)
+		}
+		xn = math.Min(math.Max(xn, lo), hi)
+		if xn == x {
+			if x == lo || x == hi {
+				return axles{}, &LimitError{Quantity: "front axle torque", Value: units.Of(units.Torque(sol.frontWheelT)),
+					Bound: "torque a slip of the front axle matches", Limit: units.Of(units.Torque(fa.nMax * rf)), Err: ErrTraction}
+			}
+			converged = true
+			break
+		}
+		xp, gp := x, g1
+		x, g1, err = try(xn, x)
+		if err != nil {
+			return axles{}, err
+		}
+		switch {
+		case (g1 > 0) != (gp > 0):
+			xa, ga = xp, gp // the root lies between the last two
+		case bracketed && (g1 > 0) != (ga > 0):
+			// keep xa: the far end of the bracket
+		default:
+			xa, ga = xp, gp
+		}
 	}
-	x, err := numeric.Brent(f, x0, x1, 1e-9*math.Max(1, math.Abs(pull)), 100)
-	if ferr != nil {
-		return axles{}, ferr
-	}
-	if err != nil {
-		return axles{}, errors.Join(ErrTraction, err)
+	if !converged {
+		return axles{}, errors.Join(ErrTraction, traction.ErrNoConvergence)
 	}
 	if _, err := g(x); err != nil { // leave sol at the root
 		return axles{}, err

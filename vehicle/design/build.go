@@ -73,6 +73,19 @@ func (f *File) Validate() error {
 	if math.IsNaN(t.FrontLead) || math.Abs(t.FrontLead) > 0.2 {
 		c.add("tractor.frontLead", "must lie within ±0.2")
 	}
+	if fm := t.FrontMotor; fm != nil {
+		c.positive("tractor.frontMotor.motor.displacement", float64(fm.Motor.Displacement), fm.Motor.Displacement)
+		c.positive("tractor.frontMotor.finalDrive", fm.FinalDrive, nil)
+		c.positive("tractor.frontMotor.declutchAbove", float64(fm.DeclutchAbove), fm.DeclutchAbove)
+		if !slices.Contains([]string{"", "schedule", "least power"}, fm.Control) {
+			c.add("tractor.frontMotor.control", "not one of schedule, least power")
+		}
+		if t.Front.Tyre.RollingRadius > 0 && t.Rear.Tyre.RollingRadius > 0 && t.FinalDrive > 0 && fm.FinalDrive > 0 && fm.DeclutchAbove > 0 {
+			if _, err := f.Transmission.frontLayout(f); err != nil {
+				c.errs = append(c.errs, f.fieldError("tractor.frontMotor", err))
+			}
+		}
+	}
 	c.positive("engine.rated", float64(f.Engine.Rated), f.Engine.Rated)
 	if len(f.Engine.Curve) < 2 {
 		c.add("engine.curve", "needs at least two points")
@@ -176,25 +189,63 @@ func (s *File) BuildEngine() (*vehicle.Engine, error) {
 	return e, nil
 }
 
-// Layout builds the transmission layout, with its no-load losses when the
-// design lists them.
-func (t Transmission) Layout() (powersplit.Layout, error) {
-	l, err := t.bareLayout()
+// rearOutput returns the rear output shaft's speed at travel speed v
+// without slip.
+func (s *File) rearOutput(v units.Speed) units.AngularVelocity {
+	return units.AngularVelocity(s.Tractor.FinalDrive * float64(v) / float64(s.Tractor.Rear.Tyre.RollingRadius))
+}
+
+// FrontLayout builds transmission t with the tractor's front motor as a
+// second motor of its loop (powersplit.SecondMotor), its setting curve and
+// declutch speed turned from travel speeds into rear output speeds
+// (without slip). It needs a tractor with a FrontMotor and an input- or
+// output-coupled t.
+func (s *File) FrontLayout(t Transmission) (powersplit.Layout, error) {
+	return t.frontLayout(s)
+}
+
+func (t Transmission) frontLayout(s *File) (powersplit.Layout, error) {
+	fm := s.Tractor.FrontMotor
+	if fm == nil {
+		return powersplit.Layout{}, errors.New("the tractor has no front motor")
+	}
+	second := &powersplit.SecondMotor{Ratio: fm.Ratio, DeclutchAbove: s.rearOutput(fm.DeclutchAbove)}
+	if second.Ratio == 0 {
+		second.Ratio = 1
+	}
+	for _, p := range fm.Setting {
+		second.Setting.Speeds = append(second.Setting.Speeds, s.rearOutput(p.Speed))
+		second.Setting.Settings = append(second.Setting.Settings, p.Setting)
+	}
+	l, err := t.layout(&fm.Motor, second)
 	if err != nil {
 		return l, err
 	}
 	return t.withLosses(l)
 }
 
-// bareLayout builds the transmission layout without no-load losses.
-func (t Transmission) bareLayout() (powersplit.Layout, error) {
+// Layout builds the transmission layout, with its no-load losses when the
+// design lists them.
+func (t Transmission) Layout() (powersplit.Layout, error) {
+	l, err := t.layout(nil, nil)
+	if err != nil {
+		return l, err
+	}
+	return t.withLosses(l)
+}
+
+// layout builds the layout, with a second motor when front is set.
+func (t Transmission) layout(front *Unit, second *powersplit.SecondMotor) (powersplit.Layout, error) {
 	set, err := planetary.FromRatio(t.Set.FixedCarrierRatio, t.Set.BasicEfficiency)
 	if err != nil {
 		return powersplit.Layout{}, fmt.Errorf("set: %w", err)
 	}
-	loop, err := t.loop()
+	loop, err := t.loop(front)
 	if err != nil {
 		return powersplit.Layout{}, err
+	}
+	if second != nil && t.Kind != "input-coupled" && t.Kind != "output-coupled" {
+		return powersplit.Layout{}, fmt.Errorf("a front motor needs an input- or output-coupled split, not %q", t.Kind)
 	}
 	ranges := make([]powersplit.RangeGear, len(t.Ranges))
 	for i, r := range t.Ranges {
@@ -204,11 +255,11 @@ func (t Transmission) bareLayout() (powersplit.Layout, error) {
 	case "input-coupled":
 		return powersplit.InputCoupled(powersplit.InputCoupledSpec{Set: set, Loop: loop,
 			InputRatio: t.InputRatio, PumpRatio: t.PumpRatio, MotorRatio: t.MotorRatio,
-			Ranges: ranges, GearEfficiency: t.GearEfficiency})
+			Ranges: ranges, GearEfficiency: t.GearEfficiency, Second: second})
 	case "output-coupled":
 		return powersplit.OutputCoupled(powersplit.OutputCoupledSpec{Set: set, Loop: loop,
 			InputRatio: t.InputRatio, PumpRatio: t.PumpRatio, MotorRatio: t.MotorRatio,
-			Ranges: ranges, GearEfficiency: t.GearEfficiency})
+			Ranges: ranges, GearEfficiency: t.GearEfficiency, Second: second})
 	case "compound":
 		set2, err := planetary.FromRatio(t.Set2.FixedCarrierRatio, t.Set2.BasicEfficiency)
 		if err != nil {
@@ -255,7 +306,7 @@ func compound(s1, s2 planetary.Set, loop hydrostat.Loop, rs []Range, eta float64
 	return b.Build()
 }
 
-func (t Transmission) loop() (hydrostat.Loop, error) {
+func (t Transmission) loop(front *Unit) (hydrostat.Loop, error) {
 	loss := hydrostat.Wilson{Slip: t.Losses.Slip, Viscous: t.Losses.Viscous, Friction: t.Losses.Friction,
 		ConstantPressure: t.Losses.ConstantPressure}
 	mk := func(name string, u Unit) (hydrostat.Unit, error) {
@@ -283,7 +334,15 @@ func (t Transmission) loop() (hydrostat.Loop, error) {
 	if t.OilTemperature != nil {
 		temp = *t.OilTemperature
 	}
-	l, err := hydrostat.NewLoop(hydrostat.LoopSpec{Pump: pump, Motors: []hydrostat.Unit{motor}, Oil: oil,
+	motors := []hydrostat.Unit{motor}
+	if front != nil {
+		fm, err := mk("front motor", *front)
+		if err != nil {
+			return hydrostat.Loop{}, err
+		}
+		motors = append(motors, fm)
+	}
+	l, err := hydrostat.NewLoop(hydrostat.LoopSpec{Pump: pump, Motors: motors, Oil: oil,
 		Temperature: temp, Charge: t.Charge, Relief: t.Relief,
 		Schedule: hydrostat.Sequential{MinMotorSetting: t.MinMotorSetting}})
 	if err != nil {
@@ -405,13 +464,33 @@ func (s *File) Ground(surface string) (vehicle.Tyres, error) {
 // Vehicle builds the tractor with transmission t. Its default ground is
 // the surface of the day's first segment that names one.
 func (s *File) Vehicle(t Transmission) (*vehicle.Vehicle, error) {
-	l, err := t.Layout()
-	if err != nil {
-		return nil, fmt.Errorf("%s: transmission %q: %w", s.source, t.Name, err)
-	}
-	drive, err := vehicle.FromLayout(l)
-	if err != nil {
-		return nil, err
+	var drive vehicle.Transmission
+	if fm := s.Tractor.FrontMotor; fm != nil {
+		l, err := s.FrontLayout(t)
+		if err != nil {
+			return nil, fmt.Errorf("%s: transmission %q with the front motor: %w", s.source, t.Name, err)
+		}
+		ctl := vehicle.FrontSchedule
+		if fm.Control == "least power" {
+			ctl = vehicle.FrontLeastPower
+		}
+		tr := s.Tractor
+		d, err := vehicle.FromFrontMotorLayout(l, vehicle.FrontMotorSpec{FinalDrive: fm.FinalDrive, Efficiency: fm.FinalDriveEfficiency,
+			AxleRatio: fm.FinalDrive * float64(tr.Rear.Tyre.RollingRadius) / (tr.FinalDrive * float64(tr.Front.Tyre.RollingRadius)), Control: ctl})
+		if err != nil {
+			return nil, err
+		}
+		drive = d
+	} else {
+		l, err := t.Layout()
+		if err != nil {
+			return nil, fmt.Errorf("%s: transmission %q: %w", s.source, t.Name, err)
+		}
+		d, err := vehicle.FromLayout(l)
+		if err != nil {
+			return nil, err
+		}
+		drive = d
 	}
 	e, err := s.BuildEngine()
 	if err != nil {
@@ -465,7 +544,7 @@ func (s *File) Cycle() ([]vehicle.Segment, error) {
 	out := make([]vehicle.Segment, 0, len(s.Day.Segments))
 	for i, g := range s.Day.Segments {
 		seg := vehicle.Segment{Name: g.Name, Speed: g.Speed, Distance: g.Distance, Duration: g.Duration.Std(),
-			Grade: g.Grade, PTOPower: g.PTOPower, PTOSpeed: g.PTOSpeed}
+			Grade: g.Grade, PTOPower: g.PTOPower, PTOSpeed: g.PTOSpeed, TurnRadius: g.TurnRadius}
 		switch g.Kind {
 		case "field":
 			seg.Kind = vehicle.FieldPass

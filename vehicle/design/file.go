@@ -108,6 +108,46 @@ type Tractor struct {
 	// FinalDriveEfficiency is the final drive's efficiency, 0 to 1
 	// (optional; the vehicle package's default when left out).
 	FinalDriveEfficiency float64 `json:"finalDriveEfficiency,omitempty"`
+	// FrontMotor, when given, drives the front axle by a second motor on
+	// the transmission's loop instead of the mechanical front drive at
+	// FrontLead (optional; input- and output-coupled splits only).
+	FrontMotor *FrontMotor `json:"frontMotor,omitempty"`
+}
+
+// FrontMotor is a second hydrostatic motor on the transmission's loop that
+// drives the front axle at its own speed: full torque at low travel speed,
+// swung back along Setting, declutched (and held still) above
+// DeclutchAbove.
+type FrontMotor struct {
+	// Motor is the front motor (its displacement in cm³/rev; the
+	// transmission's loss coefficients apply).
+	Motor Unit `json:"motor"`
+	// Ratio is the speed ratio of the front output shaft to the motor
+	// (optional; 1 when left out).
+	Ratio float64 `json:"ratio,omitempty"`
+	// FinalDrive is the ratio of the front output shaft's speed to the
+	// front wheels' speed (> 0).
+	FinalDrive float64 `json:"finalDrive"`
+	// FinalDriveEfficiency is the front final drive's efficiency, 0 to 1
+	// (optional; the vehicle package's default when left out).
+	FinalDriveEfficiency float64 `json:"finalDriveEfficiency,omitempty"`
+	// DeclutchAbove is the travel speed above which the front motor is
+	// declutched (km/h).
+	DeclutchAbove units.Speed `json:"declutchAbove"`
+	// Setting is the front motor's setting over travel speed (optional:
+	// full up to the declutch speed when left out).
+	Setting []SettingPoint `json:"setting,omitempty"`
+	// Control is "schedule" (the Setting curve; the default) or "least
+	// power" (the setting of least engine power, point by point; slower).
+	Control string `json:"control,omitempty"`
+}
+
+// SettingPoint is one point of the front motor's setting curve.
+type SettingPoint struct {
+	// Speed is the travel speed (km/h).
+	Speed units.Speed `json:"speed"`
+	// Setting is the motor's relative displacement there, 0 to 1.
+	Setting float64 `json:"setting"`
 }
 
 // Axle is one axle's tyres.
@@ -385,6 +425,9 @@ type Segment struct {
 	PTOPower units.Power `json:"ptoPower,omitempty"`
 	// PTOSpeed is the PTO shaft speed wanted (rpm; one of PTO.Speeds).
 	PTOSpeed units.AngularVelocity `json:"ptoSpeed,omitempty"`
+	// TurnRadius is the path radius of the rear axle's centre in a
+	// headland turn (optional, m; the turn is run straight when left out).
+	TurnRadius units.Length `json:"turnRadius,omitempty"`
 }
 
 // Stretch is a piece of road of one grade.

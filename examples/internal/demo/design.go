@@ -28,6 +28,17 @@ func Builtin() []byte { return bytes.Clone(builtin) }
 // Default returns the built-in design.
 func Default() (*Scenario, error) { return design.Parse(BuiltinName, builtin) }
 
+//go:embed tractor_frontmotor.json
+var builtinFrontMotor []byte
+
+// BuiltinFrontMotorName names the built-in variant of the demo tractor
+// whose front axle is driven by a second motor of the transmission's loop.
+const BuiltinFrontMotorName = "tractor_frontmotor.json (built in)"
+
+// FrontMotor returns the built-in front-axle motor variant of the demo
+// tractor.
+func FrontMotor() (*Scenario, error) { return design.Parse(BuiltinFrontMotorName, builtinFrontMotor) }
+
 // The demo's names for the design file's types.
 type (
 	Scenario     = design.File

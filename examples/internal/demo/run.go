@@ -31,6 +31,11 @@ type Run struct {
 // scenario file to standard output and returns (nil, nil): the caller
 // exits.
 func Start(program, about string, extra ...func(*flag.FlagSet)) (*Run, error) {
+	return startWith(program, about, builtin, BuiltinName, extra...)
+}
+
+// startWith is Start with the built-in design file data, named name.
+func startWith(program, about string, data []byte, name string, extra ...func(*flag.FlagSet)) (*Run, error) {
 	fs := flag.NewFlagSet(program, flag.ContinueOnError)
 	for _, add := range extra {
 		add(fs)
@@ -46,7 +51,7 @@ func Start(program, about string, extra ...func(*flag.FlagSet)) (*Run, error) {
 		return nil, err
 	}
 	if *print {
-		_, err := os.Stdout.Write(builtin)
+		_, err := os.Stdout.Write(data)
 		return nil, err
 	}
 	var (
@@ -56,7 +61,7 @@ func Start(program, about string, extra ...func(*flag.FlagSet)) (*Run, error) {
 	if *designPath != "" {
 		sc, err = design.Load(*designPath)
 	} else {
-		sc, err = Default()
+		sc, err = design.Parse(name, data)
 	}
 	if err != nil {
 		return nil, err
@@ -90,11 +95,21 @@ func Main(program, about string, body func(r *Run) error) {
 // MainFlags is Main for a program with flags of its own, which flags
 // registers on the flag set before it is parsed.
 func MainFlags(program, about string, flags func(*flag.FlagSet), body func(r *Run) error) {
+	mainWith(program, about, builtin, BuiltinName, flags, body)
+}
+
+// MainFrontMotor is Main with the demo tractor with a front-axle motor as
+// the built-in design.
+func MainFrontMotor(program, about string, body func(r *Run) error) {
+	mainWith(program, about, builtinFrontMotor, BuiltinFrontMotorName, nil, body)
+}
+
+func mainWith(program, about string, data []byte, name string, flags func(*flag.FlagSet), body func(r *Run) error) {
 	var extra []func(*flag.FlagSet)
 	if flags != nil {
 		extra = append(extra, flags)
 	}
-	r, err := Start(program, about, extra...)
+	r, err := startWith(program, about, data, name, extra...)
 	if err == nil && r != nil {
 		err = body(r)
 		if err == nil {

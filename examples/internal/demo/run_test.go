@@ -3,6 +3,8 @@ package demo
 import (
 	"strings"
 	"testing"
+
+	"github.com/powersplit-dev/powersplit/vehicle"
 )
 
 func TestBuiltinLoads(t *testing.T) {
@@ -68,5 +70,36 @@ func TestStrict(t *testing.T) {
 	err = Strict(sc)
 	if err == nil || !strings.Contains(err.Error(), "motor 1 speed: maximum speed not rated") {
 		t.Errorf("unrated motor speed: %v", err)
+	}
+}
+
+func TestFrontMotorBuiltinLoads(t *testing.T) {
+	t.Parallel()
+	s, err := FrontMotor()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if s.Tractor.FrontMotor == nil {
+		t.Fatal("the front-motor variant has no front motor")
+	}
+	v, err := s.Vehicle(s.Transmission)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, ok := v.Spec().Transmission.(*vehicle.FrontMotorDrive); !ok {
+		t.Errorf("transmission %T, want a FrontMotorDrive", v.Spec().Transmission)
+	}
+	cycle, err := s.Cycle()
+	if err != nil {
+		t.Fatal(err)
+	}
+	turns := 0
+	for _, g := range cycle {
+		if g.Kind == vehicle.HeadlandTurn && g.TurnRadius > 0 {
+			turns++
+		}
+	}
+	if turns == 0 {
+		t.Error("no headland turn with a radius in the front-motor variant's day")
 	}
 }
