@@ -15,7 +15,7 @@ type Operation struct {
 
 func (op Operation) validate() error {
 	if !finite(float64(op.Speed)) || op.Speed < 0 {
-		return rangeErr(ErrInput, "travel speed", float64(op.Speed), ">= 0 and finite")
+		return rangeErr(ErrInput, "travel speed", op.Speed, ">= 0 and finite")
 	}
 	return nil // pull and implement are checked by DynamicLoads
 }
@@ -119,7 +119,7 @@ func (v Vehicle) pair(m Model, s Surface, op Operation) (axlePair, error) {
 		return axlePair{}, err
 	}
 	if loads.Rear <= 0 {
-		return axlePair{}, rangeErr(ErrLoad, "rear axle load", float64(loads.Rear), "> 0")
+		return axlePair{}, rangeErr(ErrLoad, "rear axle load", loads.Rear, "> 0")
 	}
 	fw, err := NewWheel(v.Front.Tyre, s, m)
 	if err != nil {

@@ -41,15 +41,15 @@ var (
 
 // A RangeError records an argument outside its valid range.
 type RangeError struct {
-	Quantity string  // what was checked, e.g. "tyre section width"
-	Value    float64 // the value given, in SI units
-	Limit    string  // the rule it broke, e.g. "> 0"
-	Err      error   // the sentinel: ErrTyre, ErrSurface, ErrLoad, ErrSlip or ErrInput
+	Quantity string        // what was checked, e.g. "tyre section width"
+	Value    units.Measure // the value given, printed in its unit
+	Limit    string        // the rule it broke, e.g. "> 0"
+	Err      error         // the sentinel: ErrTyre, ErrSurface, ErrLoad, ErrSlip or ErrInput
 }
 
 // Error returns the message, naming the quantity, the value and the rule.
 func (e *RangeError) Error() string {
-	return fmt.Sprintf("%v: %s = %g, want %s", e.Err, e.Quantity, e.Value, e.Limit)
+	return fmt.Sprintf("%v: %s = %v, want %s", e.Err, e.Quantity, e.Value, e.Limit)
 }
 
 // Unwrap returns the sentinel error.
@@ -70,8 +70,8 @@ func (e *PullError) Error() string {
 // Unwrap returns ErrPull.
 func (e *PullError) Unwrap() error { return ErrPull }
 
-func rangeErr(sentinel error, quantity string, value float64, limit string) error {
-	return &RangeError{Quantity: quantity, Value: value, Limit: limit, Err: sentinel}
+func rangeErr[Q units.Quantity | float64](sentinel error, quantity string, value Q, limit string) error {
+	return &RangeError{Quantity: quantity, Value: units.Of(value), Limit: limit, Err: sentinel}
 }
 
 func finite(x float64) bool { return x-x == 0 }

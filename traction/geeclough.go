@@ -115,7 +115,7 @@ func geeCloughCheck(t Tyre, s Surface, load units.Force, slip float64) error {
 		return err
 	}
 	if t.Deflection <= 0 {
-		return rangeErr(ErrTyre, "tyre deflection", float64(t.Deflection), "> 0 for the Gee-Clough model")
+		return rangeErr(ErrTyre, "tyre deflection", t.Deflection, "> 0 for the Gee-Clough model")
 	}
 	return checkLoadSlip(load, slip)
 }
@@ -139,7 +139,7 @@ func (GeeClough) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, 
 	k := c.Slope / c.MaxNet
 	p := makePull(load, slip, c.MaxNet*slipRise(k, slip)+crr, crr)
 	if !finite(float64(p.Gross)) || !finite(float64(p.Net)) || !finite(float64(p.Resistance)) {
-		return Pull{}, rangeErr(ErrLoad, "wheel load", float64(load), "small enough for a finite pull")
+		return Pull{}, rangeErr(ErrLoad, "wheel load", load, "small enough for a finite pull")
 	}
 	if slip < 0 {
 		p.Outside = overrun

@@ -273,8 +273,8 @@ func TestGeeCloughErrors(t *testing.T) {
 		t.Fatalf("err = %v, want a *RangeError", err)
 	}
 	m, _ := traction.GeeClough{}.MobilityNumber(gcTableTyre, weak, gcTableLoad)
-	if re.Value != m || !(m < traction.GeeCloughMinMobility) {
-		t.Errorf("RangeError value %g, mobility number %g, limit %g", re.Value, m, traction.GeeCloughMinMobility)
+	if re.Value.SI != m || !(m < traction.GeeCloughMinMobility) {
+		t.Errorf("RangeError value %g, mobility number %g, limit %g", re.Value.SI, m, traction.GeeCloughMinMobility)
 	}
 	var gc traction.GeeClough
 	if _, err := gc.Coefficients(gcTableTyre, weak, gcTableLoad); !errors.Is(err, traction.ErrLoad) {

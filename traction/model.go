@@ -89,7 +89,7 @@ func makePull(load units.Force, slip, gt, mr float64) Pull {
 
 func checkLoadSlip(load units.Force, slip float64) error {
 	if !finite(float64(load)) || load <= 0 {
-		return rangeErr(ErrLoad, "wheel load", float64(load), "> 0 and finite")
+		return rangeErr(ErrLoad, "wheel load", load, "> 0 and finite")
 	}
 	if !(slip >= MinSlip && slip < 1) {
 		return rangeErr(ErrSlip, "slip", slip, "in [-0.5, 1)")
@@ -105,7 +105,7 @@ func checkSoil(t Tyre, s Surface) error {
 		return err
 	}
 	if s.ConeIndex <= 0 {
-		return rangeErr(ErrSurface, "cone index", float64(s.ConeIndex), "> 0 for a soil model")
+		return rangeErr(ErrSurface, "cone index", s.ConeIndex, "> 0 for a soil model")
 	}
 	return nil
 }

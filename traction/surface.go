@@ -68,7 +68,7 @@ func (s Surface) Validate() error {
 	ci := float64(s.ConeIndex)
 	switch {
 	case !finite(ci) || ci < 0:
-		return rangeErr(ErrSurface, "cone index", ci, ">= 0 and finite")
+		return rangeErr(ErrSurface, "cone index", s.ConeIndex, ">= 0 and finite")
 	case !finite(s.RollingCoefficient) || s.RollingCoefficient < 0 || s.RollingCoefficient >= 1:
 		return rangeErr(ErrSurface, "rolling coefficient", s.RollingCoefficient, "in [0, 1)")
 	case !finite(s.Adhesion) || s.Adhesion < 0 || s.Adhesion > 2:

@@ -38,11 +38,11 @@ func (v Vehicle) Turn(radius units.Length) (TurnGeometry, error) {
 	}
 	tf, tr := float64(v.Front.Track), float64(v.Rear.Track)
 	if tf <= 0 || tr <= 0 {
-		return TurnGeometry{}, rangeErr(ErrInput, "axle track", math.Min(tf, tr), "> 0 on both axles for turning")
+		return TurnGeometry{}, rangeErr(ErrInput, "axle track", units.Length(math.Min(tf, tr)), "> 0 on both axles for turning")
 	}
 	r := float64(radius)
 	if !finite(r) || r <= math.Max(tf, tr)/2 {
-		return TurnGeometry{}, rangeErr(ErrInput, "turn radius", r, "> half the track and finite")
+		return TurnGeometry{}, rangeErr(ErrInput, "turn radius", radius, "> half the track and finite")
 	}
 	l := float64(v.Wheelbase)
 	g := TurnGeometry{

@@ -33,17 +33,17 @@ func (t Tyre) Validate() error {
 		float64(t.RollingRadius), float64(t.Deflection)
 	switch {
 	case !finite(d) || d <= 0:
-		return rangeErr(ErrTyre, "tyre diameter", d, "> 0 and finite")
+		return rangeErr(ErrTyre, "tyre diameter", t.Diameter, "> 0 and finite")
 	case !finite(b) || b <= 0:
-		return rangeErr(ErrTyre, "tyre section width", b, "> 0 and finite")
+		return rangeErr(ErrTyre, "tyre section width", t.Width, "> 0 and finite")
 	case !finite(h) || h <= 0 || h > d/2:
-		return rangeErr(ErrTyre, "tyre section height", h, "> 0 and <= diameter/2")
+		return rangeErr(ErrTyre, "tyre section height", t.SectionHeight, "> 0 and <= diameter/2")
 	case !finite(r) || r <= 0 || r > d/2:
-		return rangeErr(ErrTyre, "tyre rolling radius", r, "> 0 and <= diameter/2")
+		return rangeErr(ErrTyre, "tyre rolling radius", t.RollingRadius, "> 0 and <= diameter/2")
 	case !finite(delta) || delta < 0 || delta >= h:
-		return rangeErr(ErrTyre, "tyre deflection", delta, ">= 0 and < section height")
+		return rangeErr(ErrTyre, "tyre deflection", t.Deflection, ">= 0 and < section height")
 	case !finite(float64(t.RatedLoad)) || t.RatedLoad < 0:
-		return rangeErr(ErrTyre, "tyre rated load", float64(t.RatedLoad), ">= 0 and finite")
+		return rangeErr(ErrTyre, "tyre rated load", t.RatedLoad, ">= 0 and finite")
 	}
 	return nil
 }

@@ -21,10 +21,10 @@ func (a Axle) validate(name string) error {
 		return rangeErr(ErrInput, name+" axle wheel count", float64(a.Wheels), "in [1, 16]")
 	}
 	if t := float64(a.Track); !finite(t) || t < 0 {
-		return rangeErr(ErrInput, name+" axle track", t, ">= 0 and finite")
+		return rangeErr(ErrInput, name+" axle track", a.Track, ">= 0 and finite")
 	}
 	if l := float64(a.MaxLoad); !finite(l) || l < 0 {
-		return rangeErr(ErrInput, name+" axle permissible load", l, ">= 0 and finite (0: not given)")
+		return rangeErr(ErrInput, name+" axle permissible load", a.MaxLoad, ">= 0 and finite (0: not given)")
 	}
 	return nil
 }
@@ -57,19 +57,19 @@ func (v Vehicle) Validate() error {
 	m, l, a := float64(v.Mass), float64(v.Wheelbase), float64(v.CentreOfMass)
 	switch {
 	case !finite(m) || m <= 0:
-		return rangeErr(ErrInput, "vehicle mass", m, "> 0 and finite")
+		return rangeErr(ErrInput, "vehicle mass", v.Mass, "> 0 and finite")
 	case !finite(l) || l <= 0:
-		return rangeErr(ErrInput, "wheelbase", l, "> 0 and finite")
+		return rangeErr(ErrInput, "wheelbase", v.Wheelbase, "> 0 and finite")
 	case !finite(a) || a < 0 || a > l:
-		return rangeErr(ErrInput, "centre of mass ahead of rear axle", a, "in [0, wheelbase]")
+		return rangeErr(ErrInput, "centre of mass ahead of rear axle", v.CentreOfMass, "in [0, wheelbase]")
 	case !finite(float64(v.Hitch.Height)) || v.Hitch.Height < 0:
-		return rangeErr(ErrInput, "hitch height", float64(v.Hitch.Height), ">= 0 and finite")
+		return rangeErr(ErrInput, "hitch height", v.Hitch.Height, ">= 0 and finite")
 	case !finite(float64(v.Hitch.Behind)) || v.Hitch.Behind < 0:
-		return rangeErr(ErrInput, "hitch distance behind rear axle", float64(v.Hitch.Behind), ">= 0 and finite")
+		return rangeErr(ErrInput, "hitch distance behind rear axle", v.Hitch.Behind, ">= 0 and finite")
 	case !finite(float64(v.FittedBallast)) || v.FittedBallast < 0 || v.FittedBallast >= v.Mass:
-		return rangeErr(ErrInput, "fitted ballast", float64(v.FittedBallast), ">= 0 and below the vehicle mass")
+		return rangeErr(ErrInput, "fitted ballast", v.FittedBallast, ">= 0 and below the vehicle mass")
 	case !finite(float64(v.MaxMass)) || v.MaxMass < 0:
-		return rangeErr(ErrInput, "permissible operating mass", float64(v.MaxMass), ">= 0 and finite (0: not given)")
+		return rangeErr(ErrInput, "permissible operating mass", v.MaxMass, ">= 0 and finite (0: not given)")
 	}
 	if err := v.Front.validate("front"); err != nil {
 		return err
@@ -108,16 +108,16 @@ func (v Vehicle) DynamicLoads(pull, implement units.Force) (AxleLoads, error) {
 		return AxleLoads{}, err
 	}
 	if !finite(float64(pull)) || pull < 0 {
-		return AxleLoads{}, rangeErr(ErrInput, "drawbar pull", float64(pull), ">= 0 and finite")
+		return AxleLoads{}, rangeErr(ErrInput, "drawbar pull", pull, ">= 0 and finite")
 	}
 	if !finite(float64(implement)) || implement < 0 {
-		return AxleLoads{}, rangeErr(ErrInput, "implement vertical load", float64(implement), ">= 0 and finite")
+		return AxleLoads{}, rangeErr(ErrInput, "implement vertical load", implement, ">= 0 and finite")
 	}
 	w := float64(v.Weight())
 	wf := (w*float64(v.CentreOfMass) - float64(pull)*float64(v.Hitch.Height) -
 		float64(implement)*float64(v.Hitch.Behind)) / float64(v.Wheelbase)
 	if wf <= 0 {
-		return AxleLoads{}, &RangeError{Quantity: "front axle load", Value: wf, Limit: "> 0", Err: ErrUnstable}
+		return AxleLoads{}, &RangeError{Quantity: "front axle load", Value: units.Of(units.Force(wf)), Limit: "> 0", Err: ErrUnstable}
 	}
 	return AxleLoads{Front: units.Force(wf), Rear: units.Force(w + float64(implement) - wf)}, nil
 }

@@ -195,7 +195,7 @@ func TestBadInput(t *testing.T) {
 		}
 	}
 	var re *traction.RangeError
-	if _, err := w.At(-5, 0.1); !errors.As(err, &re) || re.Value != -5 {
+	if _, err := w.At(-5, 0.1); !errors.As(err, &re) || re.Value.SI != -5 {
 		t.Errorf("RangeError not carried: %v", err)
 	}
 	var pe *traction.PullError

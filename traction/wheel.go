@@ -22,7 +22,7 @@ type Wheel struct {
 // the model accepts them (it is probed at a nominal load).
 func NewWheel(t Tyre, s Surface, m Model) (Wheel, error) {
 	if m == nil {
-		return Wheel{}, rangeErr(ErrInput, "traction model", 0, "not nil")
+		return Wheel{}, rangeErr(ErrInput, "traction model", 0.0, "not nil")
 	}
 	if err := t.Validate(); err != nil {
 		return Wheel{}, err
@@ -58,7 +58,7 @@ func (w Wheel) At(load units.Force, slip float64) (Pull, error) {
 
 func (w Wheel) pull(load units.Force, slip float64) (Pull, error) {
 	if w.model == nil {
-		return Pull{}, rangeErr(ErrInput, "wheel", 0, "built with NewWheel")
+		return Pull{}, rangeErr(ErrInput, "wheel", 0.0, "built with NewWheel")
 	}
 	return w.model.Pull(w.tyre, w.surface, load, slip)
 }
@@ -75,10 +75,10 @@ func (w Wheel) net(load units.Force, slip float64) float64 {
 
 func (w Wheel) check(load units.Force) error {
 	if w.model == nil {
-		return rangeErr(ErrInput, "wheel", 0, "built with NewWheel")
+		return rangeErr(ErrInput, "wheel", 0.0, "built with NewWheel")
 	}
 	if !finite(float64(load)) || load <= 0 {
-		return rangeErr(ErrLoad, "wheel load", float64(load), "> 0 and finite")
+		return rangeErr(ErrLoad, "wheel load", load, "> 0 and finite")
 	}
 	return nil
 }
@@ -106,7 +106,7 @@ func (w Wheel) SlipForPull(load, net units.Force) (Pull, error) {
 		return Pull{}, err
 	}
 	if !finite(float64(net)) {
-		return Pull{}, rangeErr(ErrInput, "required net pull", float64(net), "finite")
+		return Pull{}, rangeErr(ErrInput, "required net pull", net, "finite")
 	}
 	s, err := w.slipForNet(load, float64(net), 0)
 	if err != nil {
@@ -242,7 +242,7 @@ func StateOf(t Tyre, p Pull, wheel units.AngularVelocity) State {
 // it travels at speed v (v >= 0); the wheel speed is ω = v/(r·(1 − s)).
 func (w Wheel) Run(load units.Force, slip float64, v units.Speed) (State, error) {
 	if !finite(float64(v)) || v < 0 {
-		return State{}, rangeErr(ErrInput, "travel speed", float64(v), ">= 0 and finite")
+		return State{}, rangeErr(ErrInput, "travel speed", v, ">= 0 and finite")
 	}
 	p, err := w.At(load, slip)
 	if err != nil {
