@@ -173,8 +173,13 @@ func report(r *demo.Run, sc *design.File, base *design.File, p design.Problem, r
 		}
 	}
 	r.Heading("Exploration")
-	r.Printf("%d candidates (seed %d) over %d parameters in %v on %d cores: %.0f candidates/s; %d feasible.\n",
-		len(rs), seed, p.Space.Free(), explored.Round(time.Millisecond), runtime.GOMAXPROCS(0), float64(len(rs))/explored.Seconds(), feasible)
+	if merge {
+		r.Printf("%d candidates (seed %d) over %d parameters, merged from %d parts; %d feasible.\n",
+			len(rs), seed, p.Space.Free(), parts, feasible)
+	} else {
+		r.Printf("%d candidates (seed %d) over %d parameters in %v on %d cores: %.0f candidates/s; %d feasible.\n",
+			len(rs), seed, p.Space.Free(), explored.Round(time.Millisecond), runtime.GOMAXPROCS(0), float64(len(rs))/explored.Seconds(), feasible)
+	}
 	type tally struct {
 		why string
 		n   int
