@@ -45,3 +45,15 @@ func BenchmarkLoopSolve(b *testing.B) {
 		_, _ = l.Solve(in)
 	}
 }
+
+// BenchmarkLoopAtOverCentre evaluates a loop whose motor has swung over
+// centre (pump turning backwards slowly, as just past a mechanical point).
+func BenchmarkLoopAtOverCentre(b *testing.B) {
+	l := swingLoop(b, SwingUnstated, SwingOverCentre, demoWilson, nil)
+	speeds := []units.AngularVelocity{units.RPM(1500)}
+	var st LoopState
+	b.ReportAllocs()
+	for b.Loop() {
+		_ = l.At(units.RPM(-300), speeds, units.Bar(250), &st)
+	}
+}

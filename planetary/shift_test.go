@@ -215,3 +215,24 @@ func TestPlanetSpeedsAbsolute(t *testing.T) {
 		t.Errorf("absolute planet speeds %v, want -15 rpm", ps)
 	}
 }
+
+func TestGeometryDoublePlanet(t *testing.T) {
+	t.Parallel()
+	// Hand calculation, unshifted pairs: sun 20, inner 18, outer 18, ring
+	// 62: a1 = (20 + 18)/2 = 19, a2 = (62 − 18)/2 = 22, a12 = 18 modules;
+	// clearances 2·19·sin 60° − 20 = 12.909 and 2·22·sin 60° − 20 = 18.105.
+	s := mustNew(t, planetary.Design{Sun: 20, Ring: 62, Planet: 18, Planets: 3, Arrangement: planetary.DoublePlanet})
+	g, err := s.Geometry()
+	if err != nil {
+		t.Fatal(err)
+	}
+	if g.SunPlanet.CentreDistance != 19 || g.PlanetRing.CentreDistance != 22 || g.PlanetPlanet.CentreDistance != 18 {
+		t.Errorf("centre distances %v, %v, %v", g.SunPlanet.CentreDistance, g.PlanetRing.CentreDistance, g.PlanetPlanet.CentreDistance)
+	}
+	if want := 38*math.Sin(math.Pi/3) - 20; !testutil.Close(g.NeighbourClearance, want, 1e-12, 0) {
+		t.Errorf("clearance %v, want %v", g.NeighbourClearance, want)
+	}
+	if g.CoaxialMismatch != 0 || deg(g.PlanetPlanet.WorkingPressureAngle) != 20 {
+		t.Errorf("pairs: mismatch %v, α_w %v°", g.CoaxialMismatch, deg(g.PlanetPlanet.WorkingPressureAngle))
+	}
+}
