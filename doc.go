@@ -190,6 +190,38 @@
 // Solver.Feasible lists the ranges in which a point solves, and Solver.Best
 // solves it in the best by a Policy (default HighestEfficiency).
 //
+// # Load-independent losses
+//
+// The elements' losses above depend on the load. The losses a test bench
+// measures with no load are drag sources: a torque T_d between a shaft and
+// the housing (or across an open clutch) that depends only on speeds and
+// the oil, entered in the shaft's torque balance, Σ port torques + T_d = 0,
+// with its loss T_d·ω ≥ 0 listed by name in State.Drags and included in
+// State.Loss (State.DragLoss), so the power balance still closes. Each is
+// off unless the layout adds it (Builder methods or Layout.WithLosses):
+//
+//	source              model (doc of the type)                              source
+//	bearings            M = 10⁻⁷·f0·(ν·n)^(2/3)·dm³ + f1·P1·dm  [N·mm]         Palmgren (Harris & Kotzalas)
+//	churning, windage   P = 7.37·fg·ν·n³·D^4.7·(…)/(Ag·10²⁶)  [kW]             ISO/TR 14179-1
+//	open plates         T = z·π·μ·Δω·(ro⁴ − ri⁴)/(2h)                          laminar film (Newton)
+//	idle PTO            open plates + bearings while the PTO carries no torque
+//	charge pump         P = p_c·(Q_leak + Q_flush)/η on a named shaft         (leakage from the loop)
+//
+// The charge pump's torque follows the loop's leakage, so it is updated
+// with every evaluation of the loop; the others are fixed once the speeds
+// are known. The oil is the layout's Lubricant (ν and ρ at the operating
+// temperature).
+//
+// # Locked ranges and the mechanical point
+//
+// A range declared locked (Builder.LockedRange, RangeGear.Locked) holds a
+// unit's member with a brake, so its kinematics fix the loop's ratio: the
+// loop is bypassed with its units destroked (settings 0, Δp = 0) and the
+// range runs at the one output speed its input speed gives. An
+// output-coupled split can also run continuously through its mechanical
+// point when its motor swings over centre (hydrostat.SwingOverCentre): see
+// the example through the mechanical point.
+//
 // # Sweeps and maps
 //
 // Layout.Sweep solves over output speed at a given input speed and either
