@@ -219,7 +219,7 @@ func run(r *demo.Run) error {
 	}
 	r.Wrote(files...)
 	path := filepath.Join(r.Out, "traction.csv")
-	if err := writeCSV(path, curves); err != nil {
+	if err := writeCSV(path, sc.Name, speed, curves); err != nil {
 		return err
 	}
 	r.Wrote(path)
@@ -283,17 +283,17 @@ func scale(xs []float64, k float64) []float64 {
 	return out
 }
 
-func writeCSV(path string, curves []curve) error {
+func writeCSV(path, design string, speed units.Speed, curves []curve) error {
 	f, err := os.Create(path)
 	if err != nil {
 		return err
 	}
 	w := csv.NewWriter(f)
-	_ = w.Write([]string{"soil", "pull_kN", "rear_slip", "tractive_efficiency"})
+	_ = w.Write([]string{"design", "soil", "speed_kmh", "pull_kN", "rear_slip_pct", "tractive_efficiency_pct"})
 	for _, c := range curves {
 		for i := range c.pull {
-			_ = w.Write([]string{c.name, strconv.FormatFloat(c.pull[i], 'g', 6, 64),
-				strconv.FormatFloat(c.slip[i], 'g', 6, 64), strconv.FormatFloat(c.efficiency[i], 'g', 6, 64)})
+			_ = w.Write([]string{design, c.name, strconv.FormatFloat(speed.KMH(), 'g', 6, 64), strconv.FormatFloat(c.pull[i], 'g', 6, 64),
+				strconv.FormatFloat(100*c.slip[i], 'g', 6, 64), strconv.FormatFloat(100*c.efficiency[i], 'g', 6, 64)})
 		}
 	}
 	w.Flush()
