@@ -436,7 +436,20 @@ func checkSplit(input, pump, motor, eff float64, loop hydrostat.Loop, second *Se
 	return c, orDefault(eff, DefaultGearEfficiency)
 }
 
-// OutputCoupled builds an output-coupled split from spec. The motor may turn
+// OutputCoupled builds an output-coupled split from spec. The layout, with
+// the default members (carrier on the engine, sun to the pump, ring the
+// summing shaft):
+//
+//	engine ─[InputRatio]─ carrier ─┐
+//	                               ├─ planetary set
+//	pump ─[PumpRatio]───── sun ────┤
+//	  ║                            └─ ring = summing shaft ─┬─[range gear]─ clutch ─ output
+//	  ║ high and low lines                                  │
+//	  ╚══ motor ─[MotorRatio]───────────────────────────────┘
+//
+// (a FromVariator range gear starts from the sun instead of the ring).
+//
+// The motor may turn
 // either way, so the hydrostat gives reverse without a reverse gear. At the
 // mechanical point the pump shaft stands still and the motor must swing back
 // to zero displacement: with a schedule that keeps a minimum motor setting
@@ -474,7 +487,19 @@ func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
 	return b.Build()
 }
 
-// InputCoupled builds an input-coupled split from spec.
+// InputCoupled builds an input-coupled split from spec. The layout, with
+// the default members (ring on the engine, sun to the motor, carrier the
+// summing shaft):
+//
+//	engine ─┬─[InputRatio]─ ring ─────────────┐
+//	        │                                 ├─ planetary set
+//	        │     motor ─[MotorRatio]─ sun ───┤
+//	        │       ║                         └─ carrier = summing shaft ─[range gear]─ clutch ─ output
+//	        │       ║ high and low lines
+//	        └─[PumpRatio]─ pump
+//
+// (a FromVariator range gear starts from the sun: a purely hydrostatic
+// range).
 func InputCoupled(spec InputCoupledSpec) (Layout, error) {
 	c, eta := checkSplit(spec.InputRatio, spec.PumpRatio, spec.MotorRatio, spec.GearEfficiency, spec.Loop, spec.Second)
 	if c.err != nil {
@@ -507,7 +532,12 @@ func InputCoupled(spec InputCoupledSpec) (Layout, error) {
 	return b.Build()
 }
 
-// PureHydrostatic builds a hydrostatic drive from spec. With spec.Second set
+// PureHydrostatic builds a hydrostatic drive from spec. The layout:
+//
+//	engine ──[PumpRatio]── pump ── high / low lines ──┬── motor ──[range gear]──clutch── output
+//	                                                  └── second motor ──clutch──[Second.Ratio]── second output (optional)
+//
+// With spec.Second set
 // the loop needs two motors and every range comes twice: name (both motors,
 // usable up to Second.DeclutchAbove of the first output) and name+" single"
 // (second motor declutched and held by its brake). The second axle is a

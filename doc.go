@@ -143,10 +143,20 @@
 //	output-coupled:  P_h/P_in = 1 − ν/ν_M        (motor on the output: ν_m = 0)
 //	input-coupled:   P_h/P_in = 1 − ν_M/ν        (pump on the input: ν_p → ∞)
 //
-// (Kress 1968, SAE 680549; Renius & Resch 2005, ASAE Distinguished Lecture
-// 29; Linares, Méndez & Macor 2010, J. Terramechanics 47), and in general
+// (J. H. Kress, Hydrostatic power-splitting transmissions for wheeled
+// vehicles: classification and theory of operation, SAE paper 680549,
+// 1968; K. Th. Renius and R. Resch, Continuously variable tractor
+// transmissions, ASAE Distinguished Lecture Series No. 29, 2005;
+// P. Linares, V. Méndez and A. Macor, Design parameters for continuously
+// variable power-split transmissions using planetaries with 3 active
+// shafts, Journal of Terramechanics 47, 2010; from memory), and in general
 // P_h/P_in = d ln ν / d ln r with r = ωmotor/ωpump, the sensitivity of the
-// overall ratio to the variator's ratio (Proc. IMechE Part D 205, 1991).
+// overall ratio to the variator's ratio. That identity follows from the
+// lossless power balance of a one-degree-of-freedom network (the variator's
+// power is its torque times the change of speed its ratio makes); a general
+// proof by matrix algebra is published in Proceedings of the IMechE, Part
+// D, vol. 205, 1991, doi:10.1243/PIME_PROC_1991_205_151_02 (read: its
+// abstract only; its authors and title are not checked here).
 // At a mechanical point the share is zero and the transmission is purely
 // mechanical: its efficiency is the product of the gear and planetary
 // efficiencies on the mechanical path. The tests check all of this on every
