@@ -3,6 +3,7 @@ package design
 import (
 	"fmt"
 	"math"
+	"reflect"
 	"time"
 
 	"github.com/powersplit-dev/powersplit/units"
@@ -31,7 +32,8 @@ func Spectrum(cycle []vehicle.Segment) ([]SpectrumPoint, error) {
 	var out []SpectrumPoint
 	add := func(name string, d vehicle.Demand, seconds float64) {
 		for i := range out {
-			if out[i].Demand == d {
+			// DeepEqual: a user's Traction may hold slices, where == panics.
+			if reflect.DeepEqual(out[i].Demand, d) {
 				out[i].Time += time.Duration(math.Round(seconds * 1e9))
 				return
 			}
