@@ -29,8 +29,11 @@ func TestBrentPublished(t *testing.T) {
 		// Hand calculation: a root at an end point is returned exactly.
 		{"endpoint", func(x float64) float64 { return x - 1 }, 1, 5, 1, 0},
 		// Hand calculation: a flat-then-steep function (x−1)^9 needs the
-		// bisection fallback.
-		{"steep", func(x float64) float64 { return math.Pow(x-1, 9) }, 0, 3, 1, 2e-2},
+		// bisection fallback. Its sign changes exactly at 1 (every float64
+		// x < 1 gives a negative value, none underflows to zero before
+		// |x − 1| < 1e-35), so the root is 1 to Brent's own tolerance,
+		// 2·eps·|x| = 4.4e-16.
+		{"steep", func(x float64) float64 { return math.Pow(x-1, 9) }, 0, 3, 1, 5e-16},
 	}
 	for _, c := range cases {
 		t.Run(c.name, func(t *testing.T) {
