@@ -40,6 +40,41 @@ import (
 // closing. So every error comes from the general path, and the results of
 // both paths agree to rounding (TestPropertyCompiledMatchesGeneral).
 
+// elemC is what the hot path reads of an element, compact: the element
+// values themselves are large (a loop's spec, a set), and reading a few
+// numbers from each costs a cache line apiece.
+type elemC struct {
+	kind    Kind
+	index   int32
+	port0   int32
+	a, b, c int32   // the shafts of the first three ports, −1 where none
+	eta     float64 // gear: mesh efficiency; planetary: basic efficiency
+}
+
+// initElemC fills the solver's compact view of the elements.
+func (s *Solver) initElemC() {
+	l := s.l
+	s.ec = make([]elemC, len(l.elems))
+	for i := range l.elems {
+		e := &l.elems[i]
+		c := elemC{kind: e.kind, index: int32(e.index), port0: int32(e.port0), a: -1, b: -1, c: -1, eta: e.eta}
+		for k, sh := range e.shafts {
+			switch k {
+			case 0:
+				c.a = int32(sh)
+			case 1:
+				c.b = int32(sh)
+			case 2:
+				c.c = int32(sh)
+			}
+		}
+		if e.kind == PlanetaryKind {
+			c.eta = e.set.BasicEfficiency()
+		}
+		s.ec[i] = c
+	}
+}
+
 // maxPasses is the most direction sets the compiled path tries for a point.
 const maxPasses = 4
 
@@ -269,12 +304,12 @@ func (s *Solver) readDirections() bool {
 	l := s.l
 	changed := false
 	for _, gi := range l.gears {
-		e := &l.elems[gi]
+		e := &s.ec[gi]
 		if e.eta == 1 {
 			continue
 		}
-		pa := s.t[e.port0] * s.w[e.shafts[0]]
-		pb := s.t[e.port0+1] * s.w[e.shafts[1]]
+		pa := s.t[e.port0] * s.w[e.a]
+		pb := s.t[e.port0+1] * s.w[e.b]
 		scale := math.Abs(pa) + math.Abs(pb)
 		k := s.gearK[e.index]
 		switch {
@@ -290,8 +325,8 @@ func (s *Solver) readDirections() bool {
 		}
 	}
 	for _, pi := range l.planets {
-		e := &l.elems[pi]
-		f := planetFlow(s, e)
+		e := &s.ec[pi]
+		f := s.planetFlow(e)
 		if f != s.pflow[e.index] {
 			s.pflow[e.index] = f
 			changed = true
@@ -302,8 +337,8 @@ func (s *Solver) readDirections() bool {
 
 // planetFlow returns the direction of the rolling power of set e read off
 // the solver's torques and speeds (−1: turning as a block, lossless).
-func planetFlow(s *Solver, e *element) int8 {
-	ws, wr, wc := s.w[e.shafts[0]], s.w[e.shafts[1]], s.w[e.shafts[2]]
+func (s *Solver) planetFlow(e *elemC) int8 {
+	ws, wr, wc := s.w[e.a], s.w[e.b], s.w[e.c]
 	rel := ws - wc
 	wmax := maxAbs(maxAbs(math.Abs(ws), wr), wc)
 	roll := s.t[e.port0] * rel

@@ -71,6 +71,7 @@ type Solver struct {
 	noFactor  bool      // tests: always solve by full LU
 	general   bool      // the general path only (tests and benchmarks: today's path)
 	comp      compiledState
+	ec        []elemC // per element: what the hot path reads (compiled.go)
 	compErr   error // the error of the last point solved on the compiled path
 
 	// Drag sources (drag.go): torque per source, the shafts' right-hand
@@ -140,6 +141,7 @@ func NewSolver(l Layout) *Solver {
 	s.dpPrev = make([]float64, len(ly.loops))
 	s.havePrev, s.prevDp = make([]bool, len(ly.loops)), make([]float64, len(ly.loops))
 	s.initCache()
+	s.initElemC()
 	s.initCompiled()
 	s.general = ly.general || solvepath.General.Load()
 	s.prevT = make([]float64, s.nU)
@@ -1106,7 +1108,7 @@ func (s *Solver) directions(it int) bool {
 	}
 	for _, pi := range l.planets {
 		e := &l.elems[pi]
-		f := planetFlow(s, e)
+		f := s.planetFlow(&s.ec[pi])
 		if f != s.pflow[e.index] {
 			if s.pflip[e.index] < maxFlips {
 				s.pflow[e.index] = f

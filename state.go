@@ -239,8 +239,7 @@ func (s *Solver) portTorque(k, torques int) float64 {
 // elemLoss returns the loss of element i at the solver's last solution and,
 // for a planetary set, the direction of its rolling power.
 func (s *Solver) elemLoss(i, torques int) (float64, planetary.Flow) {
-	l := s.l
-	e := &l.elems[i]
+	e := &s.ec[i]
 	if torques == 0 {
 		return 0, 0
 	}
@@ -248,18 +247,17 @@ func (s *Solver) elemLoss(i, torques int) (float64, planetary.Flow) {
 	case GearKind:
 		switch k := s.gearK[e.index]; {
 		case k < 1:
-			return pos((1 - e.eta) * (s.portTorque(e.port0, 1) * s.w[e.shafts[0]])), 0
+			return pos((1 - e.eta) * (s.portTorque(int(e.port0), 1) * s.w[e.a])), 0
 		case k > 1:
-			return pos((1 - e.eta) * (s.portTorque(e.port0+1, 1) * s.w[e.shafts[1]])), 0
+			return pos((1 - e.eta) * (s.portTorque(int(e.port0)+1, 1) * s.w[e.b])), 0
 		}
 	case PlanetaryKind:
-		roll := s.portTorque(e.port0, 1) * (s.w[e.shafts[0]] - s.w[e.shafts[2]])
-		eta := e.set.BasicEfficiency()
+		roll := s.portTorque(int(e.port0), 1) * (s.w[e.a] - s.w[e.c])
 		switch s.pflow[e.index] {
 		case 0:
-			return pos(roll * (1 - eta)), planetary.SunDrives
+			return pos(roll * (1 - e.eta)), planetary.SunDrives
 		case 1:
-			return pos(roll * (1 - 1/eta)), planetary.RingDrives
+			return pos(roll * (1 - 1/e.eta)), planetary.RingDrives
 		}
 	case LoopKind:
 		return pos(float64(s.loopA[e.index].Loss)), 0
@@ -275,10 +273,10 @@ func (s *Solver) summary(st *State, p Point, r *rangeDef, iters int, torques int
 	st.Range, st.RangeName = p.Range, r.name
 	st.Iterations = iters
 	flow := func(i int) FlowState {
-		e := &l.elems[i]
-		w := s.w[e.shafts[0]]
-		t := s.portTorque(e.port0, torques)
-		return FlowState{Name: e.name, Speed: units.AngularVelocity(w), Torque: units.Torque(t), Power: units.Power(t * w)}
+		e := &s.ec[i]
+		w := s.w[e.a]
+		t := s.portTorque(int(e.port0), torques)
+		return FlowState{Name: l.elems[i].name, Speed: units.AngularVelocity(w), Torque: units.Torque(t), Power: units.Power(t * w)}
 	}
 	in := flow(l.input)
 	st.InputSpeed = in.Speed
@@ -293,13 +291,16 @@ func (s *Solver) summary(st *State, p Point, r *rangeDef, iters int, torques int
 		st.PTOs[k] = flow(pi)
 		st.PTOPower += st.PTOs[k].Power
 	}
-	for i := range l.elems {
+	for i := range s.ec {
 		if torques == 0 {
 			break
 		}
+		if k := s.ec[i].kind; k != GearKind && k != PlanetaryKind && k != LoopKind {
+			continue // no loss
+		}
 		loss, _ := s.elemLoss(i, torques)
 		st.Loss += units.Power(loss)
-		if l.elems[i].kind == LoopKind {
+		if s.ec[i].kind == LoopKind {
 			st.HydrostatLoss += units.Power(loss)
 		}
 	}
