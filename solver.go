@@ -50,6 +50,7 @@ type Solver struct {
 	scratch  State
 	bad      Margin // the first infeasible margin of the last fill (margins)
 	hasBad   bool
+	room     float64 // the binding margin's room so far, relative (margins)
 
 	// The factored torque systems (see factor.go) and the work space of
 	// their solve.

@@ -505,59 +505,64 @@ func (s *Solver) margins(st *State, known bool) {
 	if !known {
 		return
 	}
-	room := math.Inf(1)
-	add := func(m Margin) {
-		if !st.Brief {
-			st.Margins = append(st.Margins, m)
-		}
-		if m.Unchecked {
-			return
-		}
-		if m.Bound == boundRated {
-			if m.Crossed() {
-				st.Flags = append(st.Flags, m)
-			}
-			return // a rating is a flag, not a limit
-		}
-		if r := (m.Limit.SI - m.Value.SI) / m.Limit.SI; r < room { // Left, without its kind check
-			room, st.Binding = r, m
-		}
-		if !s.hasBad && m.Crossed() {
-			s.bad, s.hasBad = m, true
-		}
-	}
+	s.room = math.Inf(1)
+	const w, pa = units.AngularVelocityKind, units.PressureKind
 	if r := &l.ranges[st.Range]; r.maxOut > 0 {
-		add(Margin{Element: r.name, Quantity: "output speed", Value: measure(math.Abs(s.outW[0]), units.AngularVelocityKind),
-			Bound: boundRangeSpeed, Limit: measure(r.maxOut, units.AngularVelocityKind)})
+		s.margin(st, r.name, "output speed", boundRangeSpeed, math.Abs(s.outW[0]), r.maxOut, w, false)
 	}
 	for j, e := range l.loops {
 		el := &l.elems[e]
 		spec := &el.lspec
 		ls := &st.Loops[j]
 		high := float64(spec.Charge) + math.Abs(float64(ls.Pressure))
-		add(Margin{Element: el.name, Quantity: "high-line pressure", Value: measure(high, units.PressureKind),
-			Bound: boundRelief, Limit: measure(float64(spec.Relief), units.PressureKind), Unchecked: spec.Relief <= 0})
-		dp := measure(math.Abs(float64(ls.Pressure)), units.PressureKind)
+		s.margin(st, el.name, "high-line pressure", boundRelief, high, float64(spec.Relief), pa, spec.Relief <= 0)
+		dp := math.Abs(float64(ls.Pressure))
 		for k := range el.shafts {
 			pt := &ls.Pump
 			if k > 0 {
 				pt = &ls.Motors[k-1]
 			}
 			us := &el.uspec[k]
-			add(Margin{Element: el.name, Quantity: el.unames[k][0], Value: dp, Bound: boundRated,
-				Limit: measure(float64(us.RatedPressure), units.PressureKind), Unchecked: us.RatedPressure <= 0})
-			add(Margin{Element: el.name, Quantity: el.unames[k][0], Value: dp, Bound: boundPeak,
-				Limit: measure(float64(us.PeakPressure), units.PressureKind), Unchecked: us.PeakPressure <= 0})
-			add(Margin{Element: el.name, Quantity: el.unames[k][1], Value: measure(math.Abs(float64(pt.Speed)), units.AngularVelocityKind),
-				Bound: boundSpeed, Limit: measure(float64(us.MaxSpeed), units.AngularVelocityKind), Unchecked: us.MaxSpeed <= 0})
-			add(Margin{Element: el.name, Quantity: el.unames[k][2], Value: units.Plain(math.Abs(pt.Setting)),
-				Bound: boundFull, Limit: units.Plain(1)})
+			s.margin(st, el.name, el.unames[k][0], boundRated, dp, float64(us.RatedPressure), pa, us.RatedPressure <= 0)
+			s.margin(st, el.name, el.unames[k][0], boundPeak, dp, float64(us.PeakPressure), pa, us.PeakPressure <= 0)
+			s.margin(st, el.name, el.unames[k][1], boundSpeed, math.Abs(float64(pt.Speed)), float64(us.MaxSpeed), w, us.MaxSpeed <= 0)
+			s.margin(st, el.name, el.unames[k][2], boundFull, math.Abs(pt.Setting), 1, units.Number, false)
 		}
 	}
 }
 
-// measure is units.Of for a known kind, without its type switch (margins
-// builds several for every point).
+// margin takes one margin into st: listed unless st is Brief, flagged when
+// a crossed rating, the binding one when it has the least room so far
+// (s.room), and kept for limits when it is the first crossed limit. The
+// Margin value is built only where it is kept (a Brief State keeps one or
+// two of them a point).
+func (s *Solver) margin(st *State, elem, quantity, bound string, value, limit float64, kind units.Kind, unchecked bool) {
+	mk := func() Margin {
+		return Margin{Element: elem, Quantity: quantity, Value: measure(value, kind), Bound: bound, Limit: measure(limit, kind), Unchecked: unchecked}
+	}
+	if !st.Brief {
+		st.Margins = append(st.Margins, mk())
+	}
+	if unchecked {
+		return
+	}
+	left := limit - value
+	crossed := left < -1e-12*limit // Margin.Crossed
+	if bound == boundRated {
+		if crossed {
+			st.Flags = append(st.Flags, mk())
+		}
+		return // a rating is a flag, not a limit
+	}
+	if r := left / limit; r < s.room {
+		s.room, st.Binding = r, mk()
+	}
+	if !s.hasBad && crossed {
+		s.bad, s.hasBad = mk(), true
+	}
+}
+
+// measure is units.Of for a known kind, without its type switch.
 func measure(v float64, k units.Kind) units.Measure { return units.Measure{SI: v, Kind: k} }
 
 // limits returns a *LimitError for the first infeasible margin that
