@@ -73,7 +73,7 @@ type Solver struct {
 	general   bool      // the general path only (tests and benchmarks: today's path)
 	comp      compiledState
 	ec        []elemC // per element: what the hot path reads (compiled.go)
-	compErr   error // the error of the last point solved on the compiled path
+	compErr   error   // the error of the last point solved on the compiled path
 
 	// Drag sources (drag.go): torque per source, the shafts' right-hand
 	// sides −Σ T_d, and the work space of their share of the solution.
