@@ -405,7 +405,11 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 
 	// Engine. Driven by the load (et < 0), it is motored: it absorbs its
 	// motoring torque at most (the brakes took the rest above) and burns
-	// no fuel (fuel cut-off in overrun).
+	// no fuel.
+	// Common practice (no published source): electronically governed
+	// diesels cut injection entirely while the load drives them above
+	// idle speed (overrun fuel cut-off); the fuel map, measured with the
+	// engine driving, says nothing about this range.
 	et := driveTorque + ptoTorque
 	max, err := v.s.Engine.MaxTorque(w)
 	if err != nil {
