@@ -185,6 +185,28 @@
 // two mechanical points is composed from the public elements in the
 // package example.
 //
+// # A second motor on an axle of its own
+//
+// OutputCoupled, InputCoupled and PureHydrostatic take a SecondMotor: a
+// second motor of the same loop on an output of its own ("axle 2", a
+// FreeOutput), for example a front axle. Both motors see the one loop
+// pressure Δp, so with ideal units each output's torque is its motor's
+// x·D·Δp through its gear; the front output's torque is solved, not
+// given. Every range comes twice: with the motor clutched in, up to the
+// declutch speed of the first output (a range speed limit, reported in
+// State.Margins), and as name+" single" with the motor declutched, braked
+// still and held at zero setting (no torque, no drag); the pair shares
+// the first output's kinematics, so the change between them is
+// synchronous.
+//
+// The second motor's setting is the layout's SettingCurve of the first
+// output's speed (swing back with travel speed, then declutch), a
+// MotorSetting in the Point, or the one Solver.BestSetting finds for the
+// least State.Loss plus a loss outside the layout (the tyres' slip, which
+// the vehicle knows). With a motor held, the loop's other settings follow
+// hydrostat.Pinned. Solver.SolveTotal meets a total of the outputs'
+// torques (a tractive force) instead of the first output's torque.
+//
 // # Range logic
 //
 // Solver.Interval gives the output speeds a range reaches at an input speed

@@ -335,3 +335,30 @@ func TestPropertyFrontMotorConservation(t *testing.T) {
 		solved++
 	})
 }
+
+// FuzzSolveTotal: any total, weights, speeds and held setting give an error
+// or a finite state, never a panic or NaN.
+func FuzzSolveTotal(f *testing.F) {
+	f.Add(2000.0, 1.0, 0.8, 250.0, 260.0, 0.5, 1800.0)
+	f.Add(-500.0, 1.0, 0.0, -100.0, 0.0, -1.0, 900.0)
+	f.Add(1e30, 0.0, 1.0, 1e9, 1.0, 2.0, 0.0)
+	l := ocFront(f, 0.98, 0.97, true, SettingCurve{})
+	f.Fuzz(func(t *testing.T, total, w0, w1, rearRPM, frontRPM, x2, engineRPM float64) {
+		s := NewSolver(l)
+		var st State
+		p := Point{Input: units.RPM(engineRPM), Outputs: []OutputDemand{{Speed: units.RPM(rearRPM)}, {Speed: units.RPM(frontRPM)}},
+			Settings: []MotorSetting{{Loop: 0, Motor: 1, Setting: x2}}}
+		err := s.SolveTotal(p, TotalDemand{Torque: units.NewtonMetres(total), Weights: []float64{w0, w1}}, &st)
+		if err != nil {
+			return
+		}
+		for _, o := range st.Outputs {
+			if bad(float64(o.Torque)) || bad(float64(o.Power)) {
+				t.Fatalf("non-finite output %+v", o)
+			}
+		}
+		if bad(float64(st.InputPower)) || bad(float64(st.Loss)) {
+			t.Fatalf("non-finite state: in %v loss %v", st.InputPower, st.Loss)
+		}
+	})
+}

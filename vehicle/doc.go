@@ -80,6 +80,26 @@
 // a PTO speed demand. Vehicle.At solves one engine speed and range and is
 // the primitive they share.
 //
+// # Two axles at their own speeds
+//
+// A FrontMotorDrive (an AxleTransmission, built by FromFrontMotorLayout from
+// a layout with a powersplit.SecondMotor) drives the front axle by a second
+// motor of the loop. With Tyres as the ground, Vehicle.At then solves each
+// axle's slip from its own pull: the front axle's net pull N_f is found so
+// that the torque the transmission gives the front wheels equals the torque
+// their slip needs, with k·N_f + N_r = pull, where k is the front axle's
+// travel speed over the rear's (1 straight ahead, in a turn of radius R the
+// Ackermann relation of traction.Vehicle.Turn). The transmission gets both
+// axles' speeds and the rear's torque and returns the front's. The front
+// motor's setting is the layout's curve of travel speed (FrontSchedule) or
+// the setting of least engine power at each point (FrontLeastPower). A
+// mechanical front drive at a fixed lead runs turns through
+// traction.Vehicle.FixedRatioTurn (Demand.TurnRadius, Segment.TurnRadius):
+// the wind-up shows as Flows.Circulating. Flows and Audit split the slip
+// loss between the axles (FrontSlip, RearSlip). Downhill with both axles
+// driven, the brakes take what the rear wheels give back (no engine
+// braking on this path).
+//
 // # Duty cycles and the energy audit
 //
 // Simulate runs a day of Segments — FieldPass, HeadlandTurn, RoadTransfer
