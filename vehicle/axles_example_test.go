@@ -34,7 +34,9 @@ func ExampleFromFrontMotorLayout() {
 		log.Fatal(err)
 	}
 	const rearFD, frontFD = 13.6, 60.0
-	rearOut := func(kmh float64) units.AngularVelocity { return units.AngularVelocity(rearFD * float64(units.KMH(kmh)) / 0.88) }
+	rearOut := func(kmh float64) units.AngularVelocity {
+		return units.AngularVelocity(rearFD * float64(units.KMH(kmh)) / 0.88)
+	}
 	layout, err := powersplit.InputCoupled(powersplit.InputCoupledSpec{Set: set, Loop: loop, PumpRatio: 1.1,
 		Ranges: []powersplit.RangeGear{{Name: "field", Ratio: 0.174}},
 		Second: &powersplit.SecondMotor{Ratio: 1, DeclutchAbove: rearOut(13),
