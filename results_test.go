@@ -58,8 +58,22 @@ func TestCellCarriesUnitState(t *testing.T) {
 		if c.HighPressure <= 0 || math.Abs(float64(c.HighPressure)) < math.Abs(float64(c.Pressure)) {
 			t.Errorf("high-line pressure %v below the loop's difference %v", c.HighPressure, c.Pressure)
 		}
+		if c.Binding.Limit.SI <= 0 {
+			t.Fatalf("at %v: no binding margin in the cell", sw.Speeds[i])
+		}
+		if c.Binding.Element != st.Binding.Element || c.Binding.Quantity != st.Binding.Quantity ||
+			!testutil.Close(c.Binding.Value.SI, st.Binding.Value.SI, 1e-9, 1e-12) {
+			t.Errorf("at %v: cell binds on %s %s, the full state on %s %s", sw.Speeds[i],
+				c.Binding.Element, c.Binding.Quantity, st.Binding.Element, st.Binding.Quantity)
+		}
+		// No margin that makes a point infeasible has less room (the rated
+		// pressures are flags, not bounds).
+		room := c.Binding.Left().SI / c.Binding.Limit.SI
 		for _, m := range st.Margins {
-			if !m.Unchecked && m.Limit.SI > 0 && m.Left().SI/m.Limit.SI < c.Binding.Left().SI/c.Binding.Limit.SI {
+			if m.Unchecked || m.Limit.SI <= 0 || m.Bound == "rated pressure" {
+				continue
+			}
+			if m.Left().SI/m.Limit.SI < room-1e-12 {
 				t.Errorf("at %v: margin %s %s has less room than the binding %s %s", sw.Speeds[i], m.Element, m.Quantity, c.Binding.Element, c.Binding.Quantity)
 			}
 		}

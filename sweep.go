@@ -38,7 +38,8 @@ type Cell struct {
 	PumpSetting  float64
 	MotorSetting float64
 	// Binding is the margin with the least room left relative to its
-	// limit (the limit nearest to being crossed); zero without a loop.
+	// limit (the limit nearest to being crossed, State.Binding); zero
+	// without a loop.
 	Binding Margin
 }
 
@@ -222,24 +223,8 @@ func solveCell(s *Solver, st *State, q *Point, rg int, pol Policy) Cell {
 			c.MotorSetting, c.MotorSpeed = lp.Motors[0].Setting, lp.Motors[0].Speed
 		}
 	}
-	c.Binding = binding(st.Margins)
+	c.Binding = st.Binding
 	return c
-}
-
-// binding returns the margin with the least room left relative to its
-// limit, or the zero Margin when there is none.
-func binding(ms []Margin) Margin {
-	var b Margin
-	best := math.Inf(1)
-	for _, m := range ms {
-		if m.Unchecked || m.Limit.SI <= 0 {
-			continue
-		}
-		if r := m.Left().SI / m.Limit.SI; r < best {
-			b, best = m, r
-		}
-	}
-	return b
 }
 
 func (l Layout) point(in units.AngularVelocity, pto []units.Torque) Point {
