@@ -2,6 +2,7 @@ package design
 
 import (
 	"bytes"
+	"encoding/json"
 	"math"
 	"strings"
 	"testing"
@@ -71,5 +72,50 @@ func TestCheckReport(t *testing.T) {
 	var buf bytes.Buffer
 	if err := rep.WriteText(&buf); err != nil || !strings.Contains(buf.String(), "FAILED") {
 		t.Errorf("WriteText: %v, %q", err, buf.String())
+	}
+}
+
+// reversingSplit is an output-coupled split whose field and road ranges
+// reach a little reverse speed at rated engine speed (invented data).
+const reversingSplit = `{"name": "three-range output-coupled split, synchronous shifts", "kind": "output-coupled", "set": {"fixedCarrierRatio": -2.5, "basicEfficiency": 0.98}, "pumpRatio": 0.38, "motorRatio": 0.84, "pump": {"displacement": "110 cm³/rev", "maxSpeed": "3000 rpm", "ratedPressure": "420 bar", "peakPressure": "480 bar"}, "motor": {"displacement": "110 cm³/rev", "maxSpeed": "3200 rpm", "ratedPressure": "420 bar", "peakPressure": "480 bar"}, "losses": {"slip": 1e-09, "viscous": 200000.0, "friction": 0.01, "constantPressure": "1 bar"}, "oil": "VG46", "oilTemperature": "60 °C", "charge": "20 bar", "relief": "450 bar", "ranges": [{"name": "field", "ratio": 0.328}, {"name": "work", "ratio": 0.104, "fromVariator": true}, {"name": "road", "ratio": 1.0}], "gearEfficiency": 0.985, "noLoad": {"note": "Invented but typical values for a transmission of this size, not taken from any machine: bearing sizes and Palmgren factors of oil-bath roller bearings, dip factors of splash-lubricated wheels, plate packs of wet range clutches, a gear charge pump with a flushing flow; the PTO clutch plates and bearings of \"pto.idle\" likewise.", "oil": "VG46", "temperature": "70 °C", "bearings": [{"name": "input shaft bearings", "shaft": "engine", "meanDiameter": "85 mm", "f0": 2, "f1": 0.0003, "load": "4 kN", "count": 2}, {"name": "sun shaft bearings", "shaft": "planetary sun", "meanDiameter": "70 mm", "f0": 2, "f1": 0.0003, "load": "3 kN", "count": 2}, {"name": "pump drive bearings", "shaft": "pump", "meanDiameter": "60 mm", "f0": 2, "f1": 0.0003, "load": "3 kN", "count": 2}, {"name": "motor drive bearings", "shaft": "motor", "meanDiameter": "60 mm", "f0": 2, "f1": 0.0003, "load": "3 kN", "count": 2}, {"name": "summing shaft bearings", "shaft": "sum", "meanDiameter": "110 mm", "f0": 3, "f1": 0.0004, "load": "10 kN", "count": 2}, {"name": "output shaft bearings", "shaft": "output", "meanDiameter": "130 mm", "f0": 3, "f1": 0.0004, "load": "20 kN", "count": 2}, {"name": "field gear bearings", "shaft": "field gear shaft", "meanDiameter": "90 mm", "f0": 2, "f1": 0.0003, "load": "5 kN", "count": 2}, {"name": "work gear bearings", "shaft": "work gear shaft", "meanDiameter": "90 mm", "f0": 2, "f1": 0.0003, "load": "5 kN", "count": 2}, {"name": "road gear bearings", "shaft": "road gear shaft", "meanDiameter": "90 mm", "f0": 2, "f1": 0.0003, "load": "5 kN", "count": 2}], "churning": [{"name": "summing shaft wheel", "shaft": "sum", "diameter": "260 mm", "faceWidth": "40 mm", "module": "4 mm", "helixAngle": "20°", "dip": 0.05}, {"name": "planet carrier", "shaft": "engine", "diameter": "240 mm", "sides": true, "dip": 0.05}, {"name": "output wheel", "shaft": "output", "diameter": "330 mm", "faceWidth": "45 mm", "module": "5 mm", "helixAngle": "20°", "dip": 0.15}], "plates": [{"name": "field clutch plates", "clutch": "field clutch", "films": 8, "inner": "75 mm", "outer": "100 mm", "clearance": "0.3 mm"}, {"name": "work clutch plates", "clutch": "work clutch", "films": 8, "inner": "75 mm", "outer": "100 mm", "clearance": "0.3 mm"}, {"name": "road clutch plates", "clutch": "road clutch", "films": 8, "inner": "75 mm", "outer": "100 mm", "clearance": "0.3 mm"}], "chargePump": {"shaft": "engine", "flushing": "10 L/min", "efficiency": 0.8}}}`
+
+// TestReverseSpeed: a reverse speed requirement is met up to the reverse
+// speed the ranges reach, and missed beyond it.
+func TestReverseSpeed(t *testing.T) {
+	t.Parallel()
+	f, err := Load("testdata/tractor.json")
+	if err != nil {
+		t.Fatal(err)
+	}
+	var tr Transmission
+	if err := json.Unmarshal([]byte(reversingSplit), &tr); err != nil {
+		t.Fatal(err)
+	}
+	rep, err := f.Check(tr, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	reach := 0.0
+	for _, iv := range rep.Intervals {
+		if iv.Feasible {
+			reach = math.Max(reach, -iv.Lo.KMH())
+		}
+	}
+	if reach <= 0.5 {
+		t.Fatalf("the test split reaches %.3g km/h in reverse; it should reach some", reach)
+	}
+	for _, c := range []struct {
+		want units.Speed
+		met  bool
+	}{{units.KMH(reach * 0.9), true}, {units.KMH(reach * 1.1), false}} {
+		rep, err := f.Check(tr, &Requirements{ReverseSpeed: c.want})
+		if err != nil {
+			t.Fatal(err)
+		}
+		got := rep.Checks[0]
+		// Hand check: margin = reached / wanted − 1.
+		if got.Met != c.met || math.Abs(got.Margin-(reach/c.want.KMH()-1)) > 1e-9 {
+			t.Errorf("reverse %.3g km/h (reach %.3g): met %v margin %.4g; want %v, %.4g", c.want.KMH(), reach, got.Met, got.Margin, c.met, reach/c.want.KMH()-1)
+		}
 	}
 }
