@@ -26,14 +26,17 @@ import (
 //
 // X the row of the pressure in W and H. The hydrostat gives τ and its exact
 // slope τ′ (hydrostat.Curve), so Newton's method converges quadratically
-// from Δp = 0, where the slope is the ideal one. Each solve of a direction
+// from Δp = 0, where the slope is the ideal one. Drag sources other than
+// charge pumps load the shaft rows with torques known at the point's
+// speeds: z = A_ref⁻¹ of them adds to H_X·b and to every port torque. Each solve of a direction
 // set starts from Δp = 0, so a point's result depends on the point alone,
 // never on the points solved before it: maps stay identical for any number
 // of workers. The directions the last point of the range ended with are the
 // first guess; the directions read off the solution (as the general path
 // reads them) must agree with those assumed, else the solve is repeated
 // with them. The compiled path gives up, and the general path solves the
-// point, wherever it cannot decide: several loops, drag sources, held motor
+// point, wherever it cannot decide: several loops, a charge pump among the
+// drag sources (its torque follows the loop's leakage), held motor
 // settings, a loop the hydrostat cannot see as a Curve, a setting limit, a
 // pressure beyond 1.5 times the relief, Newton's method not settling,
 // directions that oscillate, a crossed limit or a power balance not
@@ -99,7 +102,7 @@ type compiledState struct {
 func (s *Solver) initCompiled() {
 	l := s.l
 	c := &s.comp
-	c.on = len(l.loops) == 1 && len(l.drags) == 0
+	c.on = len(l.loops) == 1 && !l.hasCharge
 	if !c.on {
 		return
 	}
@@ -159,13 +162,22 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		} else if equalK(c.seenK, s.gearK) && equalF(c.seenF, s.pflow) {
 			return false // back to the first directions: they oscillate
 		}
+		var dz []float64
+		if s.dragRHS != nil {
+			// The drag torques load the shaft rows: z = A_ref⁻¹ of them
+			// adds to the pressure's equation and to every port torque.
+			dz = s.dragY
+			clear(dz)
+			copy(dz, s.dragRHS)
+			e.f.Solve(dz)
+		}
 		var ok bool
 		evals = 0 // the final pass's count: the same whatever the first guess
-		dp, ok = s.newton(e, p, lim, &evals)
+		dp, ok = s.newton(e, p, dz, lim, &evals)
 		if !ok {
 			return false
 		}
-		s.portTorques(e)
+		s.portTorques(e, dz)
 		if !s.readDirections() {
 			break
 		}
@@ -218,7 +230,7 @@ func (s *Solver) keepGuess(rg int) {
 // newton solves F(Δp) = 0 for the directions of e from Δp = 0 and returns
 // Δp, with the units' torques at it in c.tau; false when it does not
 // settle within 30 steps, leaves ±lim, or the curve cannot decide.
-func (s *Solver) newton(e *sysEntry, p *Point, lim float64, evals *int) (float64, bool) {
+func (s *Solver) newton(e *sysEntry, p *Point, dz []float64, lim float64, evals *int) (float64, bool) {
 	c := &s.comp
 	n := s.n
 	x := s.l.nPorts // the pressure's row in W and H
@@ -233,6 +245,9 @@ func (s *Solver) newton(e *sysEntry, p *Point, lim float64, evals *int) (float64
 		}
 		c.b[k] = v
 		a0 += e.h[k*n+x] * v
+	}
+	if dz != nil {
+		a0 += dz[x]
 	}
 	dp := 0.0
 	done := false
@@ -266,8 +281,9 @@ func (s *Solver) newton(e *sysEntry, p *Point, lim float64, evals *int) (float64
 	return 0, false
 }
 
-// portTorques sets every port torque, T = H·b + W·τ, into s.t.
-func (s *Solver) portTorques(e *sysEntry) {
+// portTorques sets every port torque, T = H·b + W·τ (+ z of the drag
+// torques), into s.t.
+func (s *Solver) portTorques(e *sysEntry, dz []float64) {
 	c := &s.comp
 	v := c.v[:e.nExt+len(c.tau)]
 	copy(v, c.b[:e.nExt])
@@ -284,6 +300,11 @@ func (s *Solver) portTorques(e *sysEntry) {
 			sum += x * v[j]
 		}
 		t[i] = sum
+	}
+	if dz != nil {
+		for i := range t {
+			t[i] += dz[i]
+		}
 	}
 }
 

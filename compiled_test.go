@@ -177,3 +177,53 @@ func TestMapCompiledMatchesGeneral(t *testing.T) {
 		t.Errorf("%d feasible and %d infeasible cells: the map should have both", ok, bad)
 	}
 }
+
+// TestPropertyCompiledMatchesGeneralDrags: with drag sources (bearings,
+// churning, open plates, idle PTO; and a charge pump on some layouts,
+// which the compiled path leaves to the general path) both paths give the
+// same error and the same state to 1e-12, the drags included.
+func TestPropertyCompiledMatchesGeneralDrags(t *testing.T) {
+	t.Parallel()
+	compiled, points := 0, 0
+	defer func() {
+		t.Logf("%d of %d points solved on the compiled path", compiled, points)
+		if points > 4 && compiled == 0 {
+			t.Error("no point took the compiled path")
+		}
+	}()
+	rapid.Check(t, func(t *rapid.T) {
+		kind, l0 := genLayout(t)
+		n := genNoLoad(t, l0)
+		if rapid.Bool().Draw(t, "no charge pump") {
+			n.ChargePumps = nil
+		}
+		l, err := l0.WithLosses(n)
+		if err != nil {
+			t.Fatal(err)
+		}
+		p := genPoint(t, l0)
+		gen, fast := NewSolver(l), NewSolver(l)
+		gen.general = true
+		var a, b State
+		ea, eb := fast.Solve(p, &a), gen.Solve(p, &b)
+		points++
+		if fast.comp.hits > 0 {
+			compiled++
+		}
+		if !sameError(ea, eb) {
+			t.Fatalf("%s: compiled: %v; general: %v", kind, ea, eb)
+		}
+		if ea != nil {
+			return
+		}
+		if d := summaryDiff(&a, &b, 1e-12); d != "" {
+			t.Fatalf("%s: compiled %s", kind, d)
+		}
+		for i := range b.Drags {
+			da, db := a.Drags[i], b.Drags[i]
+			if math.Abs(float64(da.Torque-db.Torque)) > 1e-12*(math.Abs(float64(db.Torque))+1e-9) {
+				t.Fatalf("%s: drag %s torque %v, general %v", kind, db.Name, da.Torque, db.Torque)
+			}
+		}
+	})
+}
