@@ -410,8 +410,9 @@ func (l *layout) dragTorque(d *dragSrc, r *rangeDef, p *Point, w []float64) floa
 }
 
 // initDrags sets the torques of every drag source but the charge pumps
-// for the speeds of the point (s.w), once per Solve.
-func (s *Solver) initDrags(r *rangeDef, p *Point) {
+// for the speeds of the point (s.w), once per Solve. A torque that is not
+// finite (sizes so large that the formulas overflow) is an *InputError.
+func (s *Solver) initDrags(r *rangeDef, p *Point) error {
 	l := s.l
 	for i := range l.drags {
 		d := &l.drags[i]
@@ -419,9 +420,16 @@ func (s *Solver) initDrags(r *rangeDef, p *Point) {
 			s.dragT[i] = 0
 			continue
 		}
-		s.dragT[i] = l.dragTorque(d, r, p, s.w)
+		t := l.dragTorque(d, r, p, s.w)
+		if bad(t) {
+			clear(s.dragT)
+			s.dragRHSFromT()
+			return &InputError{Field: "drag " + d.name, Value: units.Of(units.Torque(0)), Reason: "torque not finite at this point (sizes out of range)"}
+		}
+		s.dragT[i] = t
 	}
 	s.dragRHSFromT()
+	return nil
 }
 
 // chargeTorques sets the charge pumps' torques from the loops' leakage at

@@ -302,3 +302,37 @@ func TestDragsAllocateNothing(t *testing.T) {
 		t.Errorf("Solve with drags allocates %v times", n)
 	}
 }
+
+// FuzzWithLosses: any drag specification is refused with an error or gives
+// a layout whose solved states have finite, non-negative drag losses.
+func FuzzWithLosses(f *testing.F) {
+	f.Add(30.0, 860.0, 80.0, 2.0, 0.0003, 5000.0, 250.0, 40.0, 4.0, 20.0, 0.2, 8, 70.0, 100.0, 0.3, 10.0, 0.8, 0.5)
+	f.Add(-1.0, 0.0, 0.0, -2.0, 1e300, -5.0, 1e-9, 0.0, 0.0, 90.0, 1.5, 0, 100.0, 70.0, 0.0, -1.0, 1.5, 2.0)
+	f.Fuzz(func(t *testing.T, cst, rho, dm, f0, f1, load, d, b, m, beta, dip float64, films int, ri, ro, h, flush, eta, nu float64) {
+		l, _ := ocLossless(t, 0.98, 0.98, false)
+		l, err := l.WithLosses(NoLoad{
+			Lubricant: Lubricant{Viscosity: units.Centistokes(cst), Density: units.Density(rho)},
+			Bearings: []ShaftBearings{{Name: "b", Shaft: "engine", Bearings: Bearings{MeanDiameter: units.Millimetres(dm), F0: f0, F1: f1,
+				Load: units.Force(load)}}},
+			Churning: []ShaftWheel{{Name: "w", Shaft: "sum", Wheel: Wheel{Diameter: units.Millimetres(d), FaceWidth: units.Millimetres(b),
+				Module: units.Millimetres(m), HelixAngle: units.Degrees(beta), Dip: dip}}},
+			Plates: []ElementPlates{{Name: "p", Element: "range 1 clutch", Plates: Plates{Films: films, Inner: units.Millimetres(ri),
+				Outer: units.Millimetres(ro), Clearance: units.Millimetres(h)}}},
+			ChargePumps: []LoopChargePump{{Name: "c", Loop: "hydrostat", Shaft: "engine",
+				ChargePump: ChargePump{Flushing: units.LitresPerMinute(flush), Efficiency: eta}}},
+		})
+		if err != nil {
+			return
+		}
+		s := NewSolver(l)
+		var st State
+		if err := solveNu(t, s, &st, math.Max(-1, math.Min(1, nu)), 300); err != nil {
+			return
+		}
+		for _, dr := range st.Drags {
+			if bad(float64(dr.Loss)) || dr.Loss < 0 || bad(float64(dr.Torque)) {
+				t.Fatalf("drag %s: torque %v loss %v", dr.Name, dr.Torque, dr.Loss)
+			}
+		}
+	})
+}

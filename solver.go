@@ -293,7 +293,10 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 		s.dp[j] = 0
 	}
 	if len(l.drags) > 0 {
-		s.initDrags(r, &p)
+		if err := s.initDrags(r, &p); err != nil {
+			s.fill(st, p, r, 0, 0)
+			return err
+		}
 	}
 	if r.maxOut > 0 && math.Abs(s.outW[0]) > r.maxOut*(1+1e-12) {
 		s.fill(st, p, r, 0, 0)
