@@ -31,6 +31,7 @@ var programs = []struct {
 	{"compare", []string{"compare_efficiency", "compare_fuel"}, nil},
 	{"traction", []string{"tractive_efficiency", "pull_slip"}, nil},
 	{"design", []string{"design_pareto", "design_effort_chosen", "design_effort_demo"}, []string{"-candidates", "300"}},
+	{"frontmotor", []string{"frontmotor_fuel", "frontmotor_slip", "frontmotor_split", "frontmotor_turn"}, []string{"-quick"}},
 }
 
 var (

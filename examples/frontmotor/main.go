@@ -5,7 +5,10 @@
 // through the same working day, headland turns included, and sweeps
 // ploughing and turning against travel speed.
 //
-//	go run ./examples/frontmotor [-out folder] [-design file.json]
+//	go run ./examples/frontmotor [-out folder] [-design file.json] [-quick]
+//
+// -quick takes one-minute time steps for the day and a coarser engine
+// speed search and speed sweep (a check that it runs, in seconds).
 //
 // The built-in design is the demo tractor with a front-axle motor
 // (print it with -print-design); a file given by -design must have a
@@ -21,6 +24,7 @@ package main
 import (
 	"encoding/csv"
 	"errors"
+	"flag"
 	"fmt"
 	"io"
 	"math"
@@ -33,8 +37,21 @@ import (
 	"github.com/powersplit-dev/powersplit/vehicle"
 )
 
+var quick bool
+
+// strategy is the least-fuel search (coarser with -quick).
+func strategy() vehicle.LeastFuel {
+	if quick {
+		return vehicle.LeastFuel{Samples: 8, Tolerance: 1e-3}
+	}
+	return vehicle.LeastFuel{}
+}
+
 func main() {
-	demo.MainFrontMotor("frontmotor", "mechanical front drive at a fixed lead against a front-axle motor on the loop", run)
+	demo.MainFrontMotor("frontmotor", "mechanical front drive at a fixed lead against a front-axle motor on the loop",
+		func(fs *flag.FlagSet) {
+			fs.BoolVar(&quick, "quick", false, "one-minute steps, a coarser engine speed search and speed sweep")
+		}, run)
 }
 
 // drive is one of the two tractors.
@@ -78,8 +95,11 @@ func day(r *demo.Run, drives []drive) error {
 		if err != nil {
 			return err
 		}
-		step := d.sc.Step()
-		dy, err := vehicle.Simulate(d.v, vehicle.LeastFuel{}, cycle, vehicle.Options{Step: step.Std()})
+		step := d.sc.Step().Std()
+		if quick {
+			step = 60e9
+		}
+		dy, err := vehicle.Simulate(d.v, strategy(), cycle, vehicle.Options{Step: step})
 		if err != nil {
 			return err
 		}
@@ -133,7 +153,11 @@ func sweep(r *demo.Run, drives []drive) error {
 		radius = units.Metres(6)
 	}
 	var speeds []float64
-	for v := 3.0; v <= 14.0001; v += 0.5 {
+	dv := 0.5
+	if quick {
+		dv = 1
+	}
+	for v := 3.0; v <= 14.0001; v += dv {
 		speeds = append(speeds, v)
 	}
 	rows := make([][]row, len(drives))
@@ -147,7 +171,7 @@ func sweep(r *demo.Run, drives []drive) error {
 			if err != nil {
 				return err
 			}
-			if p, err := (vehicle.LeastFuel{}).Operate(d.v, vehicle.Demand{Speed: v, Draft: draft, Ground: ground}); err == nil {
+			if p, err := strategy().Operate(d.v, vehicle.Demand{Speed: v, Draft: draft, Ground: ground}); err == nil {
 				rw.fuel = p.FuelRate.KilogramsPerHour()
 				rw.slipR = 100 * p.Slip
 				rw.slipF = 100 * p.FrontSlip
@@ -158,7 +182,7 @@ func sweep(r *demo.Run, drives []drive) error {
 					rw.share = 100 * p.FrontShare
 				}
 			}
-			if p, err := (vehicle.LeastFuel{}).Operate(d.v, vehicle.Demand{Speed: v, Ground: turnGround, TurnRadius: radius}); err == nil {
+			if p, err := strategy().Operate(d.v, vehicle.Demand{Speed: v, Ground: turnGround, TurnRadius: radius}); err == nil {
 				f := p.Flows
 				rw.turnLoss = (f.Slip + f.Rolling + f.Hydrostatic + f.Mechanical + f.NoLoad).Kilowatts()
 				rw.turnCirc = f.Circulating.Kilowatts()
@@ -234,7 +258,12 @@ func sweep(r *demo.Run, drives []drive) error {
 		for i, d := range drives {
 			for k, kmh := range speeds {
 				w := rows[i][k]
-				g := func(x float64) string { return strconv.FormatFloat(x, 'g', 6, 64) }
+				g := func(x float64) string { // a point beyond a limit is left empty
+					if math.IsNaN(x) {
+						return ""
+					}
+					return strconv.FormatFloat(x, 'g', 6, 64)
+				}
 				if err := cw.Write([]string{d.name, g(kmh), g(w.fuel), g(w.slipF / 100), g(w.slipR / 100), g(w.share / 100),
 					g(w.turnLoss), g(w.turnCirc), g(w.turnFuel)}); err != nil {
 					return err

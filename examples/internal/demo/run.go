@@ -98,10 +98,10 @@ func MainFlags(program, about string, flags func(*flag.FlagSet), body func(r *Ru
 	mainWith(program, about, builtin, BuiltinName, flags, body)
 }
 
-// MainFrontMotor is Main with the demo tractor with a front-axle motor as
-// the built-in design.
-func MainFrontMotor(program, about string, body func(r *Run) error) {
-	mainWith(program, about, builtinFrontMotor, BuiltinFrontMotorName, nil, body)
+// MainFrontMotor is MainFlags with the demo tractor with a front-axle
+// motor as the built-in design.
+func MainFrontMotor(program, about string, flags func(*flag.FlagSet), body func(r *Run) error) {
+	mainWith(program, about, builtinFrontMotor, BuiltinFrontMotorName, flags, body)
 }
 
 func mainWith(program, about string, data []byte, name string, flags func(*flag.FlagSet), body func(r *Run) error) {
