@@ -245,9 +245,9 @@ func run(r *demo.Run) error {
 	// Files.
 	r.Heading("Files")
 	files, err := figures.Lines(r.Out, "compare_efficiency", figures.Axes{
-		Title: fmt.Sprintf("Three splits for one tractor: efficiency at %v, %.0f kW", study, power.Kilowatts()),
+		Title: fmt.Sprintf("%s: efficiency of each design at %v, %.0f kW", sc.Name, study, power.Kilowatts()),
 		X:     "travel speed (km/h, no slip)", Y: "transmission efficiency (%)",
-		YMin: 75, YMax: 97, LegendBottom: true}, series...)
+		YMin: 75, YMax: 97, LegendBottom: true, Note: demo.FigureCaution}, series...)
 	if err != nil {
 		return err
 	}

@@ -175,7 +175,7 @@ func run(r *demo.Run) error {
 	files, err := figures.Lines(r.Out, "efficiency_ranges", figures.Axes{
 		Title: fmt.Sprintf("%s: efficiency by range (engine %v, %.0f kW)", sc.Name, study, power.Kilowatts()),
 		X:     "travel speed (km/h, no slip)", Y: "transmission efficiency (%)",
-		YMin: 75, YMax: 97, LegendBottom: true}, effSeries...)
+		YMin: 75, YMax: 97, LegendBottom: true, Note: demo.FigureCaution}, effSeries...)
 	if err != nil {
 		return err
 	}
@@ -183,7 +183,7 @@ func run(r *demo.Run) error {
 	files, err = figures.Lines(r.Out, "hydraulic_share", figures.Axes{
 		Title: fmt.Sprintf("%s: power through the hydrostat (engine %v)", sc.Name, study),
 		X:     "travel speed (km/h, no slip)", Y: "hydraulic power share (%, negative: circulating)",
-		LegendBottom: true}, shareSeries...)
+		LegendBottom: true, Note: demo.FigureCaution}, shareSeries...)
 	if err != nil {
 		return err
 	}

@@ -204,7 +204,7 @@ func run(r *demo.Run) error {
 	files, err := figures.Lines(r.Out, "tractive_efficiency",
 		figures.Axes{Title: sc.Name + ": tractive efficiency against slip (fixed lead, 7 km/h)",
 			X: "rear-axle slip (%)", Y: "tractive efficiency (%)", YMin: 0, YMax: 100, XMin: 0, XMax: 40, Band: band,
-			LegendBottom: true}, series...)
+			LegendBottom: true, Note: demo.FigureCaution}, series...)
 	if err != nil {
 		return err
 	}
