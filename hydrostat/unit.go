@@ -3,6 +3,7 @@ package hydrostat
 import (
 	"fmt"
 	"math"
+	"strings"
 
 	"github.com/powersplit-dev/powersplit/internal/numeric"
 	"github.com/powersplit-dev/powersplit/units"
@@ -60,6 +61,34 @@ func (s Swing) String() string {
 		return "over centre"
 	}
 	return "Swing(" + fmt.Sprint(int(s)) + ")"
+}
+
+// swingNames are the texts of MarshalText, in the order of the constants.
+var swingNames = [...]string{"unstated", "to zero", "over centre"}
+
+// MarshalText implements encoding.TextMarshaler: "unstated", "to zero" or
+// "over centre". A Swing outside the constants is an error (ErrInvalid).
+func (s Swing) MarshalText() ([]byte, error) {
+	if s < SwingUnstated || s > SwingOverCentre {
+		return nil, fmt.Errorf("%w: %v is not a swing", ErrInvalid, s)
+	}
+	return []byte(swingNames[s]), nil
+}
+
+// UnmarshalText implements encoding.TextUnmarshaler. It reads the texts of
+// MarshalText, ignoring case, surrounding blanks and a hyphen or
+// underscore in place of the space ("over-centre", "TO_ZERO"); any other
+// text is an error (ErrInvalid) and leaves s unchanged.
+func (s *Swing) UnmarshalText(text []byte) error {
+	t := strings.ToLower(strings.TrimSpace(string(text)))
+	t = strings.NewReplacer("-", " ", "_", " ").Replace(t)
+	for i, name := range swingNames {
+		if t == name {
+			*s = Swing(i)
+			return nil
+		}
+	}
+	return fmt.Errorf("%w: swing %q is not one of %q, %q, %q", ErrInvalid, text, swingNames[0], swingNames[1], swingNames[2])
 }
 
 // lowest returns the smallest setting of the swing: 0 for SwingToZero, −1
