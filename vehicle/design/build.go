@@ -164,6 +164,7 @@ func (t Transmission) validate(c *checker, field string) {
 	if len(t.Ranges) == 0 {
 		c.add(field+".ranges", "needs at least one range gear")
 	}
+	t.validateParts(c, field)
 	if len(c.errs) > n {
 		return
 	}
@@ -236,7 +237,7 @@ func (t Transmission) Layout() (powersplit.Layout, error) {
 
 // layout builds the layout, with a second motor when front is set.
 func (t Transmission) layout(front *Unit, second *powersplit.SecondMotor) (powersplit.Layout, error) {
-	set, err := planetary.FromRatio(t.Set.FixedCarrierRatio, t.Set.BasicEfficiency)
+	set, err := t.Set.build()
 	if err != nil {
 		return powersplit.Layout{}, fmt.Errorf("set: %w", err)
 	}
@@ -261,7 +262,7 @@ func (t Transmission) layout(front *Unit, second *powersplit.SecondMotor) (power
 			InputRatio: t.InputRatio, PumpRatio: t.PumpRatio, MotorRatio: t.MotorRatio,
 			Ranges: ranges, GearEfficiency: t.GearEfficiency, Second: second})
 	case "compound":
-		set2, err := planetary.FromRatio(t.Set2.FixedCarrierRatio, t.Set2.BasicEfficiency)
+		set2, err := t.Set2.build()
 		if err != nil {
 			return powersplit.Layout{}, fmt.Errorf("set2: %w", err)
 		}
@@ -308,10 +309,10 @@ func compound(s1, s2 planetary.Set, loop hydrostat.Loop, rs []Range, eta float64
 
 func (t Transmission) loop(front *Unit) (hydrostat.Loop, error) {
 	loss := hydrostat.Wilson{Slip: t.Losses.Slip, Viscous: t.Losses.Viscous, Friction: t.Losses.Friction,
-		ConstantPressure: t.Losses.ConstantPressure}
+		ConstantPressure: t.Losses.ConstantPressure, ConstantTorque: t.Losses.ConstantTorque}
 	mk := func(name string, u Unit) (hydrostat.Unit, error) {
 		h, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: u.Displacement, MaxSpeed: u.MaxSpeed,
-			RatedPressure: u.RatedPressure, PeakPressure: u.PeakPressure, Loss: loss})
+			RatedPressure: u.RatedPressure, PeakPressure: u.PeakPressure, Loss: loss, Swing: u.Swing})
 		if err != nil {
 			return h, fmt.Errorf("%s: %w", name, err)
 		}
@@ -325,10 +326,9 @@ func (t Transmission) loop(front *Unit) (hydrostat.Loop, error) {
 	if err != nil {
 		return hydrostat.Loop{}, err
 	}
-	oils := map[string]hydrostat.Oil{"VG32": hydrostat.VG32, "VG46": hydrostat.VG46, "VG68": hydrostat.VG68}
-	oil, ok := oils[strings.ReplaceAll(strings.ToUpper(t.Oil), " ", "")]
-	if !ok {
-		return hydrostat.Loop{}, fmt.Errorf("oil: %q is not one of VG32, VG46, VG68", t.Oil)
+	oil, err := t.hydraulicOil()
+	if err != nil {
+		return hydrostat.Loop{}, err
 	}
 	temp := units.Celsius(50)
 	if t.OilTemperature != nil {

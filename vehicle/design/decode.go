@@ -265,6 +265,12 @@ func example(t reflect.Type) string {
 		return `"40 km/h"`
 	case "Temperature":
 		return `"60 °C"`
+	case "Swing":
+		return `"over centre"`
+	case "Torque":
+		return `"2 N·m"`
+	case "DynamicViscosity":
+		return `"20 mPa·s"`
 	}
 	return `"110 cm³/rev"`
 }

@@ -9,6 +9,7 @@ import (
 	"strings"
 	"time"
 
+	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -270,9 +271,22 @@ type Transmission struct {
 	Motor Unit `json:"motor"`
 	// Losses are the units' loss coefficients.
 	Losses Losses `json:"losses,omitzero"`
-	// Oil is the hydraulic oil's ISO viscosity grade: "VG32", "VG46" or
-	// "VG68".
-	Oil string `json:"oil"`
+	// Oil is the hydraulic oil's ISO 3448 viscosity grade: "VG32", "VG46"
+	// or "VG68" (hydrostat's presets, viscosity index near 100), or any
+	// grade from "VG2" to "VG3200" with OilViscosityIndex. Required unless
+	// OilViscosity is given.
+	Oil string `json:"oil,omitempty"`
+	// OilViscosityIndex is the oil's viscosity index by ASTM D2270
+	// (optional, a plain number, −100 to 400): the oil is then built from
+	// its grade's 40 °C viscosity and this index (hydrostat.NewGradeOil)
+	// instead of the preset.
+	OilViscosityIndex *float64 `json:"oilViscosityIndex,omitempty"`
+	// OilViscosity is the oil's dynamic viscosity at the operating point
+	// (optional, mPa·s, written for example "20 mPa·s" or "20 cP"), taken
+	// the same at every temperature (hydrostat.OilSpec.Viscosity); given,
+	// it replaces Oil and OilViscosityIndex, which must then be left out,
+	// and OilTemperature sets only the oil's density.
+	OilViscosity units.DynamicViscosity `json:"oilViscosity,omitempty"`
 	// OilTemperature is the oil temperature in the loop (optional; 50 °C
 	// when left out).
 	OilTemperature *units.Temperature `json:"oilTemperature,omitempty"`
@@ -296,11 +310,15 @@ type Transmission struct {
 // Set is a planetary set given by its fixed-carrier ratio.
 type Set struct {
 	// FixedCarrierRatio is the sun-to-ring speed ratio with the carrier
-	// held (negative for a simple set, for example −2.5).
-	FixedCarrierRatio float64 `json:"fixedCarrierRatio"`
+	// held (negative for a simple set, for example −2.5). With Teeth it
+	// may be left out; given, it must equal the teeth's.
+	FixedCarrierRatio float64 `json:"fixedCarrierRatio,omitempty"`
 	// BasicEfficiency is the set's efficiency with the carrier held, 0 to
 	// 1 (optional; the planetary package's default when left out).
 	BasicEfficiency float64 `json:"basicEfficiency,omitempty"`
+	// Teeth gives the set by tooth counts and profile shifts (optional;
+	// see Teeth): the set is then checked as a gear design.
+	Teeth *Teeth `json:"teeth,omitempty"`
 }
 
 // Unit is an axial-piston pump or motor.
@@ -315,6 +333,12 @@ type Unit struct {
 	RatedPressure units.Pressure `json:"ratedPressure,omitempty"`
 	// PeakPressure is the rated peak pressure (bar; optional).
 	PeakPressure units.Pressure `json:"peakPressure,omitempty"`
+	// Swing is how far the unit's swashplate or yoke swings: "to zero"
+	// (settings 0 to 1: a motor swung back to zero displacement),
+	// "over centre" (−1 to 1: through zero and over centre, reversing the
+	// flow) or "unstated" (optional; the default: the schedule keeps a
+	// motor at or above minMotorSetting). See hydrostat.Swing.
+	Swing hydrostat.Swing `json:"swing,omitempty"`
 }
 
 // Losses are the Wilson loss coefficients of both units (per radian, as the
@@ -329,6 +353,11 @@ type Losses struct {
 	// ConstantPressure is the load-independent torque loss expressed as a
 	// pressure (bar).
 	ConstantPressure units.Pressure `json:"constantPressure,omitempty"`
+	// ConstantTorque is a loss torque of each unit that no setting, speed
+	// or pressure changes, such as seal and bearing drag (optional, N·m;
+	// hydrostat.Wilson.ConstantTorque). Not scaled by size: pump and motor
+	// each lose this torque while turning.
+	ConstantTorque units.Torque `json:"constantTorque,omitempty"`
 }
 
 // Range is one range gear.

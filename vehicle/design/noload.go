@@ -73,21 +73,26 @@ type ChargePump struct {
 // lubricant returns the transmission oil at its no-load temperature: the
 // noLoad block's grade and temperature, else the loop's.
 func (t Transmission) lubricant() (powersplit.Lubricant, error) {
-	grade, temp := t.Oil, units.Celsius(50)
+	temp := units.Celsius(50)
 	if t.OilTemperature != nil {
 		temp = *t.OilTemperature
 	}
-	if n := t.NoLoad; n != nil {
-		if n.Oil != "" {
-			grade = n.Oil
+	var oil hydrostat.Oil
+	if n := t.NoLoad; n != nil && n.Oil != "" {
+		o, ok := oils[strings.ReplaceAll(strings.ToUpper(n.Oil), " ", "")]
+		if !ok {
+			return powersplit.Lubricant{}, fmt.Errorf("noLoad.oil: %q is not one of VG32, VG46, VG68", n.Oil)
 		}
-		if n.Temperature != nil {
-			temp = *n.Temperature
+		oil = o
+	} else {
+		o, err := t.hydraulicOil() // the loop's oil
+		if err != nil {
+			return powersplit.Lubricant{}, err
 		}
+		oil = o
 	}
-	oil, ok := oils[strings.ReplaceAll(strings.ToUpper(grade), " ", "")]
-	if !ok {
-		return powersplit.Lubricant{}, fmt.Errorf("noLoad.oil: %q is not one of VG32, VG46, VG68", grade)
+	if n := t.NoLoad; n != nil && n.Temperature != nil {
+		temp = *n.Temperature
 	}
 	return powersplit.Lubricant{Viscosity: oil.Viscosity(temp), Density: oil.Density(temp)}, nil
 }

@@ -51,6 +51,7 @@ func (f *File) Apply(s Space, x []float64) (*File, error) {
 		switch p.Name {
 		case ParamFixedCarrierRatio:
 			t.Set.FixedCarrierRatio = v
+			t.Set.Teeth = nil // a searched ratio has no tooth counts
 		case ParamInputRatio:
 			t.InputRatio = v
 		case ParamPumpRatio:
