@@ -219,3 +219,80 @@ func TestMeasure(t *testing.T) {
 		t.Errorf("420 bar − 450 bar = %+v, |·| = %+v", left, left.Abs())
 	}
 }
+
+// TestParseEveryUnit: "2 <unit>" parses, for every unit of every quantity's
+// text table and each of its spellings, to the value the matching
+// constructor gives (the constructors carry their own factors, checked in
+// TestScaleFactors and TestNISTFactors), and every unit of the tables is
+// listed here.
+func TestParseEveryUnit(t *testing.T) {
+	t.Parallel()
+	want := map[string]float64{
+		"angle|rad": 2, "angle|°": float64(Degrees(2)), "angle|rev": float64(Revolutions(2)),
+		"angular velocity|rad/s": 2, "angular velocity|rpm": float64(RPM(2)),
+		"torque|N·m": 2, "torque|kN·m": float64(KilonewtonMetres(2)), "torque|lbf·ft": float64(PoundFeet(2)),
+		"power|W": 2, "power|kW": float64(Kilowatts(2)), "power|MW": float64(Megawatts(2)), "power|hp": float64(Horsepower(2)),
+		"power|PS": float64(MetricHorsepower(2)),
+		"energy|J": 2, "energy|kJ": float64(Kilojoules(2)), "energy|MJ": float64(Megajoules(2)), "energy|kWh": float64(KilowattHours(2)),
+		"pressure|Pa": 2, "pressure|kPa": float64(Kilopascals(2)), "pressure|MPa": float64(Megapascals(2)), "pressure|bar": float64(Bar(2)),
+		"pressure|psi":        float64(PSI(2)),
+		"displacement|m³/rad": 2, "displacement|cm³/rev": float64(CCPerRev(2)), "displacement|L/rev": float64(LitresPerRev(2)),
+		"volume flow|m³/s": 2, "volume flow|L/min": float64(LitresPerMinute(2)), "volume flow|L/h": float64(LitresPerHour(2)),
+		"volume flow|gal/min": float64(GallonsPerMinute(2)),
+		"volume|m³":           2, "volume|L": float64(Litres(2)), "volume|cm³": float64(CubicCentimetres(2)), "volume|gal": float64(Gallons(2)),
+		"speed|m/s": 2, "speed|km/h": float64(KMH(2)), "speed|mph": float64(MPH(2)),
+		"acceleration|m/s²": 2, "acceleration|g": float64(StandardGravities(2)),
+		"force|N": 2, "force|kN": float64(Kilonewtons(2)), "force|lbf": float64(PoundsForce(2)),
+		"mass|kg": 2, "mass|t": float64(Tonnes(2)), "mass|lb": float64(Pounds(2)), "mass|g": float64(Grams(2)),
+		"length|m": 2, "length|mm": float64(Millimetres(2)), "length|cm": float64(Centimetres(2)), "length|km": float64(Kilometres(2)),
+		"length|in": float64(Inches(2)), "length|ft": float64(Feet(2)), "length|mi": float64(Miles(2)),
+		"area|m²": 2, "area|ha": float64(Hectares(2)), "area|cm²": float64(SquareCentimetres(2)),
+		"density|kg/m³": 2, "density|kg/L": float64(KilogramsPerLitre(2)),
+		"dynamic viscosity|Pa·s": 2, "dynamic viscosity|cP": float64(Centipoise(2)),
+		"kinematic viscosity|m²/s": 2, "kinematic viscosity|cSt": float64(Centistokes(2)),
+		"temperature|K": 2, "temperature|°C": float64(Celsius(2)), "temperature|°F": float64(Fahrenheit(2)),
+		"temperature difference|K": 2, "temperature difference|°F": float64(FahrenheitDifference(2)),
+		"mass flow|kg/s": 2, "mass flow|kg/h": float64(KilogramsPerHour(2)), "mass flow|g/h": float64(GramsPerHour(2)),
+		"specific fuel consumption|kg/J": 2, "specific fuel consumption|g/kWh": float64(GramsPerKWh(2)),
+	}
+	parsers := map[string]func(string) (float64, error){}
+	for _, q := range allQuantities {
+		parsers[q.name] = q.parse
+	}
+	seen := 0
+	for k := Kind(1); k < numKinds; k++ {
+		tb := kindTables[k]
+		parse, ok := parsers[tb.quantity]
+		if !ok {
+			t.Errorf("no parser for %s", tb.quantity)
+			continue
+		}
+		for _, u := range tb.units {
+			key := tb.quantity + "|" + u.symbols[0]
+			w, ok := want[key]
+			if !ok {
+				t.Errorf("unit %s is not checked here", key)
+				continue
+			}
+			seen++
+			for _, sym := range u.symbols {
+				got, err := parse("2 " + sym)
+				if err != nil || math.Abs(got-w) > 1e-15*math.Abs(w) {
+					t.Errorf("%s: parse(%q) = %.17g, %v; want %.17g", tb.quantity, "2 "+sym, got, err, w)
+				}
+			}
+		}
+	}
+	if seen != len(want) {
+		t.Errorf("%d units checked, %d listed: a listed unit is in no table", seen, len(want))
+	}
+	// The display unit follows the size: below 1 kW in W, then kW, then MW.
+	for _, c := range []struct {
+		p    Power
+		want string
+	}{{Watts(500), "500 W"}, {Watts(999), "999 W"}, {Kilowatts(1), "1 kW"}, {Kilowatts(999), "999 kW"}, {Megawatts(2), "2 MW"}} {
+		if got := c.p.String(); got != c.want {
+			t.Errorf("%v W prints %q, want %q", float64(c.p), got, c.want)
+		}
+	}
+}
