@@ -157,3 +157,35 @@ func TestPropertyLockedConservation(t *testing.T) {
 		solved++
 	})
 }
+
+// PumpShare counts the pump's shaft power: equal to HydraulicShare with
+// lossless units, larger in magnitude than it by the pump's own loss when
+// the pump pumps (Δp·Q = T·ω − loss).
+func TestPumpShare(t *testing.T) {
+	t.Parallel()
+	for _, lossy := range []bool{false, true} {
+		lp := makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100, lossy: lossy, wilson: demoWilson})
+		l, err := OutputCoupled(OutputCoupledSpec{Set: mustSet(t, testI0, 0.98), Loop: lp, PumpRatio: 1.2, MotorRatio: 0.8,
+			Ranges: []RangeGear{{Ratio: 0.5}}, GearEfficiency: 0.98})
+		if err != nil {
+			t.Fatal(err)
+		}
+		s := NewSolver(l)
+		var st State
+		if err := solveNu(t, s, &st, 0.4, 600); err != nil {
+			t.Fatal(err)
+		}
+		pump := st.Loops[0].Pump
+		want := float64(pump.Mechanical) / float64(st.InputPower)
+		if math.Abs(st.PumpShare-want) > 1e-12 {
+			t.Errorf("lossy %v: PumpShare %v, want %v", lossy, st.PumpShare, want)
+		}
+		gap := (st.PumpShare - st.HydraulicShare) * float64(st.InputPower)
+		if !lossy && math.Abs(gap) > 1e-9*float64(st.InputPower) {
+			t.Errorf("lossless: PumpShare %v differs from HydraulicShare %v", st.PumpShare, st.HydraulicShare)
+		}
+		if lossy && (pump.Mechanical <= 0 || math.Abs(gap-float64(pump.Loss)) > 1e-6*float64(st.InputPower)) {
+			t.Errorf("lossy: shares differ by %g W, pump loss %v (pump power %v)", gap, pump.Loss, pump.Mechanical)
+		}
+	}
+}
