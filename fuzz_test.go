@@ -5,6 +5,8 @@ import (
 	"math"
 	"testing"
 
+	"pgregory.net/rapid"
+
 	"github.com/powersplit-dev/powersplit/planetary"
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -33,7 +35,7 @@ func finiteState(st *State) bool {
 // satisfy: finite values, every loss ≥ 0, each element's ports taking its
 // loss, the layout's power balance (input = outputs + PTOs + losses) within
 // 1e-9 of the powers that flow, and the demanded output speeds.
-func checkSolved(t *testing.T, st *State, p Point) {
+func checkSolved(t fataler, st *State, p Point) {
 	t.Helper()
 	if !finiteState(st) {
 		t.Fatalf("non-finite state without error: %+v", st)
@@ -65,6 +67,12 @@ func checkSolved(t *testing.T, st *State, p Point) {
 			t.Fatalf("output %d turns at %v, demanded %v", i, st.Outputs[i].Speed, o.Speed)
 		}
 	}
+}
+
+// fataler is what checkSolved needs of a *testing.T or a *rapid.T.
+type fataler interface {
+	Helper()
+	Fatalf(format string, args ...any)
 }
 
 // maxSpeed returns the largest shaft speed magnitude of st, in rad/s.
@@ -213,6 +221,112 @@ func FuzzSweep(f *testing.F) {
 			TorqueFrom: 0, TorqueTo: units.Torque(tq), TorqueSteps: n, Workers: 2})
 		if err == nil && len(m.Cells) != n {
 			t.Fatalf("%d rows for %d torques", len(m.Cells), n)
+		}
+	})
+}
+
+// FuzzSolveLayouts solves random valid layouts of every builder (the
+// property tests' generators) at random points, in and far outside their
+// ranges: never a panic, never a NaN in the State whether Solve succeeds
+// or not, an error of a documented kind, and the power balance within
+// 1e-9 (checkSolved) whenever Solve returns nil.
+func FuzzSolveLayouts(f *testing.F) {
+	f.Fuzz(rapid.MakeFuzz(func(t *rapid.T) {
+		_, l := genLayout(t)
+		s := NewSolver(l)
+		p := Point{Range: rapid.IntRange(-1, l.Ranges()).Draw(t, "range"),
+			Input:   units.RPM(rapid.SampledFrom([]float64{-1, 0, 1, 900, 2100, 1e5, 2e5}).Draw(t, "engine rpm class") * rapid.Float64Range(0.5, 1.5).Draw(t, "engine rpm scale")),
+			Outputs: make([]OutputDemand, len(l.Outputs()))}
+		for i := range p.Outputs {
+			p.Outputs[i].Speed = units.RPM(rapid.Float64Range(-3000, 3000).Draw(t, "output rpm"))
+		}
+		p.Outputs[0].Torque = units.NewtonMetres(rapid.Float64Range(-2e4, 2e4).Draw(t, "output N·m"))
+		if len(l.PTOs()) > 0 && rapid.Bool().Draw(t, "PTO load") {
+			p.PTO = []units.Torque{units.NewtonMetres(rapid.Float64Range(-500, 2000).Draw(t, "PTO N·m"))}
+		}
+		st := State{Brief: rapid.Bool().Draw(t, "brief")}
+		err := s.Solve(p, &st)
+		if !finiteState(&st) || bad(st.Residual) || bad(float64(st.HydrostatLoss)) {
+			t.Fatalf("NaN in the State (error %v): %+v", err, st)
+		}
+		if err != nil {
+			if !knownKind(err) {
+				t.Fatalf("error of no documented kind: %v", err)
+			}
+			return
+		}
+		if st.Brief {
+			// The summary's balance: input = outputs + PTOs + losses.
+			pin, pout := float64(st.InputPower), float64(st.OutputPower+st.PTOPower)
+			scale := math.Abs(pin) + math.Abs(pout) + float64(st.Loss)
+			if r := math.Abs(pin - pout - float64(st.Loss)); r > 1e-9*scale+1e-9 {
+				t.Fatalf("brief power balance: in %v, out %v, loss %v", st.InputPower, st.OutputPower+st.PTOPower, st.Loss)
+			}
+			return
+		}
+		checkSolved(t, &st, p)
+	}))
+}
+
+// FuzzBuilderMembers builds both split builders with arbitrary member
+// values: a value outside sun, ring and carrier (and unset) must be an
+// *InputError naming a field that holds such a value; valid members build
+// the split they name, or fail with a documented kind (a member given
+// twice, one member alone).
+func FuzzBuilderMembers(f *testing.F) {
+	f.Add(false, 0, 0, 0, 1.2, 0.8)
+	f.Add(false, 3, 1, 2, 1.2, 0.8)
+	f.Add(true, 2, 1, 3, 1.1, 0.9)
+	f.Add(false, 7, 1, 2, 1.2, 0.8)
+	f.Add(true, 2, -1, 3, 1.1, 0.9)
+	f.Add(false, 3, 1, 1<<40, 1.2, 0.8)
+	f.Add(true, 1, 0, 0, 1.1, 0.9)
+	set := mustSet(f, testI0, 0.98)
+	lp := makeLoop(f, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson})
+	f.Fuzz(func(t *testing.T, input bool, a, b, c int, r1, r2 float64) {
+		ms := [3]planetary.Member{planetary.Member(a), planetary.Member(b), planetary.Member(c)}
+		names := [3]string{"Input", "Pump", "Output"}
+		var l Layout
+		var err error
+		if input {
+			names[1] = "Motor"
+			l, err = InputCoupled(InputCoupledSpec{Set: set, Loop: lp, PumpRatio: r1, InputRatio: r2, Input: ms[0], Motor: ms[1], Output: ms[2]})
+		} else {
+			l, err = OutputCoupled(OutputCoupledSpec{Set: set, Loop: lp, PumpRatio: r1, MotorRatio: r2, Input: ms[0], Pump: ms[1], Output: ms[2]})
+		}
+		valid := func(m planetary.Member) bool { return m >= planetary.NoMember && m <= planetary.Carrier }
+		if !valid(ms[0]) || !valid(ms[1]) || !valid(ms[2]) {
+			var ie *InputError
+			if !errors.As(err, &ie) {
+				// The ratios are checked first; a bad ratio may come before.
+				if errors.Is(err, ErrInput) {
+					return
+				}
+				t.Fatalf("members %v: %v, want an *InputError", ms, err)
+			}
+			for i, n := range names {
+				if ie.Field == n && !valid(ms[i]) {
+					return
+				}
+			}
+			if ie.Field == "PumpRatio" || ie.Field == "MotorRatio" || ie.Field == "InputRatio" {
+				return
+			}
+			t.Fatalf("members %v: %v names no invalid member", ms, err)
+		}
+		if err != nil {
+			if !knownKind(err) {
+				t.Fatalf("members %v: error of no documented kind: %v", ms, err)
+			}
+			return
+		}
+		// Built: it solves a point, or fails with a documented kind.
+		var st State
+		p := Point{Input: units.RPM(2000), Outputs: []OutputDemand{{Speed: units.RPM(300), Torque: 100}}}
+		if err := NewSolver(l).Solve(p, &st); err == nil {
+			checkSolved(t, &st, p)
+		} else if !knownKind(err) {
+			t.Fatalf("members %v: solve error of no documented kind: %v", ms, err)
 		}
 	})
 }
