@@ -33,7 +33,7 @@ func TestCSV(t *testing.T) {
 	// column, the same names as the root package's sweep CSV.
 	wantSteps := "design,segment,segment_name,start_s,duration_s,speed_kmh,grade_pct,engine_speed_rpm," +
 		"engine_torque_Nm,range,transmission_efficiency_pct,hydraulic_share_pct,slip_pct,fuel_kg_per_h," +
-		"high_pressure_bar,pump_speed_rpm,motor_speed_rpm,pump_setting_pct,motor_setting_pct"
+		"high_pressure_bar,pump_speed_rpm,motor_speed_rpm,pump_setting_pct,motor_setting_pct,front_slip_pct,front_torque_share_pct"
 	if got := strings.Join(recs[0], ","); got != wantSteps {
 		t.Errorf("steps header\n%s\nwant\n%s", got, wantSteps)
 	}
@@ -53,7 +53,8 @@ func TestCSV(t *testing.T) {
 	}
 	wantAudit := "design,segment,segment_name,kind,duration_s,distance_m,fuel_kg,fuel_MJ,engine_loss_MJ," +
 		"engine_work_MJ,engine_braking_MJ,hydrostatic_loss_MJ,mechanical_loss_MJ,no_load_loss_MJ,pto_loss_MJ,pto_work_MJ,slip_loss_MJ," +
-		"rolling_loss_MJ,brake_MJ,drawbar_MJ,trailer_rolling_MJ,aero_MJ,potential_MJ,kinetic_MJ,relative_residual_fraction,error"
+		"rolling_loss_MJ,brake_MJ,drawbar_MJ,trailer_rolling_MJ,aero_MJ,potential_MJ,kinetic_MJ," +
+		"front_slip_loss_MJ,rear_slip_loss_MJ,circulating_MJ,relative_residual_fraction,error"
 	if got := strings.Join(recs[0], ","); got != wantAudit {
 		t.Errorf("audit header\n%s\nwant\n%s", got, wantAudit)
 	}

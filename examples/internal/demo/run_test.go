@@ -103,3 +103,34 @@ func TestFrontMotorBuiltinLoads(t *testing.T) {
 		t.Error("no headland turn with a radius in the front-motor variant's day")
 	}
 }
+
+// TestFrontMotorValidate: the design file's front motor is checked.
+func TestFrontMotorValidate(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		name string
+		edit func(s *Scenario)
+		want string
+	}{
+		{"control", func(s *Scenario) { s.Tractor.FrontMotor.Control = "faster" }, "tractor.frontMotor.control"},
+		{"final drive", func(s *Scenario) { s.Tractor.FrontMotor.FinalDrive = 0 }, "tractor.frontMotor.finalDrive"},
+		{"setting", func(s *Scenario) { s.Tractor.FrontMotor.Setting[0].Setting = 1.5 }, "tractor.frontMotor"},
+		{"compound", func(s *Scenario) {
+			s.Transmission.Kind = "compound"
+			set2 := s.Transmission.Set
+			s.Transmission.Set2 = &set2
+		}, "front motor needs an input- or output-coupled split"},
+	} {
+		s, err := FrontMotor()
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := s.Validate(); err != nil {
+			t.Fatalf("built-in front-motor variant: %v", err)
+		}
+		c.edit(s)
+		if err := s.Validate(); err == nil || !strings.Contains(err.Error(), c.want) {
+			t.Errorf("%s: Validate() = %v, want an error naming %q", c.name, err, c.want)
+		}
+	}
+}
