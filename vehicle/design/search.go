@@ -546,7 +546,9 @@ func PartFile(dir string, k, n int) string {
 // RunPart runs this part and writes it to path, unless path already holds
 // this part complete (same header): then it reads it back and reports
 // skipped. The file appears only when complete (written aside, then
-// renamed), so an interrupted run leaves no partial part.
+// renamed), so an interrupted run leaves no partial part. A file at path
+// from another search (other space, seed, candidates, parts or version)
+// is replaced.
 func (e Explore) RunPart(path string) (rs []Result, skipped bool, err error) {
 	if err := e.check(); err != nil {
 		return nil, false, err
