@@ -70,6 +70,9 @@
 // with X the load ratio. PTO540 and PTO1000 are the ISO 500-1 standard
 // shaft speeds; a PTO speed demand fixes the engine speed through one of
 // the PTO ratios (EngineSpeed).
+// Under load the PTO driveline loses P·(1/η − 1); with no PTO power asked,
+// a PTO with Idle set loses the drag of its open clutch plates and its
+// bearings instead (PTOIdle.Power), in the PTO loss line.
 //
 // # Strategies
 //
