@@ -452,9 +452,19 @@ func checkSplit(input, pump, motor, eff float64, loop hydrostat.Loop, second *Se
 // The motor may turn
 // either way, so the hydrostat gives reverse without a reverse gear. At the
 // mechanical point the pump shaft stands still and the motor must swing back
-// to zero displacement: with a schedule that keeps a minimum motor setting
-// (hydrostat.Sequential: 0.2 by default) a band of output speeds around it
-// is unreachable (ErrUnreachable).
+// to zero displacement; beyond it the pump shaft turns backwards. How far
+// the range reaches there follows from the motor's hydrostat.Swing:
+//
+//   - SwingOverCentre: the schedules swing the motor through zero and over
+//     centre, so the range runs continuously through its mechanical point
+//     (Example_throughMechanicalPoint).
+//   - SwingToZero: the motor reaches zero but not over centre; beyond the
+//     mechanical point a pump that swings over centre reverses instead, and
+//     only a sliver next to the point, where the losses would need a
+//     slightly negative motor setting, stays unreachable.
+//   - SwingUnstated (the zero value): the schedule keeps a minimum motor
+//     setting (hydrostat.Sequential: 0.2 by default), and a band of output
+//     speeds around the mechanical point is unreachable (ErrUnreachable).
 func OutputCoupled(spec OutputCoupledSpec) (Layout, error) {
 	c, eta := checkSplit(spec.InputRatio, spec.PumpRatio, spec.MotorRatio, spec.GearEfficiency, spec.Loop, spec.Second)
 	if c.err != nil {
