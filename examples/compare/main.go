@@ -65,13 +65,10 @@ func run(r *demo.Run) error {
 		return err
 	}
 	power := units.Power(0.75 * float64(units.PowerFromTorque(full, study)))
-	fd, radius := sc.Tractor.FinalDrive, sc.Tractor.Rear.Tyre.RollingRadius
-	kmh := func(w units.AngularVelocity) float64 {
-		return units.SpeedFromAngular(w/units.AngularVelocity(fd), radius).KMH()
-	}
-	out := func(v float64) units.AngularVelocity {
-		return units.AngularVelocity(fd) * units.AngularFromSpeed(units.KMH(v), radius)
-	}
+	dl := vehicle.Driveline{FinalDrive: sc.Tractor.FinalDrive, RollingRadius: sc.Tractor.Rear.Tyre.RollingRadius,
+		Efficiency: sc.Tractor.FinalDriveEfficiency}
+	kmh := func(w units.AngularVelocity) float64 { return dl.TravelSpeed(w, 0).KMH() }
+	out := func(v float64) units.AngularVelocity { return dl.OutputSpeed(units.KMH(v), 0) }
 
 	// Each design on its own goroutine: the day takes a few seconds.
 	results := make([]*result, len(designs))

@@ -380,35 +380,22 @@ func loadCurves(r *demo.Run) error {
 	return nil
 }
 
-// converter turns output shaft quantities into travel speed and pull.
-type converter struct {
-	fd, eta float64
-	radius  units.Length
-}
+// converter turns output shaft quantities into travel speed (no slip) and
+// pull at the rear tyres' rolling radius, through the library's Driveline.
+type converter struct{ d vehicle.Driveline }
 
 func newConverter(sc *demo.Scenario) converter {
-	eta := sc.Tractor.FinalDriveEfficiency
-	if eta == 0 {
-		eta = vehicle.DefaultFinalDriveEfficiency
-	}
-	return converter{fd: sc.Tractor.FinalDrive, eta: eta, radius: sc.Tractor.Rear.Tyre.RollingRadius}
+	return converter{vehicle.Driveline{FinalDrive: sc.Tractor.FinalDrive, RollingRadius: sc.Tractor.Rear.Tyre.RollingRadius,
+		Efficiency: sc.Tractor.FinalDriveEfficiency}}
 }
 
-func (c converter) kmh(w units.AngularVelocity) float64 {
-	return units.SpeedFromAngular(w/units.AngularVelocity(c.fd), c.radius).KMH()
-}
+func (c converter) kmh(w units.AngularVelocity) float64 { return c.d.TravelSpeed(w, 0).KMH() }
 
-func (c converter) output(kmh float64) units.AngularVelocity {
-	return units.AngularVelocity(c.fd) * units.AngularFromSpeed(units.KMH(kmh), c.radius)
-}
+func (c converter) output(kmh float64) units.AngularVelocity { return c.d.OutputSpeed(units.KMH(kmh), 0) }
 
-func (c converter) pull(t units.Torque) units.Force {
-	return units.ForceFromTorque(units.Torque(float64(t)*c.fd*c.eta), c.radius)
-}
+func (c converter) pull(t units.Torque) units.Force { return c.d.Pull(t) }
 
-func (c converter) torque(f units.Force) units.Torque {
-	return units.Torque(float64(units.TorqueFromForce(f, c.radius)) / (c.fd * c.eta))
-}
+func (c converter) torque(f units.Force) units.Torque { return c.d.OutputTorque(f) }
 
 // dayPoints solves one operating point per driving segment (and per road
 // stretch) of the day with the least-fuel strategy and returns them in map
