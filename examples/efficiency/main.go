@@ -391,7 +391,9 @@ func newConverter(sc *demo.Scenario) converter {
 
 func (c converter) kmh(w units.AngularVelocity) float64 { return c.d.TravelSpeed(w, 0).KMH() }
 
-func (c converter) output(kmh float64) units.AngularVelocity { return c.d.OutputSpeed(units.KMH(kmh), 0) }
+func (c converter) output(kmh float64) units.AngularVelocity {
+	return c.d.OutputSpeed(units.KMH(kmh), 0)
+}
 
 func (c converter) pull(t units.Torque) units.Force { return c.d.Pull(t) }
 
