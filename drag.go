@@ -224,6 +224,25 @@ func (b *Builder) Bearings(name string, s Shaft, br Bearings) {
 	b.addDrag(dragSrc{name: name, kind: BearingDrag, a: int(s), b: -1, elem: -1, bearings: br})
 }
 
+// BearingsBetween adds the friction of rolling bearings between shafts a
+// and c (a gear turning free on its shaft, a shaft inside a hollow one):
+// their speed is the difference of the shafts' speeds, and the friction
+// moment acts on a and, opposite, on c.
+func (b *Builder) BearingsBetween(name string, a, c Shaft, br Bearings) {
+	if r := checkBearings(br); r != "" {
+		b.fail(name, r)
+		return
+	}
+	if a == c {
+		b.fail(name, "bearings between a shaft and itself")
+		return
+	}
+	if br.Count == 0 {
+		br.Count = 1
+	}
+	b.addDrag(dragSrc{name: name, kind: BearingDrag, a: int(a), b: int(c), elem: -1, bearings: br})
+}
+
 // Churning adds the churning and windage loss of a rotating part on shaft
 // s (see Wheel for the model).
 func (b *Builder) Churning(name string, s Shaft, w Wheel) {
@@ -521,9 +540,11 @@ type NoLoad struct {
 	ChargePumps []LoopChargePump
 }
 
-// ShaftBearings are the bearings of the shaft named Shaft.
+// ShaftBearings are the bearings of the shaft named Shaft, in the housing,
+// or, when Other names a shaft, between Shaft and Other.
 type ShaftBearings struct {
 	Name, Shaft string
+	Other       string
 	Bearings
 }
 
@@ -576,6 +597,10 @@ func (l Layout) WithLosses(n NoLoad) (Layout, error) {
 		return 0
 	}
 	for _, x := range n.Bearings {
+		if x.Other != "" {
+			b.BearingsBetween(x.Name, shaft(x.Name, x.Shaft), shaft(x.Name, x.Other), x.Bearings)
+			continue
+		}
 		b.Bearings(x.Name, shaft(x.Name, x.Shaft), x.Bearings)
 	}
 	for _, x := range n.Churning {

@@ -176,6 +176,10 @@ func genNoLoad(t *rapid.T, l Layout) NoLoad {
 		switch e.kind {
 		case ClutchKind, BrakeKind:
 			n.Plates = append(n.Plates, ElementPlates{Name: e.name + " plates", Element: e.name, Plates: pl})
+			if e.kind == ClutchKind {
+				n.Bearings = append(n.Bearings, ShaftBearings{Name: e.name + " free gear", Shaft: l.l.shafts[e.shafts[0]],
+					Other: l.l.shafts[e.shafts[1]], Bearings: Bearings{MeanDiameter: units.Millimetres(90), F0: 3}})
+			}
 		case PTOKind:
 			n.PTOIdle = append(n.PTOIdle, PTOIdleSpec{Name: e.name + " idle", PTO: e.name, Plates: pl,
 				Bearings: Bearings{MeanDiameter: units.Millimetres(60), F0: 2}})

@@ -29,10 +29,13 @@ type NoLoad struct {
 	ChargePump  *ChargePump        `json:"chargePump,omitempty"`
 }
 
-// BearingSet is the rolling bearings of one shaft (Palmgren's model).
+// BearingSet is the rolling bearings of one shaft (Palmgren's model), in
+// the housing or, with Other, between the shaft and another (a gear free
+// on its shaft).
 type BearingSet struct {
 	Name         string       `json:"name"`
 	Shaft        string       `json:"shaft"`
+	Other        string       `json:"other,omitempty"`
 	MeanDiameter units.Length `json:"meanDiameter"`
 	F0           float64      `json:"f0"`
 	F1           float64      `json:"f1,omitempty"`
@@ -111,7 +114,7 @@ func (t Transmission) withLosses(l powersplit.Layout) (powersplit.Layout, error)
 	}
 	spec := powersplit.NoLoad{Lubricant: lube}
 	for _, b := range n.Bearings {
-		spec.Bearings = append(spec.Bearings, powersplit.ShaftBearings{Name: b.Name, Shaft: b.Shaft, Bearings: powersplit.Bearings{
+		spec.Bearings = append(spec.Bearings, powersplit.ShaftBearings{Name: b.Name, Shaft: b.Shaft, Other: b.Other, Bearings: powersplit.Bearings{
 			MeanDiameter: b.MeanDiameter, F0: b.F0, F1: b.F1, Load: b.Load, Count: b.Count}})
 	}
 	for _, c := range n.Churning {
