@@ -61,10 +61,14 @@ type LayoutError struct {
 }
 
 func (e *LayoutError) Error() string {
-	if e.Element == "" {
-		return e.Err.Error() + ": " + e.Reason
+	kind := ErrLayout.Error()
+	if e.Err != nil {
+		kind = e.Err.Error()
 	}
-	return e.Err.Error() + ": " + strconv.Quote(e.Element) + ": " + e.Reason
+	if e.Element == "" {
+		return kind + ": " + e.Reason
+	}
+	return kind + ": " + strconv.Quote(e.Element) + ": " + e.Reason
 }
 
 // Unwrap returns the sentinel.

@@ -93,7 +93,11 @@ type InputError struct {
 
 // Error returns the message with the numbers.
 func (e *InputError) Error() string {
-	return e.Err.Error() + ": " + e.Quantity + " = " + fmtNum(e.Value)
+	kind := "planetary: invalid input"
+	if e.Err != nil {
+		kind = e.Err.Error()
+	}
+	return kind + ": " + e.Quantity + " = " + fmtNum(e.Value)
 }
 
 // Unwrap returns the sentinel so that errors.Is finds it.

@@ -25,6 +25,9 @@ type ParseError struct {
 
 // Error returns the message, naming the quantity and the text.
 func (e *ParseError) Error() string {
+	if e.Err == nil {
+		return "units: parsing " + e.Quantity + " " + strconv.Quote(e.Text)
+	}
 	return "units: parsing " + e.Quantity + " " + strconv.Quote(e.Text) + ": " + trimPrefix(e.Err.Error())
 }
 

@@ -301,6 +301,9 @@ func (e *Engine) Fuel() Fuel { return e.fuel }
 // MaxTorque returns the full-load torque at speed w; a speed outside the
 // curve is a *LimitError wrapping ErrEngineLimit.
 func (e *Engine) MaxTorque(w units.AngularVelocity) (units.Torque, error) {
+	if e == nil || !(e.hi > 0) {
+		return 0, invalid("engine", math.NaN(), "not built with NewEngine")
+	}
 	x := float64(w)
 	if math.IsNaN(x) {
 		return 0, invalid("engine speed", w, "must be a number")

@@ -33,6 +33,9 @@ type LeastFuel struct {
 
 // Operate implements Strategy.
 func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
+	if v == nil {
+		return Point{}, invalid("vehicle", math.NaN(), "is nil")
+	}
 	if err := d.Validate(); err != nil {
 		return Point{}, err
 	}
@@ -128,6 +131,9 @@ type FixedSpeed struct {
 
 // Operate implements Strategy.
 func (s FixedSpeed) Operate(v *Vehicle, d Demand) (Point, error) {
+	if v == nil {
+		return Point{}, invalid("vehicle", math.NaN(), "is nil")
+	}
 	if err := d.Validate(); err != nil {
 		return Point{}, err
 	}
