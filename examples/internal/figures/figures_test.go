@@ -101,3 +101,50 @@ func TestBars(t *testing.T) {
 		t.Error("Bars with mismatched labels = nil error")
 	}
 }
+
+// TestNiceTicks checks that the major ticks step by 1, 2, 2.5 or 5 times a
+// power of ten, six to ten of them, with labels free of rounding noise.
+func TestNiceTicks(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		lo, hi float64
+		want   string // labels of the major ticks
+	}{
+		{0, 45, "0 5 10 15 20 25 30 35 40 45"},
+		{-110, 115, "-100 -75 -50 -25 0 25 50 75 100"},
+		{800, 2250, "800 1000 1200 1400 1600 1800 2000 2200"},
+		{0.1, 0.7, "0.1 0.2 0.3 0.4 0.5 0.6 0.7"},
+	} {
+		var got []string
+		for _, tk := range (niceTicks{}).Ticks(c.lo, c.hi) {
+			if tk.Label != "" {
+				got = append(got, tk.Label)
+			}
+		}
+		if s := strings.Join(got, " "); s != c.want {
+			t.Errorf("ticks on [%g, %g] = %q, want %q", c.lo, c.hi, s, c.want)
+		}
+	}
+}
+
+func TestPanelsAndBarPanels(t *testing.T) {
+	t.Parallel()
+	s := Series{Name: "a", X: []float64{0, 1, 2}, Y: []float64{1, 3, 2}, Step: true}
+	files, err := Panels(t.TempDir(), "panels", "a design: two panels", "a note",
+		Panel{Axes: Axes{Y: "y (m)", Limits: []Limit{{Name: "limit", Y: 2.5}}}, Series: []Series{s}},
+		Panel{Axes: Axes{X: "x (s)", Y: "range", YTicks: []string{"standing", "one"}}, Series: []Series{s}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkFiles(t, files)
+	files, err = BarPanels(t.TempDir(), "bars", "a design: bars", "",
+		BarPanel{Axes: Axes{Title: "left", Y: "E (MJ)"}, Labels: []string{"a", "b"}, Values: []float64{3, -1}},
+		BarPanel{Axes: Axes{Title: "right", Y: "E (MJ)"}, Labels: []string{"c"}, Values: []float64{math.NaN()}, Share: 0.3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkFiles(t, files)
+	if _, err := Panels(t.TempDir(), "none", "t", ""); err == nil {
+		t.Error("Panels with no panel = nil error")
+	}
+}
