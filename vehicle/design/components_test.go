@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math"
 	"path/filepath"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -18,7 +19,7 @@ import (
 
 // replaceIn replaces the first old after the first occurrence of after
 // (the whole text when after is ""), failing when either is missing.
-func replaceIn(t *testing.T, text, after, old, new string) string {
+func replaceIn(t testing.TB, text, after, old, new string) string {
 	t.Helper()
 	i := strings.Index(text, after)
 	if i < 0 {
@@ -37,7 +38,7 @@ func replaceIn(t *testing.T, text, after, old, new string) string {
 // VG46 with viscosity index 140; on the output-coupled alternative a set
 // by teeth with profile shifts, over-centre units and an oil of fixed
 // viscosity.
-func componentFile(t *testing.T) string {
+func componentFile(t testing.TB) string {
 	t.Helper()
 	text := string(testFile(t))
 	const motor = `"motor": {"displacement": "110 cm³/rev", "maxSpeed": "3200 rpm", "ratedPressure": "420 bar", "peakPressure": "480 bar"`
@@ -242,4 +243,37 @@ func TestComponentErrors(t *testing.T) {
 			}
 		})
 	}
+}
+
+// FuzzComponentFields: the component file with a swing, a shift, a
+// viscosity index and a fixed viscosity replaced by arbitrary text either
+// fails to parse or parses, saves and parses again to equal values.
+func FuzzComponentFields(f *testing.F) {
+	f.Add("over centre", "0.2", "140", "25 mPa·s")
+	f.Add("to-zero", "0.5", "-20", "0.02 Pa·s")
+	f.Add("sideways", "3", "1e9", "-1 cP")
+	f.Add("", "NaN", "null", "")
+	base := componentFile(f)
+	f.Fuzz(func(t *testing.T, swing, shift, vi, mu string) {
+		text := replaceIn(t, base, "", `"swing": "to zero"`, `"swing": `+strconv.Quote(swing))
+		text = replaceIn(t, text, "", `"oilViscosityIndex": 140`, `"oilViscosityIndex": `+vi)
+		const alt = `"kind": "output-coupled"`
+		text = replaceIn(t, text, alt, `"sunShift": 0.2`, `"sunShift": `+shift)
+		text = replaceIn(t, text, alt, `"oilViscosity": "25 mPa·s"`, `"oilViscosity": `+strconv.Quote(mu))
+		a, err := Parse("fuzz.json", []byte(text))
+		if err != nil {
+			return
+		}
+		b, err := a.Marshal()
+		if err != nil {
+			t.Fatalf("Marshal of a parsed design: %v", err)
+		}
+		c, err := Parse("again.json", b)
+		if err != nil {
+			t.Fatalf("Parse of a saved design: %v", err)
+		}
+		if diff := cmp.Diff(a, c, cmpopts.IgnoreUnexported(File{})); diff != "" {
+			t.Errorf("parse, save, parse: values differ:\n%s", diff)
+		}
+	})
 }
