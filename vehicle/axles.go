@@ -505,32 +505,41 @@ func (v *Vehicle) axlesAt(at AxleTransmission, ty Tyres, pull, relief float64, d
 		return v.solveAxles(at, ty, pull, relief, d, w, rng, math.NaN())
 	}
 	hi := fm.info.MaxSetting
+	// The schedule's own setting is the first candidate, so the search
+	// never ends above it.
+	best, bestP := axles{}, math.Inf(1)
+	if a, err := v.solveAxles(at, ty, pull, relief, d, w, rng, math.NaN()); err == nil {
+		best, bestP = a, float64(a.dp.InputTorque)
+	}
 	power := func(x float64) float64 {
 		a, err := v.solveAxles(at, ty, pull, relief, d, w, rng, x)
 		if err != nil {
 			return math.Inf(1)
+		}
+		if p := float64(a.dp.InputTorque); p < bestP {
+			best, bestP = a, p
 		}
 		return float64(a.dp.InputTorque)
 	}
 	// A coarse scan over both signs (the setting that drives changes sign
 	// with the loop's high side), then Brent's minimiser about the best.
 	const n = 8
-	best, bx := math.Inf(1), math.NaN()
+	bx, bp := math.NaN(), math.Inf(1)
 	for i := 0; i <= n; i++ {
 		x := -hi + 2*hi*float64(i)/n
-		if p := power(x); p < best {
-			best, bx = p, x
+		if p := power(x); p < bp {
+			bx, bp = x, p
 		}
+	}
+	if !math.IsInf(bestP, 1) && (math.IsNaN(bx) || bestP < bp) {
+		bx = best.dp.FrontSetting
 	}
 	if math.IsNaN(bx) {
 		return v.solveAxles(at, ty, pull, relief, d, w, rng, math.NaN())
 	}
 	step := 2 * hi / n
-	x, fx := numeric.Minimize(power, math.Max(-hi, bx-step), math.Min(hi, bx+step), 1e-3)
-	if !(fx <= best) {
-		x = bx
-	}
-	return v.solveAxles(at, ty, pull, relief, d, w, rng, x)
+	numeric.Minimize(power, math.Max(-hi, bx-step), math.Min(hi, bx+step), 1e-3)
+	return best, nil
 }
 
 // axlesPoint solves the two-axle drive of At and fills p's slips, drive,

@@ -265,3 +265,16 @@ func TestFrontMotorDay(t *testing.T) {
 			front, a.Fuel.Kilograms(), a.FrontSlip.Kilojoules(), a.RearSlip.Kilojoules(), a.Hydrostatic.Kilojoules(), turn.Circulating.Kilojoules())
 	}
 }
+
+// BenchmarkFrontMotorAt is one two-axle point: the axle split found by
+// secant steps, each a solve of the split transmission.
+func BenchmarkFrontMotorAt(b *testing.B) {
+	v := axVehicle(b, true, vehicle.FrontSchedule)
+	d := vehicle.Demand{Speed: units.KMH(7), Draft: units.Kilonewtons(22)}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := v.At(d, units.RPM(1800), 0); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -83,6 +83,19 @@ func run(r *demo.Run) error {
 	if err := day(r, drives); err != nil {
 		return err
 	}
+	if !quick {
+		// The front setting of least engine power, point by point, in the
+		// ploughing sweep (some twenty solves a point: not for the day).
+		lpSc := *sc
+		lpFM := *sc.Tractor.FrontMotor
+		lpFM.Control = "least power"
+		lpSc.Tractor.FrontMotor = &lpFM
+		lp, err := lpSc.Vehicle(sc.Transmission)
+		if err != nil {
+			return err
+		}
+		drives = append(drives, drive{name: "front-axle motor, least-power setting", v: lp, sc: &lpSc})
+	}
 	return sweep(r, drives)
 }
 
@@ -182,6 +195,10 @@ func sweep(r *demo.Run, drives []drive) error {
 					rw.share = 100 * p.FrontShare
 				}
 			}
+			if i == 2 {
+				rows[i][k] = rw
+				continue // the least-power setting: ploughing only
+			}
 			if p, err := strategy().Operate(d.v, vehicle.Demand{Speed: v, Ground: turnGround, TurnRadius: radius}); err == nil {
 				f := p.Flows
 				rw.turnLoss = (f.Slip + f.Rolling + f.Hydrostatic + f.Mechanical + f.NoLoad).Kilowatts()
@@ -209,6 +226,18 @@ func sweep(r *demo.Run, drives []drive) error {
 			f(a.turnLoss, 2), f(b.turnLoss, 2), f(a.turnCirc, 2))
 	}
 	t.Write(r.W)
+	if len(drives) > 2 {
+		t := demo.NewTable("km/h", "fuel kg/h", "front setting chosen: share %", "slip front %", "slip rear %")
+		for k, kmh := range speeds {
+			if math.Mod(kmh, 1) != 0 {
+				continue
+			}
+			c := rows[2][k]
+			t.Row(f(kmh, 0), f(c.fuel, 2), f(c.share, 0), f(c.slipF, 1), f(c.slipR, 1))
+		}
+		r.Printf("\n  %s:\n", drives[2].name)
+		t.Write(r.W)
+	}
 	r.Note("Mechanical front slip follows from the rear slip and the lead: 1 − (1 − s_rear)/(1 + lead). Above the front " +
 		"motor's declutch speed the front wheels roll free and the motor stands still; a dash marks a point beyond a limit.")
 
@@ -225,10 +254,29 @@ func sweep(r *demo.Run, drives []drive) error {
 		files = append(files, fs...)
 		return err
 	}
-	names := []string{drives[0].name, drives[1].name}
+	var names []string
+	for _, d := range drives {
+		names = append(names, d.name)
+	}
+	// extra appends the least-power drive's series, when it ran.
+	extra := func(ss ...any) []figures.Series {
+		var out []figures.Series
+		for _, x := range ss {
+			switch v := x.(type) {
+			case figures.Series:
+				out = append(out, v)
+			case func(int) figures.Series:
+				if len(drives) > 2 {
+					out = append(out, v(2))
+				}
+			}
+		}
+		return out
+	}
 	if err := add(figures.Lines(r.Out, "frontmotor_fuel", figures.Axes{Title: "Fuel while ploughing (least-fuel engine speed and range)",
 		X: "travel speed (km/h)", Y: "fuel (kg/h)", LegendBottom: true},
-		series(func(w row) float64 { return w.fuel }, names[0], false, 0), series(func(w row) float64 { return w.fuel }, names[1], false, 1))); err != nil {
+		extra(series(func(w row) float64 { return w.fuel }, names[0], false, 0), series(func(w row) float64 { return w.fuel }, names[1], false, 1),
+			func(i int) figures.Series { return series(func(w row) float64 { return w.fuel }, names[i], true, i) })...)); err != nil {
 		return err
 	}
 	if err := add(figures.Lines(r.Out, "frontmotor_slip", figures.Axes{Title: "Wheel slip while ploughing", X: "travel speed (km/h)", Y: "slip (%)"},
@@ -238,7 +286,8 @@ func sweep(r *demo.Run, drives []drive) error {
 	}
 	if err := add(figures.Lines(r.Out, "frontmotor_split", figures.Axes{Title: "Front axle's share of the wheel torque (front-axle motor)",
 		X: "travel speed (km/h)", Y: "front share (%)"},
-		series(func(w row) float64 { return w.share }, names[1], false, 1))); err != nil {
+		extra(series(func(w row) float64 { return w.share }, names[1], false, 1),
+			func(i int) figures.Series { return series(func(w row) float64 { return w.share }, names[i], true, i) })...)); err != nil {
 		return err
 	}
 	if err := add(figures.Lines(r.Out, "frontmotor_turn", figures.Axes{Title: fmt.Sprintf("Headland turn, radius %.0f m: losses", float64(radius)),
