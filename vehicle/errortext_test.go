@@ -69,3 +69,14 @@ func TestUnratedFlags(t *testing.T) {
 		t.Errorf("Flag.String() = %q", s)
 	}
 }
+
+// TestExtrapolatedFlagText: a traction model outside its fitted range is a
+// flag that says so.
+func TestExtrapolatedFlagText(t *testing.T) {
+	t.Parallel()
+	f := vehicle.Flag{Name: "traction model outside its fitted range: front tyres: b/d 0.55 outside 0.2–0.4", Extrapolated: true, Time: 2 * time.Minute}
+	want := "traction model outside its fitted range: front tyres: b/d 0.55 outside 0.2–0.4 (the pull is extrapolated) for 2 min"
+	if s := f.String(); s != want {
+		t.Errorf("Flag.String() = %q, want %q", s, want)
+	}
+}

@@ -25,6 +25,10 @@ type Flag struct {
 	// "hydrostat: motor 1 speed: maximum speed not rated, not checked",
 	// or "front tyre load") and Value and Limit are zero.
 	Unchecked bool
+	// Extrapolated means the traction model ran outside the range it was
+	// fitted to (see traction.Pull.Outside): Name says how, and the pull
+	// is an extrapolation. Value and Limit are zero.
+	Extrapolated bool
 	// Time is the time spent beyond the rating: zero at a single point,
 	// summed over the steps of a segment or a day.
 	Time time.Duration
@@ -34,9 +38,17 @@ type Flag struct {
 // values in the trade's units: "hydrostat: pump pressure 290 bar above
 // rated 150 bar for 42 min".
 //
-// An Unchecked flag reads "<name>: not rated, not checked[ for <time>]"
+// An Extrapolated flag reads "<name> (the pull is extrapolated)[ for
+// <time>]". An Unchecked flag reads "<name>: not rated, not checked[ for <time>]"
 // (its name alone when it says so already).
 func (f Flag) String() string {
+	if f.Extrapolated {
+		s := f.Name + " (the pull is extrapolated)"
+		if f.Time > 0 {
+			s += " for " + minutes(f.Time)
+		}
+		return s
+	}
 	if f.Unchecked {
 		s := f.Name
 		if !strings.HasSuffix(s, "not checked") {

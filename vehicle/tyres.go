@@ -40,6 +40,9 @@ type Wheels struct {
 	// Unrated names the axles whose tyres have no load rating, so that
 	// their load is not checked: "", "front", "rear" or "front and rear".
 	Unrated string
+	// Outside names the traction model's inputs outside the range it was
+	// fitted to, per axle (see traction.Pull.Outside); "" when none.
+	Outside string
 }
 
 // A SlipCurve is a simple traction model for studies and tests: all wheels
@@ -176,7 +179,22 @@ func (t Tyres) wheels(d traction.Drive) Wheels {
 		RearSlipLoss:  d.Rear.SlipLoss,
 		Circulating:   d.CirculatingPower,
 		Unrated:       unrated(t.Vehicle.Front.Tyre.RatedLoad > 0, t.Vehicle.Rear.Tyre.RatedLoad > 0),
+		Outside:       outside(d.Front.Wheel.Outside, d.Rear.Wheel.Outside),
 	}
+}
+
+// outside joins the axles' Pull.Outside flags; it allocates only when
+// there is one.
+func outside(front, rear string) string {
+	switch {
+	case front == "" && rear == "":
+		return ""
+	case front == "":
+		return "rear tyres: " + rear
+	case rear == "":
+		return "front tyres: " + front
+	}
+	return "front tyres: " + front + "; rear tyres: " + rear
 }
 
 // unrated names the axles whose tyres have no load rating.

@@ -317,6 +317,9 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		if wh.Overloaded {
 			p.Flags = append(p.Flags, Flag{Name: FlagTyreOverload, Value: units.Of(wh.TyreLoad), Limit: units.Of(wh.RatedLoad)})
 		}
+		if wh.Outside != "" {
+			p.Flags = append(p.Flags, Flag{Name: "traction model outside its fitted range: " + wh.Outside, Extrapolated: true})
+		}
 		if wh.Unrated != "" {
 			p.Flags = append(p.Flags, Flag{Name: wh.Unrated + " " + FlagTyreOverload, Unchecked: true})
 		}

@@ -128,7 +128,14 @@ func run(r *demo.Run) error {
 	}
 	for _, s := range day.Segments {
 		for _, f := range s.Flags {
-			r.Note("Rated limit crossed (check it): " + s.Name + ": " + f.String() + ".")
+			kind := "Rated limit crossed (check it): "
+			switch {
+			case f.Extrapolated:
+				kind = "Model extrapolated (read as an estimate): "
+			case f.Unchecked:
+				kind = "Limit not checked (no rating given): "
+			}
+			r.Note(kind + s.Name + ": " + f.String() + ".")
 		}
 	}
 	sum.FuelKilograms, sum.FuelLitres = a.Fuel.Kilograms(), a.Volume(fuel).Litres()
