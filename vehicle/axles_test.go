@@ -5,6 +5,8 @@ import (
 	"math"
 	"testing"
 
+	"pgregory.net/rapid"
+
 	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/planetary"
@@ -277,4 +279,46 @@ func BenchmarkFrontMotorAt(b *testing.B) {
 			b.Fatal(err)
 		}
 	}
+}
+
+// TestPropertyFrontMotorFlows: at random two-axle points (straight or in a
+// turn, with or without draft) that solve, the flows close, the axles'
+// slip losses add up to the slip loss, and each axle travels at the speed
+// its path needs.
+func TestPropertyFrontMotorFlows(t *testing.T) {
+	t.Parallel()
+	v := axVehicle(t, true, vehicle.FrontSchedule)
+	tr := axTyres(false).Vehicle
+	solved := 0
+	defer func() {
+		t.Logf("%d of the drawn points solved and checked", solved)
+		if solved < 5 {
+			t.Errorf("only %d points solved", solved)
+		}
+	}()
+	rapid.Check(t, func(rt *rapid.T) {
+		d := vehicle.Demand{Speed: units.KMH(rapid.Float64Range(2, 12).Draw(rt, "km/h")),
+			Draft: units.Kilonewtons(rapid.Float64Range(0, 25).Draw(rt, "draft kN"))}
+		k := 1.0
+		if rapid.Bool().Draw(rt, "turn") {
+			d.TurnRadius = units.Metres(rapid.Float64Range(4, 30).Draw(rt, "radius m"))
+			g, err := tr.Turn(d.TurnRadius)
+			if err != nil {
+				rt.Fatal(err)
+			}
+			k = g.SpeedRatio
+		}
+		w := units.RPM(rapid.Float64Range(1300, 2100).Draw(rt, "engine rpm"))
+		rng := rapid.IntRange(0, 3).Draw(rt, "range")
+		p, err := v.At(d, w, rng)
+		if err != nil {
+			rt.Skip(err)
+		}
+		checkFlows(t, "random point", p)
+		wf := float64(p.Drive.FrontSpeed) / axFrontFD
+		if got := wf * 0.71 * (1 - p.FrontSlip) / float64(d.Speed); math.Abs(got-k) > 1e-9*k {
+			rt.Fatalf("front over rear travel speed %v, want %v", got, k)
+		}
+		solved++
+	})
 }
