@@ -26,47 +26,61 @@ func TestPropertyCompiledMatchesGeneral(t *testing.T) {
 		}
 	}()
 	rapid.Check(t, func(t *rapid.T) {
-		c := rapid.Custom(genCase).Draw(t, "layout and point")
-		gen, fast := NewSolver(c.l), NewSolver(c.l)
-		gen.general = true
-		// A neighbouring point first, so that the compiled path starts
-		// from another point's directions.
-		q := c.p
-		q.Outputs = append([]OutputDemand(nil), c.p.Outputs...)
-		q.Outputs[0].Torque = -q.Outputs[0].Torque * units.Torque(rapid.Float64Range(0, 1.5).Draw(t, "neighbour torque"))
-		var scratch State
-		_ = fast.Solve(q, &scratch)
-		hits := fast.comp.hits
-		var a, b State
-		ea, eb := fast.Solve(c.p, &a), gen.Solve(c.p, &b)
-		points++
-		if fast.comp.hits > hits {
+		if checkCompiled(t) {
 			compiled++
 		}
-		if !sameError(ea, eb) {
-			t.Fatalf("%s: compiled: %v; general: %v", c.kind, ea, eb)
-		}
-		if ea != nil {
-			return
-		}
-		if d := summaryDiff(&a, &b, 1e-12); d != "" {
-			t.Fatalf("%s: compiled %s", c.kind, d)
-		}
-		tscale := 0.0
-		for i := range b.ports {
-			tscale = math.Max(tscale, math.Abs(float64(b.ports[i].Torque)))
-		}
-		for i := range b.ports {
-			ta, tb := float64(a.ports[i].Torque), float64(b.ports[i].Torque)
-			if math.Abs(ta-tb) > 1e-12*(math.Abs(tb)+tscale) {
-				t.Fatalf("%s: port %d torque compiled %.17g, general %.17g", c.kind, i, ta, tb)
-			}
-		}
-		br := State{Brief: true}
-		if err := fast.Solve(c.p, &br); err != nil || summaryDiff(&br, &a, 0) != "" {
-			t.Fatalf("%s: Brief compiled %v: %s", c.kind, err, summaryDiff(&br, &a, 0))
-		}
+		points++
 	})
+}
+
+// checkCompiled draws a layout and a point, solves the point on both paths
+// (the compiled solver after a neighbouring point) and fails t unless they
+// agree; it reports whether the compiled solver took the compiled path.
+func checkCompiled(t *rapid.T) bool {
+	c := rapid.Custom(genCase).Draw(t, "layout and point")
+	gen, fast := NewSolver(c.l), NewSolver(c.l)
+	gen.general = true
+	// A neighbouring point first, so that the compiled path starts
+	// from another point's directions.
+	q := c.p
+	q.Outputs = append([]OutputDemand(nil), c.p.Outputs...)
+	q.Outputs[0].Torque = -q.Outputs[0].Torque * units.Torque(rapid.Float64Range(0, 1.5).Draw(t, "neighbour torque"))
+	var scratch State
+	_ = fast.Solve(q, &scratch)
+	hits := fast.comp.hits
+	var a, b State
+	ea, eb := fast.Solve(c.p, &a), gen.Solve(c.p, &b)
+	took := fast.comp.hits > hits
+	if !sameError(ea, eb) {
+		t.Fatalf("%s: compiled: %v; general: %v", c.kind, ea, eb)
+	}
+	if ea != nil {
+		return took
+	}
+	if d := summaryDiff(&a, &b, 1e-12); d != "" {
+		t.Fatalf("%s: compiled %s", c.kind, d)
+	}
+	tscale := 0.0
+	for i := range b.ports {
+		tscale = math.Max(tscale, math.Abs(float64(b.ports[i].Torque)))
+	}
+	for i := range b.ports {
+		ta, tb := float64(a.ports[i].Torque), float64(b.ports[i].Torque)
+		if math.Abs(ta-tb) > 1e-12*(math.Abs(tb)+tscale) {
+			t.Fatalf("%s: port %d torque compiled %.17g, general %.17g", c.kind, i, ta, tb)
+		}
+	}
+	br := State{Brief: true}
+	if err := fast.Solve(c.p, &br); err != nil || summaryDiff(&br, &a, 0) != "" {
+		t.Fatalf("%s: Brief compiled %v: %s", c.kind, err, summaryDiff(&br, &a, 0))
+	}
+	return took
+}
+
+// FuzzCompiledMatchesGeneral is TestPropertyCompiledMatchesGeneral as a
+// fuzz target.
+func FuzzCompiledMatchesGeneral(f *testing.F) {
+	f.Fuzz(rapid.MakeFuzz(func(t *rapid.T) { checkCompiled(t) }))
 }
 
 // TestCompiledOnBenchmarkPoints: every benchmark point takes the compiled
