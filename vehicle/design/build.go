@@ -161,6 +161,11 @@ func (t Transmission) validate(c *checker, field string) {
 	c.positive(field+".pump.displacement", float64(t.Pump.Displacement), t.Pump.Displacement)
 	c.positive(field+".motor.displacement", float64(t.Motor.Displacement), t.Motor.Displacement)
 	c.positive(field+".relief", float64(t.Relief), t.Relief)
+	for i, r := range t.Ranges {
+		if r.Locked && t.Kind == "compound" {
+			c.add(fmt.Sprintf("%s.ranges[%d].locked", field, i), "a compound split has no locked range here")
+		}
+	}
 	if len(t.Ranges) == 0 {
 		c.add(field+".ranges", "needs at least one range gear")
 	}
@@ -250,7 +255,7 @@ func (t Transmission) layout(front *Unit, second *powersplit.SecondMotor) (power
 	}
 	ranges := make([]powersplit.RangeGear, len(t.Ranges))
 	for i, r := range t.Ranges {
-		ranges[i] = powersplit.RangeGear{Name: r.Name, Ratio: r.Ratio, FromVariator: r.FromVariator}
+		ranges[i] = powersplit.RangeGear{Name: r.Name, Ratio: r.Ratio, FromVariator: r.FromVariator, Locked: r.Locked}
 	}
 	switch t.Kind {
 	case "input-coupled":

@@ -373,6 +373,11 @@ type Range struct {
 	// so that ranges alternate and shift synchronously
 	// (powersplit.RangeGear.FromVariator). Optional; default false.
 	FromVariator bool `json:"fromVariator,omitempty"`
+	// Locked makes the range a locked (mechanical) range: a brake holds the
+	// variator member and the hydrostat is bypassed, so the range runs at
+	// the split's mechanical point only (powersplit.RangeGear.Locked).
+	// Optional; default false.
+	Locked bool `json:"locked,omitempty"`
 }
 
 // Surface is a ground surface and the traction model used on it. Model is
