@@ -167,10 +167,14 @@ func TestFrontMotorPoint(t *testing.T) {
 // ch. 8, Ackerman steering geometry: with wheelbase L, track t and the
 // rear axle's centre on radius R, the front wheels steer to
 // tan δ_i = L/(R − t/2) and tan δ_o = L/(R + t/2) and roll on radii
-// L/sin δ_i and L/sin δ_o, the rear wheels on R ∓ t/2 (equations from
-// memory of that text). The front axle's mean travel speed over the rear's
-// is (L/sin δ_i + L/sin δ_o)/(2R); here R follows from a given inner
-// steering angle.
+// L/sin δ_i and L/sin δ_o, the rear wheels on R ∓ t/2 (from memory of
+// that text; the same relations, tan δ = L/(R ∓ t/2) and the outer front
+// wheel's radius √((R + t/2)² + L²), read on
+// https://novasolver.jp/en/tools/ackermann-steering.html). The front
+// axle's mean travel speed over the rear's is
+// (L/sin δ_i + L/sin δ_o)/(2R); here R follows from a given inner
+// steering angle, and the vehicle's front axle speed is read back from the
+// solved front output speed and front slip.
 func TestFrontMotorTurn(t *testing.T) {
 	t.Parallel()
 	v := axVehicle(t, true, vehicle.FrontSchedule)
