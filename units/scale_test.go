@@ -2,6 +2,7 @@ package units
 
 import (
 	"encoding"
+	"errors"
 	"math"
 	"testing"
 	"time"
@@ -294,5 +295,24 @@ func TestParseEveryUnit(t *testing.T) {
 		if got := c.p.String(); got != c.want {
 			t.Errorf("%v W prints %q, want %q", float64(c.p), got, c.want)
 		}
+	}
+}
+
+func TestMarshalNonFinite(t *testing.T) {
+	t.Parallel()
+	for _, v := range []float64{math.NaN(), math.Inf(1), math.Inf(-1)} {
+		_, err := Pressure(v).MarshalText()
+		var pe *ParseError
+		if !errors.As(err, &pe) || !errors.Is(err, ErrRange) || pe.Quantity != "pressure" {
+			t.Errorf("Pressure(%v).MarshalText() error = %v, want a *ParseError with ErrRange", v, err)
+		}
+	}
+	// The message names the quantity and the text, with or without a cause
+	// (a cause from outside the package keeps its own prefix).
+	if got := (&ParseError{Quantity: "speed", Text: "fast"}).Error(); got != `units: parsing speed "fast"` {
+		t.Errorf("message without cause = %q", got)
+	}
+	if got := (&ParseError{Quantity: "speed", Text: "fast", Err: errors.New("io: short")}).Error(); got != `units: parsing speed "fast": io: short` {
+		t.Errorf("message with a foreign cause = %q", got)
 	}
 }
