@@ -42,6 +42,15 @@ func FuzzNew(f *testing.F) {
 		if err != nil {
 			t.Fatalf("Solve on a valid set: %v", err)
 		}
+		// A set built from tooth counts keeps the Willis equation, and its
+		// fixed-carrier ratio is the tooth ratio: −ring/sun for single
+		// planets, +ring/sun for planet pairs.
+		if r := s.Residual(sp); r > 1e-12 {
+			t.Fatalf("New(%+v): Willis residual %g", d, r)
+		}
+		if want := float64(zr) / float64(zs); math.Abs(math.Abs(i0)-want) > 1e-12*want {
+			t.Fatalf("New(%+v): i0 = %v, tooth ratio %v", d, i0, want)
+		}
 		ps, err := s.PlanetSpeeds(sp)
 		if err != nil || !finiteAll(float64(ps.Inner), float64(ps.Outer), float64(ps.InnerAbsolute), float64(ps.OuterAbsolute)) {
 			t.Fatalf("PlanetSpeeds(%v) = %v, %v", sp, ps, err)
