@@ -211,3 +211,29 @@ func TestUnratedListed(t *testing.T) {
 		}
 	}
 }
+
+// TestStateResetEveryEntry: every entry that fills a State leaves it
+// holding no point after an *InputError.
+func TestStateResetEveryEntry(t *testing.T) {
+	t.Parallel()
+	l := benchLayout(t, false)
+	s := NewSolver(l)
+	good := Point{Input: units.RPM(2000), Outputs: []OutputDemand{{Speed: units.RPM(300), Torque: 100}}}
+	bad := Point{Input: -1, Outputs: good.Outputs}
+	for name, call := range map[string]func(*State) error{
+		"Best":        func(st *State) error { return s.Best(bad, nil, st) },
+		"SolveTotal":  func(st *State) error { return s.SolveTotal(good, TotalDemand{Torque: 100, Weights: []float64{1, 2, 3}}, st) },
+		"BestSetting": func(st *State) error { _, _, err := s.BestSetting(bad, SettingSearch{}, st); return err },
+	} {
+		var st State
+		if err := s.Solve(good, &st); err != nil {
+			t.Fatal(err)
+		}
+		if err := call(&st); !errors.Is(err, ErrInput) {
+			t.Errorf("%s: %v, want ErrInput", name, err)
+		}
+		if st.InputPower != 0 || len(st.Outputs) != 0 {
+			t.Errorf("%s: the State still holds the earlier point", name)
+		}
+	}
+}

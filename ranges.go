@@ -263,6 +263,10 @@ func (s *Solver) Feasible(p Point, dst []int) []int {
 // each range's reason (the range's own error when the layout has one
 // range), and st.Range is Auto: no range was chosen.
 func (s *Solver) Best(p Point, pol Policy, st *State) error {
+	return resetOnInput(s.best(p, pol, st), st)
+}
+
+func (s *Solver) best(p Point, pol Policy, st *State) error {
 	if st == nil {
 		return errNilState
 	}

@@ -310,6 +310,10 @@ type TotalDemand struct {
 // and the split of power. Errors are Solve's; a total that no torque of
 // the first output meets within 40 solves is a *ConvergenceError.
 func (s *Solver) SolveTotal(p Point, d TotalDemand, st *State) error {
+	return resetOnInput(s.solveTotal(p, d, st), st)
+}
+
+func (s *Solver) solveTotal(p Point, d TotalDemand, st *State) error {
 	if err := s.checkEntry(&p, st); err != nil {
 		return err
 	}
@@ -408,6 +412,11 @@ type SettingSearch struct {
 // returns the setting and the total loss, or Solve's error at the best
 // setting found when no setting in the range is feasible.
 func (s *Solver) BestSetting(p Point, q SettingSearch, st *State) (float64, units.Power, error) {
+	x, loss, err := s.bestSetting(p, q, st)
+	return x, loss, resetOnInput(err, st)
+}
+
+func (s *Solver) bestSetting(p Point, q SettingSearch, st *State) (float64, units.Power, error) {
 	if err := s.checkEntry(&p, st); err != nil {
 		return 0, 0, err
 	}

@@ -175,6 +175,16 @@ var errNilState = &InputError{Field: "st", Value: units.Plain(math.NaN()), Reaso
 // checkEntry checks a public entry's point and state. After an *InputError st
 // holds no point: it is reset to the zero State (Brief kept), so no number
 // of an earlier point can be read as this one's.
+// resetOnInput resets st to the zero State (Brief kept) when err is an
+// *InputError, so that no number of an earlier point can be read as the
+// answer to a refused one; it returns err.
+func resetOnInput(err error, st *State) error {
+	if err != nil && st != nil && errors.Is(err, ErrInput) {
+		*st = State{Brief: st.Brief}
+	}
+	return err
+}
+
 func (s *Solver) checkEntry(p *Point, st *State) error {
 	if st == nil {
 		return errNilState
