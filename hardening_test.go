@@ -221,8 +221,10 @@ func TestStateResetEveryEntry(t *testing.T) {
 	good := Point{Input: units.RPM(2000), Outputs: []OutputDemand{{Speed: units.RPM(300), Torque: 100}}}
 	bad := Point{Input: -1, Outputs: good.Outputs}
 	for name, call := range map[string]func(*State) error{
-		"Best":        func(st *State) error { return s.Best(bad, nil, st) },
-		"SolveTotal":  func(st *State) error { return s.SolveTotal(good, TotalDemand{Torque: 100, Weights: []float64{1, 2, 3}}, st) },
+		"Best": func(st *State) error { return s.Best(bad, nil, st) },
+		"SolveTotal": func(st *State) error {
+			return s.SolveTotal(good, TotalDemand{Torque: 100, Weights: []float64{1, 2, 3}}, st)
+		},
 		"BestSetting": func(st *State) error { _, _, err := s.BestSetting(bad, SettingSearch{}, st); return err },
 	} {
 		var st State
