@@ -21,6 +21,10 @@ type Strategy interface {
 // the top of the torque curve, the point of least fuel flow that meets
 // every limit. A demanded PTO speed fixes the engine speed; then only the
 // range is chosen.
+// Between points of equal fuel — on a descent, where the motored engine
+// burns none — it chooses the one that leaves the least to the service
+// brakes (the most engine braking), as a driver holding a high engine
+// speed downhill does.
 //
 // The search samples Samples speeds per range and refines the best sample
 // by Brent's minimiser to Tolerance, so it finds the least fuel to within
@@ -73,7 +77,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 			tries = append(tries, try{rng: r, err: err})
 			continue
 		}
-		if !found || p.FuelRate < best.FuelRate {
+		if !found || better(p, best) {
 			best, found = p, true
 		}
 	}
@@ -81,6 +85,13 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 		return Point{}, infeasibleTries(v.s.Transmission, tries)
 	}
 	return best, nil
+}
+
+// better reports whether p burns less fuel than q, or as little (both
+// zero: the engine motored with its fuel cut, on a descent) with less
+// work for the service brakes, that is with more engine braking.
+func better(p, q Point) bool {
+	return p.FuelRate < q.FuelRate || (p.FuelRate == q.FuelRate && p.Flows.Brake < q.Flows.Brake)
 }
 
 // refine samples the speeds in range r and refines the best sample.
@@ -96,7 +107,7 @@ func refine(v *Vehicle, d Demand, r int, ws []float64, tol float64) (Point, erro
 			lastErr = err
 			continue
 		}
-		if bestI < 0 || p.FuelRate < best.FuelRate {
+		if bestI < 0 || better(p, best) {
 			best, bestI = p, i
 		}
 	}
@@ -165,7 +176,7 @@ func bestRange(v *Vehicle, d Demand, ws []units.AngularVelocity) (Point, error) 
 				tries = append(tries, try{rng: r, engine: w, err: err})
 				continue
 			}
-			if !found || p.FuelRate < best.FuelRate {
+			if !found || better(p, best) {
 				best, found = p, true
 			}
 		}

@@ -76,7 +76,7 @@ func ExampleSimulate() {
 	// start        5 s  fuel  0.011 kg  drawbar  0.00 MJ  PTO  0.00 MJ  transmission loss  0.02 MJ
 	// disking    120 s  fuel  0.435 kg  drawbar  3.35 MJ  PTO  0.00 MJ  transmission loss  1.12 MJ
 	// turn        15 s  fuel  0.030 kg  drawbar  0.00 MJ  PTO  0.00 MJ  transmission loss  0.04 MJ
-	// road       115 s  fuel  0.264 kg  drawbar  0.00 MJ  PTO  0.00 MJ  transmission loss  0.86 MJ
+	// road       115 s  fuel  0.264 kg  drawbar  0.00 MJ  PTO  0.00 MJ  transmission loss  0.85 MJ
 	// pump        60 s  fuel  0.204 kg  drawbar  0.00 MJ  PTO  2.40 MJ  transmission loss  0.00 MJ
 	// day: 1.13 L of fuel, audit closes: true
 }
