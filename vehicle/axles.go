@@ -339,9 +339,10 @@ func (a *axles) rolling() float64 {
 // torque their slip needs, with k·N_f + N_r = pull (k the turn's front to
 // rear speed ratio: the pulls balance in power, Σ N_i·v_i = pull·v), each
 // axle's wheel speed from its own slip. relief (>= 0, W) is power the
-// load gives back (downhill, slowing): it is taken off the rear wheels'
-// torque, and what the rear wheels cannot give up goes to the brakes.
-func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief float64, d Demand, w units.AngularVelocity, rng int, setting float64) (axles, error) {
+// load gives back (downhill, slowing) and brake (in [0, relief]) the part
+// of it the service brakes take: the rest is taken off the rear wheels'
+// torque, which turns negative (overrun) when it exceeds what they need.
+func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief, brake float64, d Demand, w units.AngularVelocity, rng int, setting float64) (axles, error) {
 	if ty.Model == nil {
 		return axles{}, invalid("Tyres.Model", math.NaN(), "is required")
 	}
@@ -379,11 +380,9 @@ func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief float64
 		if err != nil {
 			return 0, err
 		}
-		tr := ra.n*float64(rs.Gross)*rr - relief/float64(rs.WheelSpeed) // rear wheel torque
-		brake := 0.0
-		if relief > 0 && tr < 0 {
-			brake, tr = -tr*float64(rs.WheelSpeed), 0
-		}
+		// The rear wheel torque: what their slip needs, less the power the
+		// load gives back that the brakes do not take (negative: overrun).
+		tr := ra.n*float64(rs.Gross)*rr - (relief-brake)/float64(rs.WheelSpeed)
 		tOut := tr / rfd / rEff
 		if tr < 0 {
 			tOut = tr / rfd * rEff
@@ -499,20 +498,20 @@ func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief float64
 // axlesAt solves the two-axle point for At: with the FrontLeastPower
 // control the front setting of least engine power, else the
 // transmission's own.
-func (v *Vehicle) axlesAt(at AxleTransmission, ty Tyres, pull, relief float64, d Demand, w units.AngularVelocity, rng int) (axles, error) {
+func (v *Vehicle) axlesAt(at AxleTransmission, ty Tyres, pull, relief, brake float64, d Demand, w units.AngularVelocity, rng int) (axles, error) {
 	fm, ok := at.(*FrontMotorDrive)
-	if !ok || fm.control != FrontLeastPower || fm.declutched(rng) {
-		return v.solveAxles(at, ty, pull, relief, d, w, rng, math.NaN())
+	if !ok || fm.control != FrontLeastPower || fm.declutched(rng) || relief > 0 {
+		return v.solveAxles(at, ty, pull, relief, brake, d, w, rng, math.NaN())
 	}
 	hi := fm.info.MaxSetting
 	// The schedule's own setting is the first candidate, so the search
 	// never ends above it.
 	best, bestP := axles{}, math.Inf(1)
-	if a, err := v.solveAxles(at, ty, pull, relief, d, w, rng, math.NaN()); err == nil {
+	if a, err := v.solveAxles(at, ty, pull, relief, brake, d, w, rng, math.NaN()); err == nil {
 		best, bestP = a, float64(a.dp.InputTorque)
 	}
 	power := func(x float64) float64 {
-		a, err := v.solveAxles(at, ty, pull, relief, d, w, rng, x)
+		a, err := v.solveAxles(at, ty, pull, relief, brake, d, w, rng, x)
 		if err != nil {
 			return math.Inf(1)
 		}
@@ -535,7 +534,7 @@ func (v *Vehicle) axlesAt(at AxleTransmission, ty Tyres, pull, relief float64, d
 		bx = best.dp.FrontSetting
 	}
 	if math.IsNaN(bx) {
-		return v.solveAxles(at, ty, pull, relief, d, w, rng, math.NaN())
+		return v.solveAxles(at, ty, pull, relief, brake, d, w, rng, math.NaN())
 	}
 	step := 2 * hi / n
 	numeric.Minimize(power, math.Max(-hi, bx-step), math.Min(hi, bx+step), 1e-3)
@@ -545,7 +544,7 @@ func (v *Vehicle) axlesAt(at AxleTransmission, ty Tyres, pull, relief float64, d
 // axlesPoint solves the two-axle drive of At and fills p's slips, drive,
 // flows and flags; it returns the torque the transmission takes from the
 // engine.
-func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pull float64, d Demand, w units.AngularVelocity, rng int) (units.Torque, error) {
+func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pull float64, d Demand, w units.AngularVelocity, rng int, ptoTorque units.Torque) (units.Torque, error) {
 	ty, ok := ground.(Tyres)
 	if !ok {
 		return 0, invalid("Traction", math.NaN(), "a transmission that drives both axles needs Tyres as its ground")
@@ -553,9 +552,34 @@ func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pul
 	vs := float64(d.Speed)
 	relief := math.Max(0, -pull*vs)
 	rng = min(max(rng, 0), at.Ranges()-1)
-	a, err := v.axlesAt(at, ty, math.Max(pull, 0), relief, d, w, rng)
+	a, err := v.axlesAt(at, ty, math.Max(pull, 0), relief, 0, d, w, rng)
 	if err != nil {
 		return 0, err
+	}
+	if tm := float64(v.s.Engine.MotoringTorque(w)); relief > 0 && float64(a.dp.InputTorque+ptoTorque) < -tm {
+		// Overrun beyond what the engine absorbs at its motoring torque:
+		// the service brakes take the rest of the power given back.
+		var ferr error
+		h := func(b float64) float64 {
+			x, err := v.axlesAt(at, ty, math.Max(pull, 0), relief, b, d, w, rng)
+			if err != nil {
+				ferr = err
+				return math.NaN()
+			}
+			a = x
+			return float64(x.dp.InputTorque+ptoTorque) + tm
+		}
+		b, err := numeric.Brent(h, 0, relief, 1e-9*relief, 100)
+		if ferr != nil {
+			return 0, ferr
+		}
+		if err != nil {
+			return 0, &LimitError{Quantity: "overrun wheel power", Value: units.Of(units.Power(relief)), Bound: "no engine braking share found above",
+				Limit: units.Of(units.Power(0)), Err: ErrTransmission}
+		}
+		if h(b); ferr != nil {
+			return 0, ferr
+		}
 	}
 	f := &p.Flows
 	dp := a.dp

@@ -326,3 +326,35 @@ func TestPropertyFrontMotorFlows(t *testing.T) {
 		solved++
 	})
 }
+
+// TestFrontMotorOverrun: downhill the two-axle drive brakes on the engine
+// first (no fuel, engine braking) and on the service brakes beyond the
+// engine's motoring torque; the flows close either way.
+func TestFrontMotorOverrun(t *testing.T) {
+	t.Parallel()
+	v := axVehicle(t, true, vehicle.FrontSchedule)
+	road := axTyres(false)
+	road.Model, road.Surface = traction.Road{}, traction.Asphalt()
+	for _, grade := range []float64{-0.15, -0.25} {
+		d := vehicle.Demand{Speed: units.KMH(10), Grade: grade, Ground: road}
+		var p vehicle.Point
+		var err error
+		for _, w := range []float64{1200, 1500, 1800, 2100} {
+			if p, err = v.At(d, units.RPM(w), 0); err == nil {
+				break
+			}
+		}
+		if err != nil {
+			t.Fatalf("grade %v: %v", grade, err)
+		}
+		checkFlows(t, "overrun", p)
+		if p.Flows.EngineBraking <= 0 || p.FuelRate != 0 {
+			t.Errorf("grade %v: engine braking %v, fuel %v: want the engine motored without fuel", grade, p.Flows.EngineBraking, p.FuelRate)
+		}
+		if grade == -0.25 && !(p.Flows.Brake > 0) {
+			t.Errorf("grade %v: no service braking beyond the engine's motoring torque", grade)
+		}
+		t.Logf("grade %v: engine braking %.2f kW, brakes %.2f kW, engine torque %.1f N·m", grade,
+			p.Flows.EngineBraking.Kilowatts(), p.Flows.Brake.Kilowatts(), p.EngineTorque.NewtonMetres())
+	}
+}

@@ -99,9 +99,10 @@
 // mechanical front drive at a fixed lead runs turns through
 // traction.Vehicle.FixedRatioTurn (Demand.TurnRadius, Segment.TurnRadius):
 // the wind-up shows as Flows.Circulating. Flows and Audit split the slip
-// loss between the axles (FrontSlip, RearSlip). Downhill with both axles
-// driven, the brakes take what the rear wheels give back (no engine
-// braking on this path).
+// loss between the axles (FrontSlip, RearSlip). When the load drives the
+// vehicle (downhill, slowing) the rear wheels give power back through the
+// transmission (overrun) until the engine absorbs its motoring torque; the
+// service brakes take the rest.
 //
 // # Duty cycles and the energy audit
 //

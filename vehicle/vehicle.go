@@ -295,7 +295,7 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 	}
 	at, axleDrive := s.Transmission.(AxleTransmission)
 	if vs > 0 && axleDrive {
-		t, err := v.axlesPoint(&p, at, ground, pull, d, w, rng)
+		t, err := v.axlesPoint(&p, at, ground, pull, d, w, rng, ptoTorque)
 		if err != nil {
 			return Point{}, err
 		}
