@@ -92,7 +92,7 @@ func NewLoop(s LoopSpec) (Loop, error) {
 	}
 	for i, m := range s.Motors {
 		if !(m.dmax > 0) {
-			return Loop{}, fmt.Errorf("%w: motor %d not built with NewUnit", ErrInvalid, i)
+			return Loop{}, fmt.Errorf("%w: motor %d not built with NewUnit", ErrInvalid, i+1)
 		}
 	}
 	c, r := float64(s.Charge), float64(s.Relief)
@@ -118,7 +118,7 @@ func NewLoop(s LoopSpec) (Loop, error) {
 	names := make([][2]string, 1+len(s.Motors))
 	names[0] = [2]string{"pump pressure", "pump speed"}
 	for i := range s.Motors {
-		m := "motor " + strconv.Itoa(i)
+		m := "motor " + strconv.Itoa(i+1)
 		names[i+1] = [2]string{m + " pressure", m + " speed"}
 	}
 	floor := -1.0
@@ -467,7 +467,7 @@ func (l Loop) Solve(in LoopInput) (LoopState, error) {
 	}
 	for i := range n {
 		if !finite(float64(in.MotorSpeeds[i])) || !finite(float64(in.MotorTorques[i])) {
-			return LoopState{}, fmt.Errorf("%w: motor %d speed or torque not finite", ErrInvalid, i)
+			return LoopState{}, fmt.Errorf("%w: motor %d speed or torque not finite", ErrInvalid, i+1)
 		}
 		if in.MotorSettings != nil && (!finite(in.MotorSettings[i]) || math.Abs(in.MotorSettings[i]) > 1) {
 			return LoopState{}, &LimitError{Quantity: fmt.Sprintf("motor %d setting", i+1), Value: units.Plain(in.MotorSettings[i]), Bound: "full displacement", Limit: units.Plain(math.Copysign(1, in.MotorSettings[i])), Err: ErrSettingLimit}

@@ -32,7 +32,7 @@ type Pinned struct {
 func (p Pinned) Validate() error {
 	for i, x := range p.Held {
 		if !math.IsNaN(x) && !(x >= -1 && x <= 1) {
-			return fmt.Errorf("%w: held setting %v of motor %d outside [-1, 1]", ErrInvalid, x, i)
+			return fmt.Errorf("%w: held setting %v of motor %d (Held[%d]) outside [-1, 1]", ErrInvalid, x, i+1, i)
 		}
 	}
 	return validMin(p.MinMotorSetting)
