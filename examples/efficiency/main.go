@@ -157,7 +157,11 @@ func run(r *demo.Run) error {
 		r.Note("Ranges taken from the variator's member alternate with ranges from the summing shaft: at each " +
 			"synchronous shift point every shaft turns at the same speed in both ranges, and the variator sweeps " +
 			"back the other way in the next range. Each row above covers a range's whole reach; a least-fuel " +
-			"strategy drives each range mostly between its shift points, where no power circulates in this design.")
+			"strategy drives each range mostly between its shift points, where no power circulates in this design. " +
+			"The price of synchronous changes with a single planetary set: the hydrostat carries a fifth to two " +
+			"thirds of the power in every range, so the efficiency stays a few points below that of a design " +
+			"whose range gears all follow the summing shaft (go run ./examples/compare), which in turn must " +
+			"jump its variator at every range change.")
 		if sps, err := solver.ShiftPoints(powersplit.Point{Input: study, Outputs: []powersplit.OutputDemand{{Speed: 1}}}); err == nil {
 			for _, sp := range sps {
 				r.Note(fmt.Sprintf("Synchronous shift %s → %s at %s (loop speed ratio %.2f).", layout.RangeName(sp.From),
