@@ -52,6 +52,15 @@ func TestValidationNamesTheField(t *testing.T) {
 			return d.Validate()
 		}
 	}
+	idle := func(f func(*vehicle.PTOIdle)) func() error {
+		i := vehicle.PTOIdle{
+			Plates:    powersplit.Plates{Films: 8, Inner: units.Millimetres(60), Outer: units.Millimetres(90), Clearance: units.Millimetres(0.2)},
+			Bearings:  powersplit.Bearings{MeanDiameter: units.Millimetres(70), F0: 2},
+			Lubricant: powersplit.Lubricant{Viscosity: units.Centistokes(40), Density: units.KilogramsPerCubicMetre(870)},
+		}
+		f(&i)
+		return spec(func(s *vehicle.Spec) { s.PTO = vehicle.PTO{Ratios: []float64{3.5}, Idle: &i} })
+	}
 	geometry := func(g vehicle.Geometry) func() error {
 		return spec(func(s *vehicle.Spec) { s.Geometry = &g })
 	}
@@ -119,6 +128,15 @@ func TestValidationNamesTheField(t *testing.T) {
 			return err
 		}},
 		{"depth", func() error { _, err := vehicle.MoldboardPlough.Draft(vehicle.Fine, units.KMH(7), 2.4, 0); return err }},
+		{"PTO.Idle.Plates", idle(func(i *vehicle.PTOIdle) { i.Plates.Outer = i.Plates.Inner })},
+		{"PTO.Idle.Lubricant.Viscosity", idle(func(i *vehicle.PTOIdle) { i.Lubricant.Viscosity = 0 })},
+		{"PTO.Idle.Lubricant.Density", idle(func(i *vehicle.PTOIdle) { i.Lubricant.Density = -1 })},
+		{"PTO.Idle.Bearings.MeanDiameter", idle(func(i *vehicle.PTOIdle) { i.Bearings.MeanDiameter = -0.1 })},
+		{"PTO.Idle.Bearings.F0", idle(func(i *vehicle.PTOIdle) { i.Bearings.F0 = 0 })},
+		{"PTO.Idle.Bearings.F1", idle(func(i *vehicle.PTOIdle) { i.Bearings.F1 = -1 })},
+		{"PTO.Idle.Bearings.Load", idle(func(i *vehicle.PTOIdle) { i.Bearings.Load = units.Force(nan) })},
+		{"PTO.Idle.Bearings.Count", idle(func(i *vehicle.PTOIdle) { i.Bearings.Count = -1 })},
+		{"PTO.Idle.SpeedRatio", idle(func(i *vehicle.PTOIdle) { i.SpeedRatio = -1 })},
 		{"Driveline.FinalDrive", func() error { return vehicle.Driveline{RollingRadius: 0.8}.Validate() }},
 		{"Driveline.RollingRadius", func() error { return vehicle.Driveline{FinalDrive: 20}.Validate() }},
 		{"Driveline.Efficiency", func() error { return vehicle.Driveline{FinalDrive: 20, RollingRadius: 0.8, Efficiency: 1.5}.Validate() }},
