@@ -150,3 +150,28 @@ func snapSpeeds(w []float64) {
 		}
 	}
 }
+
+// BoundLockedSpeed is the Bound of the *LimitError (ErrUnreachable) of a
+// point whose output speed is not the one its locked range gives: its
+// Value is the output speed asked, its Limit the one the range gives.
+const BoundLockedSpeed = boundLockedSpeed
+
+// LockedRatio returns the first output's speed over the input speed of
+// range rng when it is a locked range whose other outputs are free of it
+// (ok false otherwise, and for a range that is not locked).
+func (l Layout) LockedRatio(rng int) (ratio float64, ok bool) {
+	if l.l == nil || rng < 0 || rng >= len(l.l.ranges) {
+		return 0, false
+	}
+	r := &l.l.ranges[rng]
+	nG := 1 + len(l.l.outputs)
+	if !r.locked || r.nConsist != 1 || r.consist[1] == 0 {
+		return 0, false
+	}
+	for j := 2; j < nG; j++ {
+		if r.consist[j] != 0 {
+			return 0, false
+		}
+	}
+	return -r.consist[0] / r.consist[1], true
+}

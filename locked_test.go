@@ -42,6 +42,12 @@ func TestLockedRange(t *testing.T) {
 	if math.Abs(st.Efficiency-1) > 1e-12 || st.HydraulicShare != 0 {
 		t.Errorf("efficiency %v, hydraulic share %v", st.Efficiency, st.HydraulicShare)
 	}
+	if nu, ok := l.LockedRatio(1); !ok || math.Abs(nu-0.7) > 1e-12 {
+		t.Errorf("LockedRatio = %v, %v; want 0.7", nu, ok)
+	}
+	if _, ok := l.LockedRatio(0); ok {
+		t.Error("the split range reported as locked")
+	}
 	// Any other output speed is unreachable in the locked range, and the
 	// error names the speed the range gives.
 	p.Outputs[0].Speed = units.AngularVelocity(0.69 * float64(win))

@@ -116,3 +116,7 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 	}
 	return p, nil
 }
+
+// LockedRatio returns the output over engine speed of range rng when it is
+// a locked (mechanical) range of the layout (powersplit.Layout.LockedRatio).
+func (d *LayoutDrive) LockedRatio(rng int) (float64, bool) { return d.layout.LockedRatio(rng) }

@@ -118,3 +118,62 @@ func TestLayoutVehicleCycle(t *testing.T) {
 	}
 	t.Logf("%+v", day.Audit)
 }
+
+// A locked range at the mechanical point: the least-fuel strategy runs it
+// at the one engine speed that gives the travel speed, where no power
+// passes the hydrostat.
+func TestLockedRangeStrategy(t *testing.T) {
+	t.Parallel()
+	set, err := planetary.FromRatio(-2.5, 0.98)
+	if err != nil {
+		t.Fatal(err)
+	}
+	u, err := hydrostat.NewUnit(hydrostat.UnitSpec{MaxDisplacement: units.CCPerRev(110), MaxSpeed: units.RPM(4000),
+		Loss: hydrostat.Wilson{Slip: 1e-9, Viscous: 2e5, Friction: 0.01, ConstantPressure: units.Bar(1)}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	loop, err := hydrostat.NewLoop(hydrostat.LoopSpec{Pump: u, Motors: []hydrostat.Unit{u}, Oil: hydrostat.VG46,
+		Temperature: units.Celsius(60), Charge: units.Bar(20), Relief: units.Bar(450)})
+	if err != nil {
+		t.Fatal(err)
+	}
+	l, err := powersplit.OutputCoupled(powersplit.OutputCoupledSpec{Set: set, Loop: loop, PumpRatio: 1.2, MotorRatio: 0.8,
+		Ranges: []powersplit.RangeGear{{Name: "split", Ratio: 0.5}, {Name: "locked", Ratio: 0.5, Locked: true}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	drive, err := vehicle.FromLayout(l)
+	if err != nil {
+		t.Fatal(err)
+	}
+	v, err := vehicle.New(vehicle.Spec{Mass: units.Tonnes(9), Tyres: demoTyres(0.02), Transmission: drive, FinalDrive: 20,
+		Engine: demoEngine(t, true)})
+	if err != nil {
+		t.Fatal(err)
+	}
+	d := vehicle.Demand{Speed: units.KMH(20), Draft: units.Kilonewtons(12)}
+	p, err := vehicle.LeastFuel{}.Operate(v, d)
+	if err != nil {
+		t.Fatal(err)
+	}
+	nu, ok := l.LockedRatio(1)
+	if !ok {
+		t.Fatal("range 1 not locked")
+	}
+	// The locked point: the engine speed that gives the output speed.
+	wl := units.AngularVelocity(float64(p.Drive.OutputSpeed) / nu)
+	lp, err := v.At(d, wl, 1)
+	if err != nil {
+		t.Fatalf("locked range at %v: %v", wl, err)
+	}
+	t.Logf("chosen: range %d at %v, fuel %v, efficiency %.3f; locked: %v, fuel %v, efficiency %.3f",
+		p.Range, p.EngineSpeed, p.FuelRate, p.TransmissionEfficiency(), wl, lp.FuelRate, lp.TransmissionEfficiency())
+	if lp.Drive.HydrostaticShare != 0 || !(lp.TransmissionEfficiency() > 0.85) {
+		t.Errorf("locked point: share %v, efficiency %v", lp.Drive.HydrostaticShare, lp.TransmissionEfficiency())
+	}
+	// The strategy saw the locked point: it chose it or one that burns less.
+	if p.FuelRate > lp.FuelRate {
+		t.Errorf("least fuel %v above the locked range's %v", p.FuelRate, lp.FuelRate)
+	}
+}

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 
+	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/internal/numeric"
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -72,6 +73,15 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 		tries []try
 	)
 	for r := range v.s.Transmission.Ranges() {
+		if lp, ok, err := lockedPoint(v, d, r); ok {
+			// A locked range runs at one engine speed for this travel speed.
+			if err != nil {
+				tries = append(tries, try{rng: r, err: err})
+			} else if !found || better(lp, best) {
+				best, found = lp, true
+			}
+			continue
+		}
 		p, err := refine(v, d, r, e.speeds(lo, hi, n), tol)
 		if err != nil {
 			tries = append(tries, try{rng: r, err: err})
@@ -85,6 +95,38 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 		return Point{}, infeasibleTries(v.s.Transmission, tries)
 	}
 	return best, nil
+}
+
+// A LockedRatioer is a Transmission with locked (mechanical) ranges: each
+// runs at one output speed per engine speed, output = ratio·engine.
+type LockedRatioer interface {
+	LockedRatio(rng int) (ratio float64, ok bool)
+}
+
+// lockedPoint solves demand d in range r when r is a locked range of the
+// vehicle's transmission (ok true): at the one engine speed that gives the
+// output speed the travel speed needs. The output speed comes from the
+// transmission's own report of the speed asked (a point at idle speed).
+func lockedPoint(v *Vehicle, d Demand, r int) (Point, bool, error) {
+	lr, ok := v.s.Transmission.(LockedRatioer)
+	if !ok {
+		return Point{}, false, nil
+	}
+	nu, ok := lr.LockedRatio(r)
+	if !ok || !(nu > 0) {
+		return Point{}, false, nil
+	}
+	w0 := v.Engine().Idle()
+	p, err := v.At(d, w0, r)
+	if err == nil {
+		return p, true, nil
+	}
+	le, isLimit := errors.AsType[*powersplit.LimitError](err)
+	if !isLimit || le.Bound != powersplit.BoundLockedSpeed {
+		return Point{}, true, err
+	}
+	p, err = v.At(d, units.AngularVelocity(le.Value.SI/nu), r)
+	return p, true, err
 }
 
 // better reports whether p burns less fuel than q, or as little (both
