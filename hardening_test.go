@@ -239,3 +239,21 @@ func TestStateResetEveryEntry(t *testing.T) {
 		}
 	}
 }
+
+// TestSweepRefusesEngineSpeed: a sweep or map at a non-positive engine
+// speed is refused up front, naming the field, not cell by cell.
+func TestSweepRefusesEngineSpeed(t *testing.T) {
+	t.Parallel()
+	l := benchLayout(t, false)
+	for _, in := range []units.AngularVelocity{units.RPM(-2000), 0} {
+		_, err := l.Sweep(SweepSpec{Input: in, From: units.RPM(100), To: units.RPM(500), Steps: 3, Torque: 100})
+		var ie *InputError
+		if !errors.As(err, &ie) || ie.Field != "Input" {
+			t.Errorf("Sweep at %v: %v, want an *InputError naming Input", in, err)
+		}
+		_, err = l.Map(MapSpec{Input: in, SpeedFrom: units.RPM(100), SpeedTo: units.RPM(500), SpeedSteps: 2, TorqueTo: 100, TorqueSteps: 2})
+		if !errors.As(err, &ie) || ie.Field != "Input" {
+			t.Errorf("Map at %v: %v, want an *InputError naming Input", in, err)
+		}
+	}
+}

@@ -196,19 +196,26 @@ func (s *Solver) checkEntry(p *Point, st *State) error {
 	return err
 }
 
+// checkInput checks an engine speed: finite, positive, at most MaxSpeed.
+func checkInput(in units.AngularVelocity) error {
+	switch {
+	case bad(float64(in)):
+		return &InputError{Field: "Input", Value: units.Of(in), Reason: "not finite"}
+	case !(in > 0):
+		return &InputError{Field: "Input", Value: units.Of(in), Reason: "the engine speed must be positive (the engine turns the input forwards)"}
+	case in > MaxSpeed:
+		return &InputError{Field: "Input", Value: units.Of(in), Reason: "above " + MaxSpeed.String() + ", beyond any engine"}
+	}
+	return nil
+}
+
 func (s *Solver) check(p *Point) error {
 	l := s.l
 	if p.Range < 0 || p.Range >= len(l.ranges) {
 		return &InputError{Field: "Range", Value: units.Plain(float64(p.Range)), Reason: "no such range"}
 	}
-	if bad(float64(p.Input)) {
-		return &InputError{Field: "Input", Value: units.Of(p.Input), Reason: "not finite"}
-	}
-	if !(p.Input > 0) {
-		return &InputError{Field: "Input", Value: units.Of(p.Input), Reason: "the engine speed must be positive (the engine turns the input forwards)"}
-	}
-	if p.Input > MaxSpeed {
-		return &InputError{Field: "Input", Value: units.Of(p.Input), Reason: "above " + MaxSpeed.String() + ", beyond any engine"}
+	if err := checkInput(p.Input); err != nil {
+		return err
 	}
 	if len(p.Outputs) != len(l.outputs) {
 		return &InputError{Field: "len(Outputs)", Value: units.Plain(float64(len(p.Outputs))), Reason: "one demand per output needed"}

@@ -400,8 +400,8 @@ func (l Layout) checkSpec(rg int, in units.AngularVelocity, pto []units.Torque) 
 	if rg != Auto && (rg < 0 || rg >= len(l.l.ranges)) {
 		return &InputError{Field: "Range", Value: units.Plain(float64(rg)), Reason: "no such range"}
 	}
-	if bad(float64(in)) {
-		return &InputError{Field: "Input", Value: units.Of(in), Reason: "not finite"}
+	if err := checkInput(in); err != nil {
+		return err
 	}
 	if pto != nil && len(pto) != len(l.l.ptos) {
 		return &InputError{Field: "len(PTO)", Value: units.Plain(float64(len(pto))), Reason: "one torque per PTO, or nil"}
