@@ -600,7 +600,14 @@ func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pul
 		return 0, &LimitError{Quantity: "tyre power balance", Value: units.Of(units.Power(bal)), Bound: "tolerance",
 			Limit: units.Of(units.Power(1e-6 * math.Abs(wheelPower))), Err: ErrTraction}
 	}
-	f.Circulating = units.Power(math.Max(0, -pf) + math.Max(0, -pr))
+	// Circulating power: one axle driving while the other is driven
+	// backwards (both given back, downhill, is overrun, not circulation).
+	switch {
+	case pf > 0 && pr < 0:
+		f.Circulating = units.Power(-pr)
+	case pr > 0 && pf < 0:
+		f.Circulating = units.Power(-pf)
+	}
 	w0 := float64(w)
 	pin := float64(dp.InputTorque) * w0
 	pout := float64(dp.OutputTorque)*float64(dp.OutputSpeed) + float64(dp.FrontTorque)*float64(dp.FrontSpeed)
