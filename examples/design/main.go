@@ -298,7 +298,7 @@ func report(r *demo.Run, sc *design.File, base *design.File, p design.Problem, r
 	for _, m := range front {
 		pf.X, pf.Y = append(pf.X, m.Objectives[1]), append(pf.Y, m.Objectives[0])
 	}
-	files, err := figures.Lines(r.Out, "design_pareto", figures.Axes{Title: "Fuel over the duty spectrum against hydrostat size",
+	files, err := figures.Lines(r.Out, "design_pareto", figures.Axes{Title: r.Scenario.Name + ": fuel over the duty spectrum against hydrostat size",
 		X: "installed displacement, pump + motor (cm³/rev)", Y: "fuel (kg)"}, all, pf)
 	if err != nil {
 		return err
@@ -359,8 +359,8 @@ func effort(r *demo.Run, name string, f *design.File) ([]string, error) {
 		series[p.Range].Y = append(series[p.Range].Y, y)
 	}
 	files, err := figures.Lines(r.Out, "design_effort_"+name, figures.Axes{
-		Title: fmt.Sprintf("Full-load tractive effort, %s design, %s, engine at %.0f rpm", name, surface, v.Engine().Rated().RPM()),
-		X:     "travel speed (km/h)", Y: "drawbar pull (kN)"}, series...)
+		Title: fmt.Sprintf("%s: full-load tractive effort, %s design, %s, engine at %.0f rpm", r.Scenario.Name, name, surface, v.Engine().Rated().RPM()),
+		X:     "travel speed (km/h)", Y: "drawbar pull (kN)", Note: demo.FigureCaution}, series...)
 	return append([]string{path}, files...), err
 }
 

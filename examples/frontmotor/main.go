@@ -273,24 +273,24 @@ func sweep(r *demo.Run, drives []drive) error {
 		}
 		return out
 	}
-	if err := add(figures.Lines(r.Out, "frontmotor_fuel", figures.Axes{Title: "Fuel while ploughing (least-fuel engine speed and range)",
+	if err := add(figures.Lines(r.Out, "frontmotor_fuel", figures.Axes{Title: r.Scenario.Name + ": fuel while ploughing (least-fuel engine speed and range)",
 		X: "travel speed (km/h)", Y: "fuel (kg/h)", LegendBottom: true},
 		extra(series(func(w row) float64 { return w.fuel }, names[0], false, 0), series(func(w row) float64 { return w.fuel }, names[1], false, 1),
 			func(i int) figures.Series { return series(func(w row) float64 { return w.fuel }, names[i], true, i) })...)); err != nil {
 		return err
 	}
-	if err := add(figures.Lines(r.Out, "frontmotor_slip", figures.Axes{Title: "Wheel slip while ploughing", X: "travel speed (km/h)", Y: "slip (%)"},
+	if err := add(figures.Lines(r.Out, "frontmotor_slip", figures.Axes{Title: r.Scenario.Name + ": wheel slip while ploughing", X: "travel speed (km/h)", Y: "slip (%)"},
 		series(func(w row) float64 { return w.slipF }, names[0]+": front", true, 0), series(func(w row) float64 { return w.slipR }, names[0]+": rear", false, 0),
 		series(func(w row) float64 { return w.slipF }, names[1]+": front", true, 1), series(func(w row) float64 { return w.slipR }, names[1]+": rear", false, 1))); err != nil {
 		return err
 	}
-	if err := add(figures.Lines(r.Out, "frontmotor_split", figures.Axes{Title: "Front axle's share of the wheel torque (front-axle motor)",
+	if err := add(figures.Lines(r.Out, "frontmotor_split", figures.Axes{Title: r.Scenario.Name + ": front axle's share of the wheel torque (front-axle motor)",
 		X: "travel speed (km/h)", Y: "front share (%)"},
 		extra(series(func(w row) float64 { return w.share }, names[1], false, 1),
 			func(i int) figures.Series { return series(func(w row) float64 { return w.share }, names[i], true, i) })...)); err != nil {
 		return err
 	}
-	if err := add(figures.Lines(r.Out, "frontmotor_turn", figures.Axes{Title: fmt.Sprintf("Headland turn, radius %.0f m: losses", float64(radius)),
+	if err := add(figures.Lines(r.Out, "frontmotor_turn", figures.Axes{Title: fmt.Sprintf("%s: headland turn, radius %.0f m: losses", r.Scenario.Name, float64(radius)),
 		X: "travel speed (km/h)", Y: "power (kW)", LegendLeft: true},
 		series(func(w row) float64 { return w.turnLoss }, names[0]+": driveline and tyre losses", false, 0),
 		series(func(w row) float64 { return w.turnCirc }, names[0]+": circulating", true, 0),
