@@ -118,7 +118,10 @@ type Tractor struct {
 // FrontMotor is a second hydrostatic motor on the transmission's loop that
 // drives the front axle at its own speed: full torque at low travel speed,
 // swung back along Setting, declutched (and held still) above
-// DeclutchAbove.
+// DeclutchAbove. The travel speeds are turned into speeds of the rear
+// output shaft without slip (the transmission knows no travel speed), so
+// with rear slip s the motor swings back and declutches at a travel speed
+// (1 − s) times the one written.
 type FrontMotor struct {
 	// Motor is the front motor (its displacement in cm³/rev; the
 	// transmission's loss coefficients apply).
