@@ -53,8 +53,9 @@ func (d Day) WriteCSV(w io.Writer) error {
 // Day.WriteTotalsCSV (energies in MJ). The front and rear slip losses
 // split slip_loss_MJ (zero when the ground does not tell them apart);
 // circulating_MJ is the energy an axle driven backwards returned into the
-// driveline, a measure and not a further sink.
-var AuditCSVHeader = []string{"design", "segment", "segment_name", "kind", "duration_s", "distance_m", "fuel_kg",
+// driveline, a measure and not a further sink; mean_engine_speed_rpm is the
+// time-weighted mean over the steps.
+var AuditCSVHeader = []string{"design", "segment", "segment_name", "kind", "duration_s", "distance_m", "mean_engine_speed_rpm", "fuel_kg",
 	"fuel_MJ", "engine_loss_MJ", "engine_work_MJ", "engine_braking_MJ", "hydrostatic_loss_MJ", "mechanical_loss_MJ", "no_load_loss_MJ",
 	"pto_loss_MJ", "pto_work_MJ", "slip_loss_MJ", "rolling_loss_MJ", "brake_MJ", "drawbar_MJ",
 	"trailer_rolling_MJ", "aero_MJ", "potential_MJ", "kinetic_MJ",
@@ -69,7 +70,7 @@ func (d Day) WriteAuditCSV(w io.Writer) error {
 		return err
 	}
 	for _, s := range d.Segments {
-		if err := cw.Write(auditRow(d.Design, strconv.Itoa(s.Index), s.Name, s.Kind.String(), s.Audit, s.Err)); err != nil {
+		if err := cw.Write(auditRow(d.Design, strconv.Itoa(s.Index), s.Name, s.Kind.String(), meanRPM(s.Steps), s.Audit, s.Err)); err != nil {
 			return err
 		}
 	}
@@ -85,20 +86,39 @@ func (d Day) WriteTotalsCSV(w io.Writer) error {
 	if err := cw.Write(AuditCSVHeader); err != nil {
 		return err
 	}
-	if err := cw.Write(auditRow(d.Design, "day", "", "", d.Audit, d.Err())); err != nil {
+	var all []Step
+	for _, s := range d.Segments {
+		all = append(all, s.Steps...)
+	}
+	if err := cw.Write(auditRow(d.Design, "day", "", "", meanRPM(all), d.Audit, d.Err())); err != nil {
 		return err
 	}
 	cw.Flush()
 	return cw.Error()
 }
 
-func auditRow(design, idx, name, kind string, a Audit, err error) []string {
+// meanRPM returns the time-weighted mean engine speed of the steps in rpm,
+// or "" without steps.
+func meanRPM(steps []Step) string {
+	var t, wt float64
+	for _, st := range steps {
+		h := st.Duration.Seconds()
+		t += h
+		wt += h * st.EngineSpeed.RPM()
+	}
+	if t == 0 {
+		return ""
+	}
+	return ftoa(wt / t)
+}
+
+func auditRow(design, idx, name, kind, rpm string, a Audit, err error) []string {
 	msg := ""
 	if err != nil {
 		msg = strings.ReplaceAll(err.Error(), "\n", "; ")
 	}
 	mj := func(e interface{ Megajoules() float64 }) string { return ftoa(e.Megajoules()) }
-	return []string{design, idx, name, kind, ftoa(a.Duration.Seconds()), ftoa(float64(a.Distance)),
+	return []string{design, idx, name, kind, ftoa(a.Duration.Seconds()), ftoa(float64(a.Distance)), rpm,
 		ftoa(float64(a.Fuel)), mj(a.FuelEnergy), mj(a.EngineLoss), mj(a.EngineWork), mj(a.EngineBraking), mj(a.Hydrostatic),
 		mj(a.Mechanical), mj(a.NoLoad), mj(a.PTOLoss), mj(a.PTOWork), mj(a.Slip), mj(a.Rolling), mj(a.Brake),
 		mj(a.Drawbar), mj(a.Trailer), mj(a.Aero), mj(a.Potential), mj(a.Kinetic),

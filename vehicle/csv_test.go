@@ -51,7 +51,7 @@ func TestCSV(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	wantAudit := "design,segment,segment_name,kind,duration_s,distance_m,fuel_kg,fuel_MJ,engine_loss_MJ," +
+	wantAudit := "design,segment,segment_name,kind,duration_s,distance_m,mean_engine_speed_rpm,fuel_kg,fuel_MJ,engine_loss_MJ," +
 		"engine_work_MJ,engine_braking_MJ,hydrostatic_loss_MJ,mechanical_loss_MJ,no_load_loss_MJ,pto_loss_MJ,pto_work_MJ,slip_loss_MJ," +
 		"rolling_loss_MJ,brake_MJ,drawbar_MJ,trailer_rolling_MJ,aero_MJ,potential_MJ,kinetic_MJ," +
 		"front_slip_loss_MJ,rear_slip_loss_MJ,circulating_MJ,relative_residual_fraction,error"

@@ -7,7 +7,8 @@
 //
 // It writes into the output folder: compare_efficiency.svg/.png
 // (efficiency against travel speed, best range, for each design),
-// compare_fuel.svg/.png (the day's fuel per design) and
+// compare_fuel.svg/.png (each alternative's fuel minus the first design's,
+// segment by segment) and
 // compare_<design>.csv (each design's day, step by step).
 package main
 

@@ -7,8 +7,13 @@
 //	go run ./examples/demoday [-out folder] [-design file.json]
 //
 // It writes into the output folder: fuel_per_segment.svg/.png,
-// losses.svg/.png, day_steps.csv (every time step), day_audit.csv (the
-// energy audit per segment) and summary.json (the headline numbers).
+// losses.svg/.png (the engine and the losses after it in their own panel),
+// day_trace.svg/.png (travel speed, engine speed, range and high-line
+// pressure over the day), engine_fuel_map.svg/.png (the engine's specific
+// fuel with the day's points), day_steps.csv (every time step, with the
+// loop's pressure and unit speeds), day_audit.csv (the energy audit per
+// segment), day_totals.csv (the day's audit) and summary.json (the
+// headline numbers).
 //
 // The demo tractor and its day are invented; see examples/internal/demo.
 package main

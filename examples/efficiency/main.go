@@ -6,8 +6,12 @@
 //	go run ./examples/efficiency [-out folder] [-design file.json]
 //
 // It writes into the output folder: efficiency_ranges.svg/.png,
-// hydraulic_share.svg/.png, efficiency_map.svg/.png, sweep_<range>.csv and
-// efficiency_map.csv.
+// hydraulic_share.svg/.png, speed_plan.svg/.png (unit speeds and settings
+// by range, with the unit limits), line_pressure.svg/.png (high-line
+// pressure by range, with the relief and rated pressures),
+// efficiency_map.svg/.png at 1600 rpm and efficiency_map_1200rpm and
+// efficiency_map_2000rpm (each with the day's points near its engine
+// speed), sweep_<range>.csv and one CSV per map.
 package main
 
 import (

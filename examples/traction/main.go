@@ -7,7 +7,9 @@
 //	go run ./examples/traction [-out folder] [-design file.json]
 //
 // It writes tractive_efficiency.svg/.png (tractive efficiency against slip
-// per soil) and traction.csv (the curves) into the output folder.
+// per soil, the recommended slip band shaded), pull_slip.svg/.png (drawbar
+// pull against slip, with the working pull) and traction.csv (the curves)
+// into the output folder.
 package main
 
 import (
