@@ -358,3 +358,28 @@ func TestFrontMotorOverrun(t *testing.T) {
 			p.Flows.EngineBraking.Kilowatts(), p.Flows.Brake.Kilowatts(), p.EngineTorque.NewtonMetres())
 	}
 }
+
+// FuzzFrontMotorDrive: the constructor and OperateAxles return an error or
+// a finite drive point, never a panic or NaN.
+func FuzzFrontMotorDrive(f *testing.F) {
+	f.Add(60.0, 0.97, 1.5, 0, 1800.0, 300.0, 1800.0, 1200.0, 0.5)
+	f.Add(0.0, 2.0, -1.0, 3, 0.0, -1e9, 1e300, -5.0, 7.0)
+	l := axLayout(f, true)
+	f.Fuzz(func(t *testing.T, fd, eff, ratio float64, ctl int, engine, rear, front, torque, setting float64) {
+		d, err := vehicle.FromFrontMotorLayout(l, vehicle.FrontMotorSpec{FinalDrive: fd, Efficiency: eff, AxleRatio: ratio, Control: vehicle.FrontControl(ctl)})
+		if err != nil {
+			return
+		}
+		for rng := range d.Ranges() {
+			p, err := d.OperateAxles(rng, units.RPM(engine), units.RPM(rear), units.RPM(front), units.NewtonMetres(torque), setting)
+			if err != nil {
+				continue
+			}
+			for _, x := range []float64{float64(p.InputTorque), float64(p.FrontTorque), float64(p.HydrostaticLoss), float64(p.MechanicalLoss), p.FrontSetting} {
+				if math.IsNaN(x) || math.IsInf(x, 0) {
+					t.Fatalf("range %d: non-finite drive point %+v", rng, p)
+				}
+			}
+		}
+	})
+}
