@@ -80,3 +80,22 @@ func TestExtrapolatedFlagText(t *testing.T) {
 		t.Errorf("Flag.String() = %q, want %q", s, want)
 	}
 }
+
+// TestUnratedInputTorqueFlag: a split estimate without an input torque
+// rating says at every point that the input torque is not checked; with a
+// rating it does not.
+func TestUnratedInputTorqueFlag(t *testing.T) {
+	t.Parallel()
+	tr := demoTransmission()
+	dp, err := tr.Operate(0, units.RPM(1800), units.RPM(600), units.NewtonMetres(500))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(dp.Flags) != 1 || !dp.Flags[0].Unchecked || dp.Flags[0].String() != "transmission input torque: rated input torque not given, not checked" {
+		t.Errorf("flags %v, want the input torque not checked", dp.Flags)
+	}
+	tr.MaxInputTorque = units.NewtonMetres(5000)
+	if dp, err = tr.Operate(0, units.RPM(1800), units.RPM(600), units.NewtonMetres(500)); err != nil || len(dp.Flags) != 0 {
+		t.Errorf("rated: flags %v, %v", dp.Flags, err)
+	}
+}

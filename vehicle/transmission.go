@@ -209,6 +209,14 @@ func (s *SplitEstimate) Operate(rng int, engine, out units.AngularVelocity, outT
 	if pIn := pOut + hydro + mech; pIn > 0 && pOut > 0 {
 		share = h * (pOut + hydro) / pIn
 	}
-	return DrivePoint{Range: rng, InputTorque: in, OutputSpeed: out, OutputTorque: outTorque,
-		HydrostaticLoss: units.Power(hydro), MechanicalLoss: units.Power(mech), HydrostaticShare: share}, nil
+	dp := DrivePoint{Range: rng, InputTorque: in, OutputSpeed: out, OutputTorque: outTorque,
+		HydrostaticLoss: units.Power(hydro), MechanicalLoss: units.Power(mech), HydrostaticShare: share}
+	if s.MaxInputTorque == 0 {
+		dp.Flags = unratedInputTorque[:1:1]
+	}
+	return dp, nil
 }
+
+// unratedInputTorque is the flag of a SplitEstimate without an input
+// torque rating, shared by every point (capacity-limited: an append copies).
+var unratedInputTorque = []Flag{{Name: "transmission input torque: rated input torque not given, not checked", Unchecked: true}}

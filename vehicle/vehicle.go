@@ -259,6 +259,9 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 			return Point{}, &LimitError{Quantity: "engine speed", Value: units.Of(w),
 				Bound: "engine speed for the PTO speed", Limit: units.Of(units.AngularVelocity(s.PTO.Ratios[0] * float64(d.PTOSpeed))), Err: ErrInfeasible}
 		}
+		if s.PTO.MaxPower == 0 && d.PTOPower > 0 {
+			p.Flags = append(p.Flags, Flag{Name: "PTO power: PTO rating not given, not checked", Unchecked: true})
+		}
 		f.PTO = d.PTOPower
 		f.PTOLoss = units.Power(float64(d.PTOPower) * (1/s.PTO.efficiency() - 1))
 	}
