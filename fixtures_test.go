@@ -175,6 +175,33 @@ func TestLossySweep(t *testing.T) {
 			t.Errorf("v = %g rpm: share %g (want sign %v), efficiency %g", c.v, st.HydraulicShare, c.share, st.Efficiency)
 		}
 	}
+	// Overrun: the load drives (−2000 N·m at 200 rpm, 41.9 kW in at the
+	// output), the PTO takes 5.2 kW and the engine absorbs the rest less the
+	// losses. Power flows from the loads to the engine, so the efficiency
+	// is the engine's share of it, InputPower/(OutputPower + PTOPower), both
+	// negative (State.Efficiency); a point where the engine and the load
+	// both drive has efficiency 0.
+	for _, c := range []struct {
+		tq      float64 // output torque, N·m
+		overrun bool    // the engine absorbs power
+	}{{-2000, true}, {-400, false}} {
+		p := Point{Range: 0, Input: units.RPM(2000), Outputs: []OutputDemand{{Speed: units.RPM(200), Torque: units.NewtonMetres(c.tq)}},
+			PTO: []units.Torque{units.NewtonMetres(100)}}
+		if err := s.Solve(p, &st); err != nil {
+			t.Fatalf("%g N·m at 200 rpm: %v", c.tq, err)
+		}
+		pin, useful := float64(st.InputPower), float64(st.OutputPower+st.PTOPower)
+		if !(useful < 0) || (pin < 0) != c.overrun {
+			t.Fatalf("%g N·m: input %v, outputs + PTO %g W: not the case meant", c.tq, st.InputPower, useful)
+		}
+		want := 0.0
+		if c.overrun {
+			want = pin / useful // hand rule: power delivered to the engine over power the loads put in
+		}
+		if st.Efficiency != want || (c.overrun && !(want > 0 && want < 1)) {
+			t.Errorf("%g N·m: efficiency %v, want %v (input %v, outputs + PTO %g W)", c.tq, st.Efficiency, want, st.InputPower, useful)
+		}
+	}
 }
 
 // Lossless fixtures for the published checks. i0 = −2.5 for every set.
