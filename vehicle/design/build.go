@@ -73,6 +73,12 @@ func (f *File) Validate() error {
 	if math.IsNaN(t.FrontLead) || math.Abs(t.FrontLead) > 0.2 {
 		c.add("tractor.frontLead", "must lie within ±0.2")
 	}
+	if !(t.Ballast >= 0 && t.Ballast <= t.Mass) {
+		c.add("tractor.ballast", "%v must lie between 0 and the operating mass %v (it is part of it)", t.Ballast, t.Mass)
+	}
+	if !(t.MaxMass >= 0) {
+		c.add("tractor.maxMass", "%v must not be negative (0 means not given)", t.MaxMass)
+	}
 	if fm := t.FrontMotor; fm != nil {
 		c.positive("tractor.frontMotor.motor.displacement", float64(fm.Motor.Displacement), fm.Motor.Displacement)
 		c.positive("tractor.frontMotor.finalDrive", fm.FinalDrive, nil)

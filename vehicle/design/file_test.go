@@ -139,6 +139,8 @@ func TestErrors(t *testing.T) {
 			[]string{line(`"displacement": "110 cm³/rev", "maxSpeed": "3000 rpm"`), "transmission.pump.displacement", `"-5 cm³/rev"`, "greater than zero"}},
 		{"unknown surface", `"surface": "asphalt", "trailer"`, `"surface": "tarmac", "trailer"`, ErrValue,
 			[]string{"day.segments[4].surface", `"tarmac"`}},
+		{"ballast above the mass", `"mass": "8.5 t",`, `"mass": "8.5 t", "ballast": "9 t",`, ErrValue,
+			[]string{"tractor.ballast", "operating mass"}},
 		{"unknown oil", `"oil": "VG46",`, `"oil": "VG99",`, nil,
 			[]string{"transmission", "VG99"}},
 		{"newer format", `"format": 1`, `"format": 7`, ErrFormat,
