@@ -110,7 +110,9 @@ func TestPropertyClosedFormSettings(t *testing.T) {
 		}
 		ra, _ := search.Balance(wp, wm, dp, xa)
 		rb, _ := search.Balance(wp, wm, dp, xb)
-		flat := math.Abs(float64(ra)) <= 1e-12*scale && math.Abs(float64(rb)) <= 1e-12*scale
+		// With nothing turning (scale 0) no flow passes: every setting
+		// balances, and residuals of a pressure of 1e-90 bar are rounding.
+		flat := scale == 0 || math.Abs(float64(ra)) <= 1e-12*scale && math.Abs(float64(rb)) <= 1e-12*scale
 		if ((ea == nil) != (eb == nil) || (ea != nil && !sameKind(ea, eb))) && !flat {
 			t.Fatalf("closed form: %v; search: %v", ea, eb)
 		}
@@ -125,7 +127,9 @@ func TestPropertyClosedFormSettings(t *testing.T) {
 			ra, _ := search.Balance(wp, wm, dp, xb)
 			xb[0] = -xb[0]
 			rb, _ := search.Balance(wp, wm, dp, xb)
-			if math.Abs(float64(ra-rb)) > 1e-9*math.Max(math.Abs(float64(ra)), math.Abs(float64(rb))) {
+			// The ends tie when they differ by less than the rounding of the
+			// residuals or of the flows that pass (a pump at 1e-15 rpm).
+			if d := math.Abs(float64(ra - rb)); d > 1e-9*math.Max(math.Abs(float64(ra)), math.Abs(float64(rb))) && d > 1e-12*scale {
 				t.Fatalf("pump setting: closed form %v, search %v, and the ends do not tie (%g, %g)", xa[0], xb[0], ra, rb)
 			}
 			return
@@ -147,7 +151,7 @@ func TestPropertyClosedFormSettings(t *testing.T) {
 		// motors hardly respond to their setting and the value is only a
 		// direction).
 		var la, lb *LimitError
-		if errors.As(ea, &la) && errors.As(eb, &lb) && math.Abs(lb.Value.SI) < 10 &&
+		if !flat && errors.As(ea, &la) && errors.As(eb, &lb) && math.Abs(lb.Value.SI) < 10 &&
 			math.Abs(la.Value.SI-lb.Value.SI) > 1e-6*math.Max(1, math.Abs(lb.Value.SI)) {
 			t.Fatalf("needed setting: closed form %v, search %v", la.Value, lb.Value)
 		}
