@@ -28,20 +28,28 @@ import (
 // slope τ′ (hydrostat.Curve), so Newton's method converges quadratically
 // from Δp = 0, where the slope is the ideal one. Drag sources other than
 // charge pumps load the shaft rows with torques known at the point's
-// speeds: z = A_ref⁻¹ of them adds to H_X·b and to every port torque. Each solve of a direction
-// set starts from Δp = 0, so a point's result depends on the point alone,
-// never on the points solved before it: maps stay identical for any number
-// of workers. The directions the last point of the range ended with are the
-// first guess; the directions read off the solution (as the general path
-// reads them) must agree with those assumed, else the solve is repeated
-// with them. The compiled path gives up, and the general path solves the
-// point, wherever it cannot decide: several loops, a charge pump among the
-// drag sources (its torque follows the loop's leakage), held motor
-// settings, a loop the hydrostat cannot see as a Curve, a setting limit, a
+// speeds: z = A_ref⁻¹ of them adds to H_X·b and to every port torque.
+//
+// Each solve of a direction set starts from Δp = 0, so a point's result
+// depends on the point alone, never on the points solved before it: maps
+// stay identical for any number of workers. The directions the last point
+// of the range ended with are the first guess; the directions read off the
+// solution (as the general path reads them) must agree with those assumed,
+// else the solve is repeated with them.
+//
+// Where no motor setting in range gives the speeds, the schedule holds its
+// nearest settings (hydrostat.Curve does as Loop.At does) and the point
+// ends as on the general path: the state filled as far as it goes and the
+// loop's setting limit as the error. Everywhere else the compiled path
+// gives up and the general path solves the point: several loops, a charge
+// pump among the drag sources (its torque follows the loop's leakage, and
+// the general path takes it from the last iterate), held motor settings, a
+// loop the hydrostat cannot see as a Curve or a pump near standstill, a
 // pressure beyond 1.5 times the relief, Newton's method not settling,
-// directions that oscillate, a crossed limit or a power balance not
-// closing. So every error comes from the general path, and the results of
-// both paths agree to rounding (TestPropertyCompiledMatchesGeneral).
+// directions that oscillate, a torque below 1e-12 of the largest, any other
+// crossed limit, or a power balance not closing. So both paths give the
+// same errors and agree to rounding (TestPropertyCompiledMatchesGeneral,
+// TestMapCompiledMatchesGeneral).
 
 // elemC is what the hot path reads of an element, compact: the element
 // values themselves are large (a loop's spec, a set), and reading a few
