@@ -119,3 +119,25 @@ func ExampleLeastFuel() {
 	// vehicle.LeastFuel    engine 1044 rpm  747 N·m  slip 0.066  transmission 0.964  fuel 18.49 kg/h
 	// vehicle.FixedSpeed   engine 2100 rpm  407 N·m  slip 0.066  transmission 0.878  fuel 28.61 kg/h
 }
+
+// From travel speed and pull to the transmission's output shaft and back,
+// through a 20:1 final drive, 0.8 m rolling radius and 96 % efficiency.
+func ExampleDriveline() {
+	d := vehicle.Driveline{FinalDrive: 20, RollingRadius: units.Metres(0.8), Efficiency: 0.96}
+	w := d.OutputSpeed(units.KMH(10), 0.08) // 8 % slip
+	t := d.OutputTorque(units.Kilonewtons(40))
+	fmt.Printf("output %.0f rpm, %.0f N·m\n", w.RPM(), float64(t))
+	fmt.Printf("back: %.1f km/h, %.1f kN\n", d.TravelSpeed(w, 0.08).KMH(), d.Pull(t).Kilonewtons())
+	// Output:
+	// output 721 rpm, 1667 N·m
+	// back: 10.0 km/h, 40.0 kN
+}
+
+// A rated limit crossed for part of a day, as the simulation reports it.
+func ExampleFlag() {
+	f := vehicle.Flag{Name: "hydrostat: pump pressure", Value: units.Of(units.Bar(290)), Limit: units.Of(units.Bar(150)),
+		Time: 42 * time.Minute}
+	fmt.Println(f)
+	// Output:
+	// hydrostat: pump pressure 290 bar above rated 150 bar for 42 min
+}
