@@ -24,6 +24,9 @@ type LayoutDrive struct {
 	outs   []powersplit.OutputDemand
 	// unrated are the flags of the layout's limits that are not rated.
 	unrated []Flag
+	// spans caches, per range, the ratios of output to engine speed the
+	// range reaches (see RatioSpans); nil until asked.
+	spans [][][2]float64
 }
 
 // FromLayout returns the Transmission view of layout l.
@@ -120,3 +123,31 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 // LockedRatio returns the output over engine speed of range rng when it is
 // a locked (mechanical) range of the layout (powersplit.Layout.LockedRatio).
 func (d *LayoutDrive) LockedRatio(rng int) (float64, bool) { return d.layout.LockedRatio(rng) }
+
+// RatioSpans implements RatioSpanner: the intervals of output speed over
+// engine speed that range rng reaches at no load with the engine at speed
+// engine, from powersplit.Solver.Interval. The result is cached per range
+// for the first engine speed asked.
+func (d *LayoutDrive) RatioSpans(rng int, engine units.AngularVelocity) [][2]float64 {
+	if rng < 0 || rng >= d.layout.Ranges() || !(engine > 0) {
+		return nil
+	}
+	d.mu.Lock()
+	defer d.mu.Unlock()
+	if d.spans == nil {
+		d.spans = make([][][2]float64, d.layout.Ranges())
+	}
+	if d.spans[rng] != nil {
+		return d.spans[rng]
+	}
+	d.outs[0] = powersplit.OutputDemand{Speed: 1}
+	iv, err := d.solver.Interval(powersplit.Point{Range: rng, Input: engine, Outputs: d.outs})
+	spans := [][2]float64{}
+	if err == nil {
+		for _, v := range iv {
+			spans = append(spans, [2]float64{float64(v.Lo) / float64(engine), float64(v.Hi) / float64(engine)})
+		}
+	}
+	d.spans[rng] = spans
+	return spans
+}

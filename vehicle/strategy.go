@@ -4,6 +4,7 @@ import (
 	"errors"
 	"fmt"
 	"math"
+	"slices"
 
 	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/internal/numeric"
@@ -30,7 +31,14 @@ type Strategy interface {
 // The search samples Samples speeds per range and refines the best sample
 // by Brent's minimiser to Tolerance, so it finds the least fuel to within
 // that tolerance when fuel flow is unimodal in engine speed near the
-// optimum, as it is for usual engine maps.
+// optimum, as it is for usual engine maps. The least fuel often lies on an
+// edge of the feasible engine speeds (the lowest speed that still carries
+// the demand): the best sample's neighbours that fail are bisected for that
+// edge. A transmission that reports the ratios each range reaches
+// (RatioSpanner, as LayoutDrive does) has the engine speeds of their edges
+// sampled too, so an island of feasible speeds narrower than the sample
+// spacing (beside the band a motor cannot pass around a mechanical point)
+// is not missed.
 type LeastFuel struct {
 	Samples   int     // speeds sampled per range; default 24
 	Tolerance float64 // relative speed tolerance of the refinement; default 1e-7
@@ -71,10 +79,21 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 		best  Point
 		found bool
 		tries []try
+		out   units.AngularVelocity // the output speed the demand needs, once a point shows it
 	)
-	for r := range v.s.Transmission.Ranges() {
+	rs, spanned := v.s.Transmission.(RatioSpanner)
+	if _, axles := v.s.Transmission.(AxleTransmission); axles {
+		spanned = false // two axle speeds: no single output speed to place
+	}
+	ranges := v.s.Transmission.Ranges()
+	results := make([]Point, ranges)
+	errs := make([]error, ranges)
+	locked := make([]bool, ranges)
+	spannedAt := make([]bool, ranges)
+	for r := range ranges {
 		if lp, ok, err := lockedPoint(v, d, r); ok {
 			// A locked range runs at one engine speed for this travel speed.
+			locked[r] = true
 			if err != nil {
 				tries = append(tries, try{rng: r, err: err})
 			} else if !found || better(lp, best) {
@@ -82,13 +101,39 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 			}
 			continue
 		}
-		p, err := refine(v, d, r, e.speeds(lo, hi, n), tol)
-		if err != nil {
-			tries = append(tries, try{rng: r, err: err})
+		// A range may reach the demand's ratio only on islands narrower
+		// than the sample spacing (a band around a mechanical point the
+		// motor cannot pass splits it): once a point shows the output speed
+		// the demand needs, sample the edges of every interval of ratios
+		// the range reaches as well.
+		ws := e.speeds(lo, hi, n)
+		if spanned && out > 0 {
+			ws = withEdges(ws, rs.RatioSpans(r, units.AngularVelocity(hi)), float64(out), lo, hi)
+			spannedAt[r] = true
+		}
+		results[r], errs[r] = refine(v, d, r, ws, tol)
+		if errs[r] == nil && results[r].Drive.OutputSpeed > 0 {
+			out = results[r].Drive.OutputSpeed
+		}
+	}
+	for r := range ranges {
+		if locked[r] {
 			continue
 		}
-		if !found || better(p, best) {
-			best, found = p, true
+		if spanned && out > 0 && !spannedAt[r] {
+			// Ranges solved before the output speed was known.
+			ws := withEdges(e.speeds(lo, hi, n), rs.RatioSpans(r, units.AngularVelocity(hi)), float64(out), lo, hi)
+			p, err := refine(v, d, r, ws, tol)
+			if err == nil && (errs[r] != nil || better(p, results[r])) {
+				results[r], errs[r] = p, nil
+			}
+		}
+		if errs[r] != nil {
+			tries = append(tries, try{rng: r, err: errs[r]})
+			continue
+		}
+		if !found || better(results[r], best) {
+			best, found = results[r], true
 		}
 	}
 	if !found {
@@ -156,6 +201,25 @@ func refine(v *Vehicle, d Demand, r int, ws []float64, tol float64) (Point, erro
 	if bestI < 0 {
 		return Point{}, lastErr
 	}
+	// The least fuel often lies on the edge of the feasible speeds (the
+	// lowest engine speed whose ratio or torque still carries the demand),
+	// which may fall between two samples: find each edge next to the best
+	// sample.
+	feasible := func(w float64) (Point, bool) {
+		p, err := v.At(d, units.AngularVelocity(w), r)
+		return p, err == nil
+	}
+	for _, j := range []int{bestI - 1, bestI + 1} {
+		if j < 0 || j >= len(ws) {
+			continue
+		}
+		if _, ok := feasible(ws[j]); ok {
+			continue
+		}
+		if p, ok := edge(feasible, ws[j], ws[bestI], tol); ok && better(p, best) {
+			best = p
+		}
+	}
 	a := ws[max(bestI-1, 0)]
 	b := ws[min(bestI+1, len(ws)-1)]
 	if b > a {
@@ -174,6 +238,59 @@ func refine(v *Vehicle, d Demand, r int, ws []float64, tol float64) (Point, erro
 		}
 	}
 	return best, nil
+}
+
+// A RatioSpanner is a Transmission that reports the intervals of output
+// speed over engine speed a range reaches (at no load, with the engine at
+// the given speed). LeastFuel uses them to find ranges that reach a demand
+// only on narrow islands of engine speed.
+type RatioSpanner interface {
+	RatioSpans(rng int, engine units.AngularVelocity) [][2]float64
+}
+
+// withEdges returns the sample speeds ws with, added in order, the engine
+// speeds within [lo, hi] at which output speed out sits at an edge of one of
+// the ratio spans, each nudged just inside its span.
+func withEdges(ws []float64, spans [][2]float64, out, lo, hi float64) []float64 {
+	ws = slices.Clone(ws)
+	for _, sp := range spans {
+		for k, rho := range sp {
+			if !(rho > 0) {
+				continue
+			}
+			// The low ratio edge is the high engine speed edge.
+			nudge := 1 + 1e-6
+			if k == 1 {
+				nudge = 1 - 1e-6
+			}
+			if w := out / (rho * nudge); w >= lo && w <= hi {
+				ws = append(ws, w)
+			}
+		}
+	}
+	slices.Sort(ws)
+	return ws
+}
+
+// edge bisects between an infeasible speed bad and a feasible speed good
+// to within tol relative and returns the feasible point nearest the edge.
+func edge(feasible func(float64) (Point, bool), bad, good, tol float64) (Point, bool) {
+	p, ok := feasible(good)
+	if !ok {
+		return Point{}, false
+	}
+	for range 60 {
+		if math.Abs(good-bad) <= tol*math.Abs(good) {
+			break
+		}
+		mid := 0.5 * (bad + good)
+		if q, ok := feasible(mid); ok {
+			good, p = mid, q
+		} else {
+			bad = mid
+		}
+	}
+	return p, true
 }
 
 // FixedSpeed runs the engine at one speed (a hand throttle setting) and
