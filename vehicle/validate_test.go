@@ -205,3 +205,45 @@ func TestSmallAccessors(t *testing.T) {
 		t.Errorf("SegmentError = %q", se.Error())
 	}
 }
+
+// TestTyresUnratedAndRefusals: the wheels name the axles whose tyres carry
+// no load rating (their load is not checked), and the adapter refuses a
+// negative pull, a standing start and a missing model.
+func TestTyresUnratedAndRefusals(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		front, rear units.Force // rated loads; 0: not rated
+		want        string
+	}{
+		{0, 0, "front and rear"},
+		{0, units.Kilonewtons(60), "front"},
+		{units.Kilonewtons(40), 0, "rear"},
+		{units.Kilonewtons(40), units.Kilonewtons(60), ""},
+	} {
+		ty := demoTraction(t)
+		ty.Vehicle.Front.Tyre.RatedLoad, ty.Vehicle.Rear.Tyre.RatedLoad = c.front, c.rear
+		w, err := ty.Drive(units.Kilonewtons(20), 0, units.KMH(7))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if w.Unrated != c.want {
+			t.Errorf("rated %v/%v: Unrated = %q, want %q", c.front, c.rear, w.Unrated, c.want)
+		}
+	}
+	ty := demoTraction(t)
+	for name, run := range map[string]func() error{
+		"pull":         func() error { _, err := ty.Drive(-1, 0, units.KMH(7)); return err },
+		"travel speed": func() error { _, err := ty.Drive(units.Kilonewtons(20), 0, 0); return err },
+		"Tyres.Model": func() error {
+			n := ty
+			n.Model = nil
+			_, err := n.Drive(units.Kilonewtons(20), 0, units.KMH(7))
+			return err
+		},
+	} {
+		var ie *vehicle.InputError
+		if err := run(); !errors.As(err, &ie) || ie.Field != name {
+			t.Errorf("%s: error %v, want an *InputError for it", name, err)
+		}
+	}
+}
