@@ -100,3 +100,24 @@ func TestNamesAndSmallAccessors(t *testing.T) {
 		t.Errorf("zero Map Efficiencies error = %v", err)
 	}
 }
+
+// TestBentAxisAngle: a bent-axis unit's setting is sin α / sin α_max (its
+// displacement follows sin α). Hand calculation, α_max = 25°, setting 0.5:
+// α = asin(0.5·sin 25°) = asin(0.211 309) = 12.1991°; and 10° gives
+// sin 10°/sin 25° = 0.173 648 2/0.422 618 3 = 0.410 887.
+func TestBentAxisAngle(t *testing.T) {
+	t.Parallel()
+	u := mustUnit(t, UnitSpec{Kind: BentAxis, Pistons: 7, PistonDiameter: units.Millimetres(20), PitchDiameter: units.Millimetres(80),
+		MaxAngle: units.Degrees(25)})
+	a, err := u.AngleFromSetting(0.5)
+	if err != nil || !testutil.Close(a.Degrees(), 12.1991, 0, 5e-5) {
+		t.Errorf("AngleFromSetting(0.5) = %v°, %v, want 12.1991°", a.Degrees(), err)
+	}
+	x, err := u.SettingFromAngle(units.Degrees(10))
+	if err != nil || !testutil.Close(x, 0.410887, 0, 5e-7) {
+		t.Errorf("SettingFromAngle(10°) = %v, %v, want 0.410887", x, err)
+	}
+	if _, err := u.SettingFromAngle(units.Degrees(26)); !errors.Is(err, ErrSettingLimit) {
+		t.Errorf("SettingFromAngle(26°) error = %v", err)
+	}
+}
