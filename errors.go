@@ -140,25 +140,7 @@ func (e *LimitError) Error() string {
 		}
 		return string(b)
 	}
-	return string(appendLimit(b, e.Quantity, e.Value, e.Bound, e.Limit))
-}
-
-// appendLimit appends "<quantity> <value> above|below <bound> <limit>".
-func appendLimit(b []byte, quantity string, v units.Measure, bound string, limit units.Measure) []byte {
-	b = append(b, quantity...)
-	b = append(b, ' ')
-	b = v.Append(b)
-	if v.SI < limit.SI {
-		b = append(b, " below "...)
-	} else {
-		b = append(b, " above "...)
-	}
-	if bound == "" {
-		bound = "limit"
-	}
-	b = append(b, bound...)
-	b = append(b, ' ')
-	return limit.Append(b)
+	return string(units.AppendLimit(b, e.Quantity, e.Value, e.Bound, e.Limit))
 }
 
 // Unwrap returns the sentinel (ErrInfeasible, and ErrUnreachable when the

@@ -118,7 +118,7 @@ func (m Margin) String() string {
 	b = append(b, m.Element...)
 	b = append(b, ": "...)
 	if m.Crossed() {
-		return string(appendLimit(b, m.Quantity, m.Value, m.Bound, m.Limit))
+		return string(units.AppendLimit(b, m.Quantity, m.Value, m.Bound, m.Limit))
 	}
 	b = append(b, m.Quantity...)
 	b = append(b, ' ')

@@ -58,21 +58,7 @@ type LimitError struct {
 func (e *LimitError) Error() string {
 	b := make([]byte, 0, 96)
 	b = append(b, "hydrostat: "...)
-	b = append(b, e.Quantity...)
-	b = append(b, ' ')
-	b = e.Value.Append(b)
-	if e.Value.SI < e.Limit.SI {
-		b = append(b, " below "...)
-	} else {
-		b = append(b, " above "...)
-	}
-	if e.Bound == "" {
-		b = append(b, "limit"...)
-	} else {
-		b = append(b, e.Bound...)
-	}
-	b = append(b, ' ')
-	return string(e.Limit.Append(b))
+	return string(units.AppendLimit(b, e.Quantity, e.Value, e.Bound, e.Limit))
 }
 
 // Unwrap returns the finer sentinel (ErrPressureLimit, ErrSpeedLimit or ErrSettingLimit).

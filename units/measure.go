@@ -177,3 +177,24 @@ func (m Measure) Append(b []byte) []byte {
 	}
 	return strconv.AppendFloat(b, m.SI, 'g', 6, 64)
 }
+
+// AppendLimit appends "<quantity> <value> above <bound> <limit>" to b
+// ("below" when the value lies under the limit; bound "" reads "limit"),
+// the one wording every package's limit errors use, for example "pump
+// speed 3100 rpm above maximum speed 2800 rpm".
+func AppendLimit(b []byte, quantity string, v Measure, bound string, limit Measure) []byte {
+	b = append(b, quantity...)
+	b = append(b, ' ')
+	b = v.Append(b)
+	if v.SI < limit.SI {
+		b = append(b, " below "...)
+	} else {
+		b = append(b, " above "...)
+	}
+	if bound == "" {
+		bound = "limit"
+	}
+	b = append(b, bound...)
+	b = append(b, ' ')
+	return limit.Append(b)
+}

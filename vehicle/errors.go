@@ -60,21 +60,7 @@ func (e *LimitError) Error() string {
 		b = append(b, "vehicle"...)
 	}
 	b = append(b, ": "...)
-	b = append(b, e.Quantity...)
-	b = append(b, ' ')
-	b = e.Value.Append(b)
-	if e.Value.SI < e.Limit.SI {
-		b = append(b, " below "...)
-	} else {
-		b = append(b, " above "...)
-	}
-	if e.Bound == "" {
-		b = append(b, "limit"...)
-	} else {
-		b = append(b, e.Bound...)
-	}
-	b = append(b, ' ')
-	b = e.Limit.Append(b)
+	b = units.AppendLimit(b, e.Quantity, e.Value, e.Bound, e.Limit)
 	if e.EngineSpeed != 0 {
 		b = append(b, " at "...)
 		b = units.Of(e.EngineSpeed).Append(b)

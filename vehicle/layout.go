@@ -78,39 +78,7 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 		}
 		return DrivePoint{}, fmt.Errorf("%w: %w", ErrTransmission, err)
 	}
-	st := &d.st
-	hydro := float64(st.HydrostatLoss)
-	mech := float64(st.Loss) - hydro - float64(st.DragLoss)
-	if mech < 0 { // rounding only: every element's loss is >= 0
-		mech = 0
-	}
-	p := DrivePoint{
-		Range:            rng,
-		InputTorque:      st.InputTorque,
-		OutputSpeed:      out,
-		OutputTorque:     outTorque,
-		HydrostaticLoss:  units.Power(hydro),
-		MechanicalLoss:   units.Power(mech),
-		NoLoadLoss:       st.DragLoss,
-		HydrostaticShare: st.HydraulicShare,
-		RangeName:        st.RangeName,
-	}
-	if len(st.Loops) > 0 {
-		lp := &st.Loops[0]
-		p.Hydrostat = UnitState{HighPressure: lp.High, PumpSpeed: lp.Pump.Speed, PumpSetting: lp.Pump.Setting}
-		if len(lp.Motors) > 0 {
-			p.Hydrostat.MotorSpeed, p.Hydrostat.MotorSetting = lp.Motors[0].Speed, lp.Motors[0].Setting
-		}
-	}
-	if len(st.Drags) > 0 {
-		p.NoLoad = make([]LossPart, len(st.Drags))
-		for i, dr := range st.Drags {
-			p.NoLoad[i] = LossPart{Name: dr.Name, Power: dr.Loss}
-		}
-	}
-	for _, m := range st.Flags {
-		p.Flags = append(p.Flags, Flag{Name: m.Element + ": " + m.Quantity, Value: m.Value, Limit: m.Limit})
-	}
+	p := drivePoint(&d.st, rng, out, outTorque)
 	if len(p.Flags) == 0 {
 		// Shared by every point, capacity-limited: an append copies.
 		p.Flags = d.unrated[:len(d.unrated):len(d.unrated)]
