@@ -1,9 +1,11 @@
 package design
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"os"
+	"strings"
 	"testing"
 
 	"github.com/google/go-cmp/cmp"
@@ -228,5 +230,51 @@ func BenchmarkSampler(b *testing.B) {
 	for b.Loop() {
 		s.Point(i, u)
 		i++
+	}
+}
+
+// TestExploreRefusesBadSettings: each setting Run cannot work with is
+// refused with ErrValue and a message naming it, before any evaluation.
+func TestExploreRefusesBadSettings(t *testing.T) {
+	t.Parallel()
+	cases := []struct {
+		name  string
+		e     func(p Problem) Explore
+		words string
+	}{
+		{"no candidates", func(p Problem) Explore { return Explore{Problem: p} }, "Candidates 0"},
+		{"no Evaluate", func(p Problem) Explore {
+			p.Evaluate = nil
+			return Explore{Problem: p, Candidates: 3}
+		}, "needs an Evaluate"},
+		{"part beyond parts", func(p Problem) Explore { return Explore{Problem: p, Candidates: 3, Parts: 2, Part: 2} }, "part 2 of 2"},
+		{"negative part", func(p Problem) Explore { return Explore{Problem: p, Candidates: 3, Part: -1} }, "part -1 of 1"},
+		{"empty objective", func(p Problem) Explore {
+			p.Objectives = []string{"cost", ""}
+			return Explore{Problem: p, Candidates: 3}
+		}, `objective name ""`},
+		{"comma in objective", func(p Problem) Explore {
+			p.Objectives = []string{"cost, size"}
+			return Explore{Problem: p, Candidates: 3}
+		}, `objective name "cost, size"`},
+	}
+	for _, c := range cases {
+		p := toyProblem()
+		calls := 0
+		if p.Evaluate != nil {
+			inner := p.Evaluate
+			p.Evaluate = func(x []float64) ([]float64, string) { calls++; return inner(x) }
+		}
+		_, err := c.e(p).Run()
+		if !errors.Is(err, ErrValue) {
+			t.Errorf("%s: Run = %v, want ErrValue", c.name, err)
+			continue
+		}
+		if !strings.Contains(err.Error(), c.words) {
+			t.Errorf("%s: error %q does not contain %q", c.name, err, c.words)
+		}
+		if calls != 0 {
+			t.Errorf("%s: %d evaluations before the refusal", c.name, calls)
+		}
 	}
 }
