@@ -92,6 +92,10 @@ func TestValidateMessages(t *testing.T) {
 			f.Transmission.Set2 = &Set{FixedCarrierRatio: -2.5}
 			f.Transmission.Ranges[0].Locked = true
 		}, "transmission.ranges[0].locked", "no locked range"},
+		{"set2 teeth arrangement", func(f *File) {
+			f.Transmission = f.Alternatives[1] // the compound split
+			f.Transmission.Set2 = &Set{Teeth: &Teeth{Sun: 30, Ring: 78, Planet: 24, Planets: 3, Arrangement: "triple planet"}}
+		}, "transmission.set2.teeth.arrangement", `"triple planet" is not one of`},
 		{"no ranges", func(f *File) { f.Transmission.Ranges = nil }, "transmission.ranges", "at least one range"},
 		{"alternative with no ranges", func(f *File) { f.Alternatives[1].Ranges = nil }, "alternatives[1].ranges", "at least one range"},
 		{"bad preset", func(f *File) {

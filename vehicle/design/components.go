@@ -157,12 +157,12 @@ func (t Transmission) hydraulicOil() (hydrostat.Oil, error) {
 // constant loss torque) with the JSON path of the key at fault.
 func (t Transmission) validateParts(c *checker, field string) {
 	at := func(prefix string, err error) {
+		path := field
 		var ke *keyError
 		if errors.As(err, &ke) {
-			c.errs = append(c.errs, c.f.fieldError(field+"."+prefix+ke.key, ke.err))
-			return
+			path, err = field+"."+prefix+ke.key, ke.err
 		}
-		c.errs = append(c.errs, c.f.fieldError(field, err))
+		c.errs = append(c.errs, c.f.fieldError(path, err))
 	}
 	if t.Set.Teeth != nil {
 		if _, err := t.Set.build(); err != nil {
