@@ -48,6 +48,14 @@ func (c *checker) positive(path string, v float64, show fmt.Stringer) {
 	c.errs = append(c.errs, e)
 }
 
+// efficiency checks an optional efficiency: 0 (left out, the default) or
+// within (0, 1].
+func (c *checker) efficiency(path string, v float64) {
+	if !(v >= 0 && v <= 1) {
+		c.add(path, "%v must lie in (0, 1] (0 or left out: the default)", v)
+	}
+}
+
 // Validate checks what decoding cannot: required values present and
 // positive, words from their lists, names of surfaces, implements and
 // trailers that exist, and that each transmission builds. Errors are
@@ -70,6 +78,8 @@ func (f *File) Validate() error {
 		c.positive(a.name+".tyre.rollingRadius", float64(y.RollingRadius), y.RollingRadius)
 		c.positive(a.name+".wheels", float64(a.axle.Wheels), nil)
 	}
+	c.efficiency("tractor.finalDriveEfficiency", t.FinalDriveEfficiency)
+	c.efficiency("pto.efficiency", f.PTO.Efficiency)
 	if math.IsNaN(t.FrontLead) || math.Abs(t.FrontLead) > 0.2 {
 		c.add("tractor.frontLead", "must lie within ±0.2")
 	}
@@ -82,6 +92,7 @@ func (f *File) Validate() error {
 	if fm := t.FrontMotor; fm != nil {
 		c.positive("tractor.frontMotor.motor.displacement", float64(fm.Motor.Displacement), fm.Motor.Displacement)
 		c.positive("tractor.frontMotor.finalDrive", fm.FinalDrive, nil)
+		c.efficiency("tractor.frontMotor.finalDriveEfficiency", fm.FinalDriveEfficiency)
 		c.positive("tractor.frontMotor.declutchAbove", float64(fm.DeclutchAbove), fm.DeclutchAbove)
 		if !slices.Contains([]string{"", "schedule", "least power"}, fm.Control) {
 			c.add("tractor.frontMotor.control", "not one of schedule, least power")

@@ -75,6 +75,12 @@ func TestValidateMessages(t *testing.T) {
 	}{
 		{"front lead", func(f *File) { f.Tractor.FrontLead = 0.3 }, "tractor.frontLead", "±0.2"},
 		{"front lead NaN", func(f *File) { f.Tractor.FrontLead = math.NaN() }, "tractor.frontLead", "±0.2"},
+		{"final drive efficiency above 1", func(f *File) { f.Tractor.FinalDriveEfficiency = 1.5 }, "tractor.finalDriveEfficiency", "must lie in (0, 1]"},
+		{"negative PTO efficiency", func(f *File) { f.PTO.Efficiency = -0.1 }, "pto.efficiency", "must lie in (0, 1]"},
+		{"front final drive efficiency above 1", func(f *File) {
+			f.Tractor.FrontMotor = frontMotor()
+			f.Tractor.FrontMotor.FinalDriveEfficiency = 1.5
+		}, "tractor.frontMotor.finalDriveEfficiency", "must lie in (0, 1]"},
 		{"negative max mass", func(f *File) { f.Tractor.MaxMass = units.Tonnes(-1) }, "tractor.maxMass", "must not be negative"},
 		{"front motor control", func(f *File) {
 			f.Tractor.FrontMotor = frontMotor()
