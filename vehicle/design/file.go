@@ -239,13 +239,22 @@ type PTO struct {
 // transmission's oil at its no-load temperature (see powersplit.Plates
 // and powersplit.Bearings).
 type PTOIdle struct {
-	Films        int          `json:"films"`
-	Inner        units.Length `json:"inner"`
-	Outer        units.Length `json:"outer"`
-	Clearance    units.Length `json:"clearance"`
+	// Films is the number of oil films (friction faces) of the PTO
+	// clutch's plates (> 0).
+	Films int `json:"films"`
+	// Inner and Outer are the radii of the friction faces (mm).
+	Inner units.Length `json:"inner"`
+	Outer units.Length `json:"outer"`
+	// Clearance is the oil film thickness of one open film (mm).
+	Clearance units.Length `json:"clearance"`
+	// MeanDiameter is the mean diameter of the PTO shaft's bearings
+	// (optional, mm; no bearing drag when left out).
 	MeanDiameter units.Length `json:"bearingMeanDiameter,omitempty"`
-	F0           float64      `json:"f0,omitempty"`
-	Bearings     int          `json:"bearings,omitempty"`
+	// F0 is Palmgren's lubrication factor of those bearings (with
+	// MeanDiameter).
+	F0 float64 `json:"f0,omitempty"`
+	// Bearings is the number of those bearings (optional; 1).
+	Bearings int `json:"bearings,omitempty"`
 }
 
 // Transmission is a power-split design: its kind ("input-coupled",

@@ -23,54 +23,90 @@ type NoLoad struct {
 	// (optional; the loop's oil temperature when left out).
 	Oil         string             `json:"oil,omitempty"`
 	Temperature *units.Temperature `json:"temperature,omitempty"`
-	Bearings    []BearingSet       `json:"bearings,omitempty"`
-	Churning    []ChurningPart     `json:"churning,omitempty"`
-	Plates      []PlatePack        `json:"plates,omitempty"`
-	ChargePump  *ChargePump        `json:"chargePump,omitempty"`
+	// Bearings are the rolling bearings, one set per shaft (Palmgren).
+	Bearings []BearingSet `json:"bearings,omitempty"`
+	// Churning are the parts dipping into the oil (ISO/TR 14179-1).
+	Churning []ChurningPart `json:"churning,omitempty"`
+	// Plates are the plate packs of clutches and brakes, dragging while open.
+	Plates []PlatePack `json:"plates,omitempty"`
+	// ChargePump is the loop's charge pump (optional).
+	ChargePump *ChargePump `json:"chargePump,omitempty"`
 }
 
 // BearingSet is the rolling bearings of one shaft (Palmgren's model), in
 // the housing or, with Other, between the shaft and another (a gear free
 // on its shaft).
 type BearingSet struct {
-	Name         string       `json:"name"`
-	Shaft        string       `json:"shaft"`
-	Other        string       `json:"other,omitempty"`
+	// Name names the loss in states and audits.
+	Name string `json:"name"`
+	// Shaft is the layout shaft the bearings carry.
+	Shaft string `json:"shaft"`
+	// Other is the second shaft for bearings between two shafts (optional;
+	// the housing when left out): they turn at the speed difference.
+	Other string `json:"other,omitempty"`
+	// MeanDiameter is the bearing's mean diameter dm, (bore + outside)/2 (mm).
 	MeanDiameter units.Length `json:"meanDiameter"`
-	F0           float64      `json:"f0"`
-	F1           float64      `json:"f1,omitempty"`
-	Load         units.Force  `json:"load,omitempty"`
-	Count        int          `json:"count,omitempty"`
+	// F0 is Palmgren's lubrication factor f0 (> 0; it depends on the
+	// bearing type and the lubrication).
+	F0 float64 `json:"f0"`
+	// F1 is Palmgren's load factor f1 (optional, ≥ 0; with Load).
+	F1 float64 `json:"f1,omitempty"`
+	// Load is the bearing load P1 for the load-dependent moment (optional, kN).
+	Load units.Force `json:"load,omitempty"`
+	// Count is the number of such bearings on the shaft (optional; 1).
+	Count int `json:"count,omitempty"`
 }
 
 // ChurningPart is a rotating part dipping into the oil (ISO/TR 14179-1).
 type ChurningPart struct {
-	Name       string       `json:"name"`
-	Shaft      string       `json:"shaft"`
-	Diameter   units.Length `json:"diameter"`
-	FaceWidth  units.Length `json:"faceWidth,omitempty"`
-	Module     units.Length `json:"module,omitempty"`
-	HelixAngle units.Angle  `json:"helixAngle,omitempty"`
-	Cylinder   units.Length `json:"cylinder,omitempty"`
-	Sides      bool         `json:"sides,omitempty"`
-	Dip        float64      `json:"dip"`
+	// Name names the loss in states and audits.
+	Name string `json:"name"`
+	// Shaft is the layout shaft the part turns with.
+	Shaft string `json:"shaft"`
+	// Diameter is the part's outside diameter D (mm).
+	Diameter units.Length `json:"diameter"`
+	// FaceWidth is the tooth face width b (optional, mm; 0 for a part
+	// without teeth).
+	FaceWidth units.Length `json:"faceWidth,omitempty"`
+	// Module is the transverse module mt (mm; needed with FaceWidth).
+	Module units.Length `json:"module,omitempty"`
+	// HelixAngle is the helix angle β (optional, °; a spur gear, 0, is
+	// evaluated at 10°).
+	HelixAngle units.Angle `json:"helixAngle,omitempty"`
+	// Cylinder is the length L of a smooth outside cylinder such as a
+	// shaft or drum (optional, mm).
+	Cylinder units.Length `json:"cylinder,omitempty"`
+	// Sides adds the loss of the two smooth sides of a disc of diameter D.
+	Sides bool `json:"sides,omitempty"`
+	// Dip is the dip factor fg: 0 clear of the oil, 1 fully submerged, the
+	// immersed fraction of the diameter in between.
+	Dip float64 `json:"dip"`
 }
 
 // PlatePack is the plates of a clutch or brake, dragging while it is open.
 type PlatePack struct {
-	Name      string       `json:"name"`
-	Clutch    string       `json:"clutch"`
-	Films     int          `json:"films"`
-	Inner     units.Length `json:"inner"`
-	Outer     units.Length `json:"outer"`
+	// Name names the loss in states and audits.
+	Name string `json:"name"`
+	// Clutch is the layout's clutch or brake element the plates belong to.
+	Clutch string `json:"clutch"`
+	// Films is the number of oil films (friction faces) (> 0).
+	Films int `json:"films"`
+	// Inner and Outer are the radii ri and ro of the friction faces (mm).
+	Inner units.Length `json:"inner"`
+	Outer units.Length `json:"outer"`
+	// Clearance is the oil film thickness h of one open film (mm).
 	Clearance units.Length `json:"clearance"`
 }
 
 // ChargePump is the loop's charge pump, driven from a named shaft.
 type ChargePump struct {
-	Shaft      string           `json:"shaft"`
-	Flushing   units.VolumeFlow `json:"flushing,omitempty"`
-	Efficiency float64          `json:"efficiency"`
+	// Shaft is the layout shaft driving the charge pump (usually the input).
+	Shaft string `json:"shaft"`
+	// Flushing is the flushing flow delivered beyond the loop's leakage
+	// (optional, L/min).
+	Flushing units.VolumeFlow `json:"flushing,omitempty"`
+	// Efficiency is the charge pump's overall efficiency, in (0, 1].
+	Efficiency float64 `json:"efficiency"`
 }
 
 // lubricant returns the transmission oil at its no-load temperature: the
