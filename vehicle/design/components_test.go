@@ -3,13 +3,9 @@ package design
 import (
 	"errors"
 	"math"
-	"path/filepath"
 	"strconv"
 	"strings"
 	"testing"
-
-	"github.com/google/go-cmp/cmp"
-	"github.com/google/go-cmp/cmp/cmpopts"
 
 	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/hydrostat"
@@ -122,22 +118,7 @@ func TestComponentFields(t *testing.T) {
 	}
 
 	// Load, save, load: equal values, and the saved text in the file's words.
-	path := filepath.Join(t.TempDir(), "saved.json")
-	if err := f.Save(path); err != nil {
-		t.Fatal(err)
-	}
-	g, err := Load(path)
-	if err != nil {
-		t.Fatal(err)
-	}
-	if diff := cmp.Diff(f, g, cmpopts.IgnoreUnexported(File{})); diff != "" {
-		t.Errorf("load, save, load: values differ (-first +second):\n%s", diff)
-	}
-	x, _ := f.Marshal()
-	y, _ := g.Marshal()
-	if string(x) != string(y) {
-		t.Error("Marshal of the reloaded file differs from the saved bytes")
-	}
+	_, x := saveLoad(t, f)
 	for _, want := range []string{`"swing": "over centre"`, `"swing": "to zero"`, `"oilViscosityIndex": 140`, `"oilViscosity": "25 `,
 		`"constantTorque": "2 `, `"sunShift": 0.2`, `"ringShift": -0.2`} {
 		if !strings.Contains(string(x), want) {
@@ -264,16 +245,6 @@ func FuzzComponentFields(f *testing.F) {
 		if err != nil {
 			return
 		}
-		b, err := a.Marshal()
-		if err != nil {
-			t.Fatalf("Marshal of a parsed design: %v", err)
-		}
-		c, err := Parse("again.json", b)
-		if err != nil {
-			t.Fatalf("Parse of a saved design: %v", err)
-		}
-		if diff := cmp.Diff(a, c, cmpopts.IgnoreUnexported(File{})); diff != "" {
-			t.Errorf("parse, save, parse: values differ:\n%s", diff)
-		}
+		reparse(t, a)
 	})
 }
