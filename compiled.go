@@ -105,6 +105,13 @@ type compiledState struct {
 	seenK    []float64 // the directions of the first pass, to catch oscillation
 	seenF    []int8
 	hits     int // points solved on the compiled path (for tests)
+	// keyPorts are the ports whose torques a point's summary and its
+	// directions read (the input, outputs and PTOs, the lossy gears' two
+	// ports, every set's sun, the pump): the compiled path computes only
+	// these unless the full State is asked for.
+	keyPorts []int32
+	gears    []int32 // element indices of the gears with a loss (η < 1)
+	lossy    []int32 // element indices of the elements with a loss: lossy gears, sets, the loop
 }
 
 func (s *Solver) initCompiled() {
@@ -124,6 +131,27 @@ func (s *Solver) initCompiled() {
 		c.guessK[i], c.guessF[i] = make([]float64, len(l.gears)), make([]int8, len(l.planets))
 	}
 	c.seenK, c.seenF = make([]float64, len(l.gears)), make([]int8, len(l.planets))
+	key := []int32{int32(l.elems[l.input].port0)}
+	for _, i := range l.outputs {
+		key = append(key, int32(l.elems[i].port0))
+	}
+	for _, i := range l.ptos {
+		key = append(key, int32(l.elems[i].port0))
+	}
+	for _, gi := range l.gears {
+		if e := &s.ec[gi]; e.eta != 1 {
+			key = append(key, e.port0, e.port0+1)
+			c.gears = append(c.gears, int32(gi))
+			c.lossy = append(c.lossy, int32(gi))
+		}
+	}
+	for _, pi := range l.planets {
+		key = append(key, s.ec[pi].port0)
+		c.lossy = append(c.lossy, int32(pi))
+	}
+	key = append(key, int32(l.elems[l.loops[0]].port0))
+	c.lossy = append(c.lossy, int32(l.loops[0]))
+	c.keyPorts = key
 	// Size the curve's storage now (at standstill), so that no solve
 	// allocates.
 	l.elems[l.loops[0]].loop.Curve(0, c.wms, &c.curve)
@@ -156,11 +184,13 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge)
 	evals := 0
 	var dp float64
+	var e *sysEntry
+	var dz []float64
 	for pass := 0; ; pass++ {
 		if pass == maxPasses {
 			return false
 		}
-		e := s.entry(r, p)
+		e = s.entry(r, p)
 		if !e.ok {
 			return false
 		}
@@ -170,7 +200,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		} else if equalK(c.seenK, s.gearK) && equalF(c.seenF, s.pflow) {
 			return false // back to the first directions: they oscillate
 		}
-		var dz []float64
+		dz = nil
 		if s.dragRHS != nil {
 			// The drag torques load the shaft rows: z = A_ref⁻¹ of them
 			// adds to the pressure's equation and to every port torque.
@@ -185,7 +215,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		if !ok {
 			return false
 		}
-		s.portTorques(e, dz)
+		s.portTorques(e, dz, c.keyPorts)
 		if !s.readDirections() {
 			break
 		}
@@ -194,35 +224,128 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	// rounding of the largest: the general path solves such a near-idle
 	// point (exact does, by full LU).
 	var tmax float64
-	t := s.t[:l.nPorts]
-	for _, v := range t {
-		tmax = maxAbs(tmax, v)
+	for _, k := range c.keyPorts {
+		tmax = maxAbs(tmax, s.t[k])
 	}
-	for _, v := range t {
-		if v != 0 && math.Abs(v) < 1e-12*tmax {
+	for _, k := range c.keyPorts {
+		if v := s.t[k]; v != 0 && math.Abs(v) < 1e-12*tmax {
 			return false
 		}
 	}
 	// Accepted: the loop state at the final pressure, then the state.
 	s.dp[0] = dp
-	if lerr := c.curve.Fill(units.Pressure(dp), c.settings, &s.loopA[0]); lerr != nil {
-		if lerr != hydrostat.ErrSettingLimit {
+	st.size(l)
+	lr := &st.Loops[0]
+	if lerr := c.curve.Fill(units.Pressure(dp), c.settings, &lr.LoopState); lerr != nil {
+		if lerr != hydrostat.ErrSettingLimit || lr.High > el.lspec.Relief {
+			// Beyond the relief as well: which limit the point crosses
+			// first is the general path's to say (it may find no balance
+			// below the relief at all).
 			return false
 		}
 		// No setting in range gives the speeds: as the general path ends
 		// (the state filled as far as it goes, the loop's limit).
-		s.fill(st, *p, r, evals, 1)
-		s.compErr = s.loopLimit(el.name, &s.loopA[0].Limit)
+		s.summaryC(st, p, r, evals, tmax)
+		if !st.Brief {
+			s.portTorques(e, dz, nil)
+			s.detail(st, r, 1)
+		}
+		s.compErr = s.loopLimit(el.name, &lr.Limit)
 		s.keepGuess(rg)
 		return true
 	}
-	res := s.fill(st, *p, r, evals, 1)
-	if !(res <= balanceTo) || s.hasBad {
+	res := s.summaryC(st, p, r, evals, tmax)
+	if !(res <= balanceTo) || s.bad != nil {
 		return false
+	}
+	if !st.Brief {
+		s.portTorques(e, dz, nil)
+		s.detail(st, r, 1)
 	}
 	s.compErr = nil
 	s.keepGuess(rg)
 	return true
+}
+
+// summaryC is summary on the compiled path: it reads the key ports only
+// (tmax the largest of their torques) and the loop state already in
+// st.Loops[0], and gives the same numbers whether st is Brief or not.
+func (s *Solver) summaryC(st *State, p *Point, r *rangeDef, iters int, tmax float64) float64 {
+	l := s.l
+	st.Range, st.RangeName = p.Range, r.name
+	st.Iterations = iters
+	e := &s.ec[l.input]
+	w, t := s.w[e.a], s.t[e.port0]+0
+	st.InputSpeed, st.InputTorque, st.InputPower = units.AngularVelocity(w), -units.Torque(t), -units.Power(t*w)
+	var out, pto float64
+	for k, oi := range l.outputs {
+		e := &s.ec[oi]
+		w, t := s.w[e.a], s.t[e.port0]+0
+		st.Outputs[k] = FlowState{Name: l.elems[oi].name, Speed: units.AngularVelocity(w), Torque: units.Torque(t), Power: units.Power(t * w)}
+		out += t * w
+	}
+	for k, pi := range l.ptos {
+		e := &s.ec[pi]
+		w, t := s.w[e.a], s.t[e.port0]+0
+		st.PTOs[k] = FlowState{Name: l.elems[pi].name, Speed: units.AngularVelocity(w), Torque: units.Torque(t), Power: units.Power(t * w)}
+		pto += t * w
+	}
+	st.OutputPower, st.PTOPower = units.Power(out), units.Power(pto)
+	var loss float64
+	for _, i := range s.comp.lossy {
+		if s.ec[i].kind != LoopKind {
+			v, _ := s.elemLoss(int(i), 1)
+			loss += v
+		}
+	}
+	lr := &st.Loops[0]
+	el := &l.elems[l.loops[0]]
+	hl := pos(float64(lr.Loss))
+	loss += hl
+	st.Loss, st.HydrostatLoss = units.Power(loss), units.Power(hl)
+	lr.Name = el.name
+	lr.Ratio = s.w[el.shafts[1]] / s.w[el.shafts[0]]
+	lr.HydraulicPower = lr.Pump.Hydraulic
+	hyd := float64(lr.HydraulicPower)
+	pump := (s.t[el.port0] + 0) * s.w[el.shafts[0]]
+	st.DragLoss = 0
+	if len(l.drags) > 0 {
+		st.DragLoss = units.Power(s.fillDrags(st, 1))
+		st.Loss += st.DragLoss
+	}
+	pin, useful := float64(st.InputPower), float64(st.OutputPower+st.PTOPower)
+	switch {
+	case pin > 0 && useful > 0:
+		st.Efficiency = math.Min(1, useful/pin) // ≤ 1 up to rounding
+	case pin < 0 && useful < 0:
+		st.Efficiency = math.Min(1, pin/useful)
+	default:
+		st.Efficiency = 0
+	}
+	st.HydraulicShare, st.PumpShare = 0, 0
+	if pin != 0 {
+		st.PumpShare = pump / pin
+		st.HydraulicShare = hyd / pin
+		if r.reverse {
+			st.HydraulicShare = -hyd / pin
+		}
+	}
+	// The balance as summary judges it, the largest torque taken over the
+	// key ports.
+	var wmax float64
+	for _, v := range s.w[:len(l.shafts)] {
+		wmax = maxAbs(wmax, v)
+	}
+	scale := math.Abs(pin) + math.Abs(useful) + float64(st.Loss) + 1e-3*tmax*wmax
+	res := pin - useful - float64(st.Loss)
+	if scale > 0 {
+		res = math.Abs(res) / scale
+	} else {
+		res = 0
+	}
+	st.Residual = res
+	s.margins(st, true)
+	return res
 }
 
 // keepGuess keeps the directions of a point solved on the compiled path as
@@ -289,9 +412,10 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz []float64, lim float64, evals 
 	return 0, false
 }
 
-// portTorques sets every port torque, T = H·b + W·τ (+ z of the drag
-// torques), into s.t.
-func (s *Solver) portTorques(e *sysEntry, dz []float64) {
+// portTorques sets the port torques T = H·b + W·τ (+ z of the drag
+// torques) into s.t: of the ports listed, or of every port when ports is
+// nil.
+func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 	c := &s.comp
 	v := c.v[:e.nExt+len(c.tau)]
 	copy(v, c.b[:e.nExt])
@@ -301,6 +425,20 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64) {
 	m := len(v)
 	t := s.t[:s.l.nPorts]
 	pt := e.pt[:len(t)*m]
+	if ports != nil {
+		for _, i := range ports {
+			row := pt[int(i)*m : int(i+1)*m]
+			var sum float64
+			for j, x := range row {
+				sum += x * v[j]
+			}
+			if dz != nil {
+				sum += dz[i]
+			}
+			t[i] = sum
+		}
+		return
+	}
 	for i := range t {
 		row := pt[i*m : (i+1)*m]
 		var sum float64
@@ -332,11 +470,8 @@ func (s *Solver) losslessDirections() {
 func (s *Solver) readDirections() bool {
 	l := s.l
 	changed := false
-	for _, gi := range l.gears {
+	for _, gi := range s.comp.gears {
 		e := &s.ec[gi]
-		if e.eta == 1 {
-			continue
-		}
 		pa := s.t[e.port0] * s.w[e.a]
 		pb := s.t[e.port0+1] * s.w[e.b]
 		scale := math.Abs(pa) + math.Abs(pb)

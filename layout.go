@@ -589,13 +589,22 @@ func (l *layout) givenOutputs() int {
 }
 
 // speeds fills w (length S) with the shaft speeds of range r.
-func (l *layout) speeds(r *rangeDef, win float64, wout func(int) float64, w []float64) {
+func (l *layout) speeds(r *rangeDef, win float64, wout, w []float64) {
 	nG := 1 + len(l.outputs)
+	if nG == 2 {
+		// One output: the common case, without the inner loop.
+		wo := wout[0]
+		for s := range w {
+			row := r.g[2*s : 2*s+2 : 2*s+2]
+			w[s] = row[0]*win + row[1]*wo
+		}
+		return
+	}
 	for s := range w {
 		row := r.g[s*nG : (s+1)*nG]
 		v := row[0] * win
 		for j := 1; j < nG; j++ {
-			v += row[j] * wout(j-1)
+			v += row[j] * wout[j-1]
 		}
 		w[s] = v
 	}

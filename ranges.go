@@ -48,7 +48,7 @@ func (s *Solver) reachable(p *Point, rg int, v float64) bool {
 			return false
 		}
 	}
-	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	l.speeds(r, float64(p.Input), s.outW, s.w)
 	if r.locked {
 		snapSpeeds(s.w)
 	}
@@ -95,10 +95,10 @@ func (s *Solver) Interval(p Point) ([]SpeedInterval, error) {
 	// Speeds of every unit are affine in v: a + b·v.
 	V := 0.0
 	s.outputSpeeds(&p, 0)
-	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	l.speeds(r, float64(p.Input), s.outW, s.w)
 	a := append([]float64(nil), s.w...)
 	s.outputSpeeds(&p, 1)
-	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	l.speeds(r, float64(p.Input), s.outW, s.w)
 	for _, e := range l.loops {
 		el := &l.elems[e]
 		spec := el.loop.Spec()
@@ -185,7 +185,7 @@ func (s *Solver) ShiftPoints(p Point) ([]ShiftPoint, error) {
 	S := len(l.shafts)
 	speedsAt := func(rg int, v float64) []float64 {
 		s.outputSpeeds(&p, v)
-		l.speeds(&l.ranges[rg], float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+		l.speeds(&l.ranges[rg], float64(p.Input), s.outW, s.w)
 		return append([]float64(nil), s.w...)
 	}
 	var out []ShiftPoint

@@ -48,9 +48,13 @@ type Solver struct {
 	alpha    float64
 	lastStep float64
 	scratch  State
-	bad      Margin // the first infeasible margin of the last fill (margins)
-	hasBad   bool
-	room     float64 // the binding margin's room so far, relative (margins)
+	bad      *marginDesc // the first infeasible margin of the last fill (margins), at badV
+	badV     float64
+	room     float64     // the binding margin's room so far, relative (margins)
+	bind     *marginDesc // the binding margin so far, at bindV
+	bindV    float64
+	rangeM   []marginDesc   // per range: its speed limit (initMargins)
+	loopM    [][]marginDesc // per loop: its margins (initMargins)
 
 	// The factored torque systems (see factor.go) and the work space of
 	// their solve.
@@ -144,6 +148,7 @@ func NewSolver(l Layout) *Solver {
 	s.initCache()
 	s.initElemC()
 	s.initCompiled()
+	s.initMargins()
 	s.general = ly.general || solvepath.General.Load()
 	s.prevT = make([]float64, s.nU)
 	s.initPins()
@@ -289,25 +294,16 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 			// The speeds of a locked range follow from the input speed:
 			// report the output speed it gives.
 			s.outW[0] = want
-			l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+			l.speeds(r, float64(p.Input), s.outW, s.w)
 			s.outW[0] = float64(p.Outputs[0].Speed)
 			s.fill(st, p, r, 0, 0)
 			return s.limitErr(LimitError{Element: r.name, Quantity: "output speed", Value: units.Of(units.AngularVelocity(math.Abs(s.outW[0]))),
 				Bound: boundLockedSpeed, Limit: units.Of(units.AngularVelocity(math.Abs(want))), Err: ErrUnreachable})
 		}
 	}
-	l.speeds(r, float64(p.Input), func(i int) float64 { return s.outW[i] }, s.w)
+	l.speeds(r, float64(p.Input), s.outW, s.w)
 	if r.locked {
 		snapSpeeds(s.w)
-	}
-	for i := range s.gearK {
-		s.gearK[i], s.flip[i] = 1, 0
-	}
-	for i := range s.pflow {
-		s.pflow[i], s.pflip[i] = -1, 0
-	}
-	for j := range s.dp {
-		s.dp[j] = 0
 	}
 	if len(l.drags) > 0 {
 		if err := s.initDrags(r, &p); err != nil {
@@ -331,6 +327,8 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 		return s.compErr
 	}
 	s.losslessDirections()
+	clear(s.flip)
+	clear(s.pflip)
 	clear(s.dp)
 	converged, it, err := s.iterate(r, &p, true, 0)
 	if err != nil {

@@ -377,6 +377,9 @@ func (s *Solver) detail(st *State, r *rangeDef, torques int) {
 		e := &l.elems[i]
 		es := &st.Elements[i]
 		loss, fl := s.elemLoss(i, torques)
+		if e.kind == LoopKind && torques != 0 {
+			loss = pos(float64(st.Loops[e.index].Loss)) // the loop state as the summary took it
+		}
 		es.Name, es.Kind, es.Loss, es.Engaged, es.Flow, es.Loop = e.name, e.kind, units.Power(loss), r.engaged[i], fl, -1
 		if e.kind == LoopKind {
 			es.Loop = e.index
@@ -491,6 +494,51 @@ const (
 	boundRangeSpeed = "range's maximum output speed"
 )
 
+// marginDesc is what a margin of the layout is, known before any point:
+// its names, its limit and whether that limit is rated. margins reads the
+// point's value of each.
+type marginDesc struct {
+	elem, quantity, bound string
+	limit                 float64
+	kind                  units.Kind
+	unchecked             bool // the limit is not rated: listed, never checked
+	rated                 bool // a rated pressure: crossing it is a flag, not a limit
+}
+
+// at returns the margin of d at value v.
+func (d *marginDesc) at(v float64) Margin {
+	return Margin{Element: d.elem, Quantity: d.quantity, Value: measure(v, d.kind), Bound: d.bound, Limit: measure(d.limit, d.kind), Unchecked: d.unchecked}
+}
+
+// initMargins lists the layout's margins in the order margins takes them:
+// per range its speed limit (when it has one); per loop the high-line
+// pressure against the relief setting, then per unit its pressure against
+// the rated and the peak pressure, its speed and its setting.
+func (s *Solver) initMargins() {
+	l := s.l
+	const w, pa = units.AngularVelocityKind, units.PressureKind
+	s.rangeM = make([]marginDesc, len(l.ranges))
+	for i := range l.ranges {
+		r := &l.ranges[i]
+		s.rangeM[i] = marginDesc{elem: r.name, quantity: "output speed", bound: boundRangeSpeed, limit: r.maxOut, kind: w}
+	}
+	s.loopM = make([][]marginDesc, len(l.loops))
+	for j, e := range l.loops {
+		el := &l.elems[e]
+		spec := &el.lspec
+		ds := []marginDesc{{elem: el.name, quantity: "high-line pressure", bound: boundRelief, limit: float64(spec.Relief), kind: pa, unchecked: spec.Relief <= 0}}
+		for k := range el.shafts {
+			us := &el.uspec[k]
+			ds = append(ds,
+				marginDesc{elem: el.name, quantity: el.unames[k][0], bound: boundRated, limit: float64(us.RatedPressure), kind: pa, unchecked: us.RatedPressure <= 0, rated: true},
+				marginDesc{elem: el.name, quantity: el.unames[k][0], bound: boundPeak, limit: float64(us.PeakPressure), kind: pa, unchecked: us.PeakPressure <= 0},
+				marginDesc{elem: el.name, quantity: el.unames[k][1], bound: boundSpeed, limit: float64(us.MaxSpeed), kind: w, unchecked: us.MaxSpeed <= 0},
+				marginDesc{elem: el.name, quantity: el.unames[k][2], bound: boundFull, limit: 1, kind: units.Number})
+		}
+		s.loopM[j] = ds
+	}
+}
+
 // margins lists the distance of every loop quantity from its limit in
 // st.Margins (not for a Brief st), the crossed ratings in st.Flags, the
 // binding margin in st.Binding, and keeps the first infeasible margin for
@@ -501,64 +549,59 @@ func (s *Solver) margins(st *State, known bool) {
 	st.Margins = st.Margins[:0]
 	st.Flags = st.Flags[:0]
 	st.Binding = Margin{}
-	s.bad, s.hasBad = Margin{}, false
+	s.bad = nil
 	if !known {
 		return
 	}
-	s.room = math.Inf(1)
-	const w, pa = units.AngularVelocityKind, units.PressureKind
+	s.room, s.bind = math.Inf(1), nil
 	if r := &l.ranges[st.Range]; r.maxOut > 0 {
-		s.margin(st, r.name, "output speed", boundRangeSpeed, math.Abs(s.outW[0]), r.maxOut, w, false)
+		s.margin(st, &s.rangeM[st.Range], math.Abs(s.outW[0]))
 	}
-	for j, e := range l.loops {
-		el := &l.elems[e]
-		spec := &el.lspec
+	for j := range l.loops {
+		ds := s.loopM[j]
 		ls := &st.Loops[j]
-		high := float64(spec.Charge) + math.Abs(float64(ls.Pressure))
-		s.margin(st, el.name, "high-line pressure", boundRelief, high, float64(spec.Relief), pa, spec.Relief <= 0)
 		dp := math.Abs(float64(ls.Pressure))
-		for k := range el.shafts {
+		s.margin(st, &ds[0], float64(l.elems[l.loops[j]].lspec.Charge)+dp)
+		for k := 1; k < len(ds); k += 4 {
 			pt := &ls.Pump
-			if k > 0 {
-				pt = &ls.Motors[k-1]
+			if k > 1 {
+				pt = &ls.Motors[(k-1)/4-1]
 			}
-			us := &el.uspec[k]
-			s.margin(st, el.name, el.unames[k][0], boundRated, dp, float64(us.RatedPressure), pa, us.RatedPressure <= 0)
-			s.margin(st, el.name, el.unames[k][0], boundPeak, dp, float64(us.PeakPressure), pa, us.PeakPressure <= 0)
-			s.margin(st, el.name, el.unames[k][1], boundSpeed, math.Abs(float64(pt.Speed)), float64(us.MaxSpeed), w, us.MaxSpeed <= 0)
-			s.margin(st, el.name, el.unames[k][2], boundFull, math.Abs(pt.Setting), 1, units.Number, false)
+			s.margin(st, &ds[k], dp)
+			s.margin(st, &ds[k+1], dp)
+			s.margin(st, &ds[k+2], math.Abs(float64(pt.Speed)))
+			s.margin(st, &ds[k+3], math.Abs(pt.Setting))
 		}
+	}
+	if s.bind != nil {
+		st.Binding = s.bind.at(s.bindV)
 	}
 }
 
-// margin takes one margin into st: listed unless st is Brief, flagged when
-// a crossed rating, the binding one when it has the least room so far
-// (s.room), and kept for limits when it is the first crossed limit. The
-// Margin value is built only where it is kept (a Brief State keeps one or
-// two of them a point).
-func (s *Solver) margin(st *State, elem, quantity, bound string, value, limit float64, kind units.Kind, unchecked bool) {
-	mk := func() Margin {
-		return Margin{Element: elem, Quantity: quantity, Value: measure(value, kind), Bound: bound, Limit: measure(limit, kind), Unchecked: unchecked}
-	}
+// margin takes margin d at value v into st: listed unless st is Brief,
+// flagged when a crossed rating, the binding one when it has the least
+// room so far (s.room), and kept for limits when it is the first crossed
+// limit. The Margin value is built only where it is kept.
+func (s *Solver) margin(st *State, d *marginDesc, v float64) {
 	if !st.Brief {
-		st.Margins = append(st.Margins, mk())
+		st.Margins = append(st.Margins, d.at(v))
 	}
-	if unchecked {
+	if d.unchecked {
 		return
 	}
-	left := limit - value
-	crossed := left < -1e-12*limit // Margin.Crossed
-	if bound == boundRated {
+	left := d.limit - v
+	crossed := left < -1e-12*d.limit // Margin.Crossed
+	if d.rated {
 		if crossed {
-			st.Flags = append(st.Flags, mk())
+			st.Flags = append(st.Flags, d.at(v))
 		}
 		return // a rating is a flag, not a limit
 	}
-	if r := left / limit; r < s.room {
-		s.room, st.Binding = r, mk()
+	if r := left / d.limit; r < s.room {
+		s.room, s.bind, s.bindV = r, d, v
 	}
-	if !s.hasBad && crossed {
-		s.bad, s.hasBad = mk(), true
+	if s.bad == nil && crossed {
+		s.bad, s.badV = d, v
 	}
 }
 
@@ -568,10 +611,10 @@ func measure(v float64, k units.Kind) units.Measure { return units.Measure{SI: v
 // limits returns a *LimitError for the first infeasible margin that
 // margins found.
 func (s *Solver) limits() error {
-	if !s.hasBad {
+	if s.bad == nil {
 		return nil
 	}
-	m := s.bad
+	m := s.bad.at(s.badV)
 	sent := ErrInfeasible
 	if m.Bound == boundFull {
 		sent = ErrUnreachable
