@@ -58,6 +58,8 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 	} else if ws != nil {
 		return bestRange(v, d, ws)
 	}
+	sr := newSearch(v, d)
+	defer sr.release()
 	n := s.Samples
 	if n < 2 {
 		n = 24
@@ -69,7 +71,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 	lo, hi := float64(e.Idle()), e.hi
 	if d.Speed == 0 && d.Acceleration == 0 {
 		// Drive disengaged: only the engine speed matters.
-		p, err := refine(v, d, 0, e.speeds(lo, hi, n), tol)
+		p, err := refine(sr, 0, e.speeds(lo, hi, n), tol)
 		if err != nil {
 			return Point{}, infeasible(err)
 		}
@@ -91,7 +93,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 	locked := make([]bool, ranges)
 	spannedAt := make([]bool, ranges)
 	for r := range ranges {
-		if lp, ok, err := lockedPoint(v, d, r); ok {
+		if lp, ok, err := lockedPoint(sr, r); ok {
 			// A locked range runs at one engine speed for this travel speed.
 			locked[r] = true
 			if err != nil {
@@ -111,7 +113,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 			ws = withEdges(ws, rs.RatioSpans(r, units.AngularVelocity(hi)), float64(out), lo, hi)
 			spannedAt[r] = true
 		}
-		results[r], errs[r] = refine(v, d, r, ws, tol)
+		results[r], errs[r] = refine(sr, r, ws, tol)
 		if errs[r] == nil && results[r].Drive.OutputSpeed > 0 {
 			out = results[r].Drive.OutputSpeed
 		}
@@ -123,7 +125,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 		if spanned && out > 0 && !spannedAt[r] {
 			// Ranges solved before the output speed was known.
 			ws := withEdges(e.speeds(lo, hi, n), rs.RatioSpans(r, units.AngularVelocity(hi)), float64(out), lo, hi)
-			p, err := refine(v, d, r, ws, tol)
+			p, err := refine(sr, r, ws, tol)
 			if err == nil && (errs[r] != nil || better(p, results[r])) {
 				results[r], errs[r] = p, nil
 			}
@@ -152,7 +154,8 @@ type LockedRatioer interface {
 // vehicle's transmission (ok true): at the one engine speed that gives the
 // output speed the travel speed needs. The output speed comes from the
 // transmission's own report of the speed asked (a point at idle speed).
-func lockedPoint(v *Vehicle, d Demand, r int) (Point, bool, error) {
+func lockedPoint(sr *search, r int) (Point, bool, error) {
+	v := sr.v
 	lr, ok := v.s.Transmission.(LockedRatioer)
 	if !ok {
 		return Point{}, false, nil
@@ -162,7 +165,7 @@ func lockedPoint(v *Vehicle, d Demand, r int) (Point, bool, error) {
 		return Point{}, false, nil
 	}
 	w0 := v.Engine().Idle()
-	p, err := v.At(d, w0, r)
+	p, err := sr.at(w0, r)
 	if err == nil {
 		return p, true, nil
 	}
@@ -170,7 +173,7 @@ func lockedPoint(v *Vehicle, d Demand, r int) (Point, bool, error) {
 	if !isLimit || le.Bound != powersplit.BoundLockedSpeed {
 		return Point{}, true, err
 	}
-	p, err = v.At(d, units.AngularVelocity(le.Value.SI/nu), r)
+	p, err = sr.at(units.AngularVelocity(le.Value.SI/nu), r)
 	return p, true, err
 }
 
@@ -182,14 +185,14 @@ func better(p, q Point) bool {
 }
 
 // refine samples the speeds in range r and refines the best sample.
-func refine(v *Vehicle, d Demand, r int, ws []float64, tol float64) (Point, error) {
+func refine(sr *search, r int, ws []float64, tol float64) (Point, error) {
 	bestI := -1
 	var (
 		best    Point
 		lastErr error
 	)
 	for i, w := range ws {
-		p, err := v.At(d, units.AngularVelocity(w), r)
+		p, err := sr.at(units.AngularVelocity(w), r)
 		if err != nil {
 			lastErr = err
 			continue
@@ -206,7 +209,7 @@ func refine(v *Vehicle, d Demand, r int, ws []float64, tol float64) (Point, erro
 	// which may fall between two samples: find each edge next to the best
 	// sample.
 	feasible := func(w float64) (Point, bool) {
-		p, err := v.At(d, units.AngularVelocity(w), r)
+		p, err := sr.at(units.AngularVelocity(w), r)
 		return p, err == nil
 	}
 	for _, j := range []int{bestI - 1, bestI + 1} {
@@ -224,7 +227,7 @@ func refine(v *Vehicle, d Demand, r int, ws []float64, tol float64) (Point, erro
 	b := ws[min(bestI+1, len(ws)-1)]
 	if b > a {
 		fuel := func(w float64) float64 {
-			p, err := v.At(d, units.AngularVelocity(w), r)
+			p, err := sr.at(units.AngularVelocity(w), r)
 			if err != nil {
 				return math.Inf(1)
 			}
@@ -232,7 +235,7 @@ func refine(v *Vehicle, d Demand, r int, ws []float64, tol float64) (Point, erro
 		}
 		x, fx := numeric.Minimize(fuel, a, b, tol*b)
 		if fx < float64(best.FuelRate) {
-			if p, err := v.At(d, units.AngularVelocity(x), r); err == nil {
+			if p, err := sr.at(units.AngularVelocity(x), r); err == nil {
 				best = p
 			}
 		}
@@ -328,9 +331,11 @@ func bestRange(v *Vehicle, d Demand, ws []units.AngularVelocity) (Point, error) 
 		found bool
 		tries []try
 	)
+	sr := newSearch(v, d)
+	defer sr.release()
 	for _, w := range ws {
 		for r := range ranges {
-			p, err := v.At(d, w, r)
+			p, err := sr.at(w, r)
 			if err != nil {
 				tries = append(tries, try{rng: r, engine: w, err: err})
 				continue

@@ -236,6 +236,13 @@ func (p Point) TransmissionEfficiency() float64 {
 // still (zero speed and acceleration) disengages the drive and rng is
 // ignored.
 func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) {
+	return v.at(d, w, rng, nil)
+}
+
+// at is At; a non-nil ty holds what does not depend on the engine speed
+// or range (the axle loads and the tyres' solution of d), solved on the
+// first call that needs it and reused by the others of a search.
+func (v *Vehicle) at(d Demand, w units.AngularVelocity, rng int, ty *tyreMemo) (Point, error) {
 	if err := d.Validate(); err != nil {
 		return Point{}, err
 	}
@@ -286,7 +293,7 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 	p.Pull = units.Force(pull)
 
 	if s.Geometry != nil {
-		if _, _, err := v.AxleLoads(d); err != nil {
+		if err := ty.axleLoads(v, d); err != nil {
 			return Point{}, err
 		}
 	}
@@ -305,7 +312,7 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		driveTorque = t
 	}
 	if vs > 0 && !axleDrive {
-		wh, err := driveOn(ground, units.Force(math.Max(pull, 0)), d.Grade, d.Speed, d.TurnRadius)
+		wh, err := ty.drive(ground, units.Force(math.Max(pull, 0)), d)
 		if err != nil {
 			return Point{}, err
 		}
@@ -394,7 +401,12 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 		pin := float64(units.PowerFromTorque(dp.InputTorque, w))
 		p.Range = rng
 		p.Drive = dp
-		p.Flags = append(p.Flags, dp.Flags...)
+		if len(p.Flags) == 0 {
+			// The drive's flags, shared: capacity-limited, an append copies.
+			p.Flags = dp.Flags[:len(dp.Flags):len(dp.Flags)]
+		} else {
+			p.Flags = append(p.Flags, dp.Flags...)
+		}
 		driveTorque = dp.InputTorque
 		f.Hydrostatic = dp.HydrostaticLoss
 		f.NoLoad = dp.NoLoadLoss
