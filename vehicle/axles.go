@@ -2,7 +2,6 @@ package vehicle
 
 import (
 	"errors"
-	"fmt"
 	"math"
 	"sync"
 
@@ -62,6 +61,7 @@ type FrontMotorDrive struct {
 	mu       sync.Mutex
 	solver   *powersplit.Solver
 	st       powersplit.State
+	names    flagNames // the names of the solver's flags, made once
 	outs     []powersplit.OutputDemand
 	set      []powersplit.MotorSetting
 }
@@ -150,12 +150,9 @@ func (d *FrontMotorDrive) OperateAxles(rng int, engine, rear, front units.Angula
 	}
 	d.st.Brief = true // the summary is all a drive point needs
 	if err := d.solver.Solve(p, &d.st); err != nil {
-		if errors.Is(err, powersplit.ErrInput) {
-			return DrivePoint{}, fmt.Errorf("%w: %w", ErrInvalid, err)
-		}
-		return DrivePoint{}, fmt.Errorf("%w: %w", ErrTransmission, err)
+		return DrivePoint{}, &driveError{err}
 	}
-	dp := drivePoint(&d.st, rng, rear, rearTorque)
+	dp := drivePoint(&d.st, rng, rear, rearTorque, nil, &d.names, nil)
 	dp.FrontSpeed, dp.FrontTorque = front, d.st.Outputs[1].Torque
 	lp := &d.st.Loops[d.info.Loop]
 	dp.FrontSetting = lp.Motors[d.info.Motor].Setting
@@ -175,8 +172,10 @@ func (d *FrontMotorDrive) declutched(rng int) bool {
 
 // drivePoint fills the DrivePoint of a solved layout state (losses split
 // into the loops', the load-independent drag and the rest; the first
-// loop's state; the flags).
-func drivePoint(st *powersplit.State, rng int, out units.AngularVelocity, outTorque units.Torque) DrivePoint {
+// loop's state; the flags, then extra, a drive's own flags, shared when
+// the state has none). Its slices come from buf (nil: new ones), the
+// flags' names from names.
+func drivePoint(st *powersplit.State, rng int, out units.AngularVelocity, outTorque units.Torque, extra []Flag, names *flagNames, buf *driveBuf) DrivePoint {
 	hydro := float64(st.HydrostatLoss)
 	mech := float64(st.Loss) - hydro - float64(st.DragLoss)
 	if mech < 0 { // rounding only: every element's loss is >= 0
@@ -201,14 +200,21 @@ func drivePoint(st *powersplit.State, rng int, out units.AngularVelocity, outTor
 		}
 	}
 	if len(st.Drags) > 0 {
-		p.NoLoad = make([]LossPart, len(st.Drags))
+		p.NoLoad = buf.lossParts(len(st.Drags))
 		for i, dr := range st.Drags {
 			p.NoLoad[i] = LossPart{Name: dr.Name, Power: dr.Loss}
 		}
 	}
-	for _, m := range st.Flags {
-		p.Flags = append(p.Flags, Flag{Name: m.Element + ": " + m.Quantity, Value: m.Value, Limit: m.Limit})
+	if len(st.Flags) == 0 {
+		// Shared by every point, capacity-limited: an append copies.
+		p.Flags = extra[:len(extra):len(extra)]
+		return p
 	}
+	p.Flags = buf.flags(len(st.Flags) + len(extra))
+	for i, m := range st.Flags {
+		p.Flags[i] = Flag{Name: names.name(m.Element, m.Quantity), Value: m.Value, Limit: m.Limit}
+	}
+	copy(p.Flags[len(st.Flags):], extra)
 	return p
 }
 

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"time"
 
+	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -70,6 +71,27 @@ func (e *LimitError) Error() string {
 
 // Unwrap returns the sentinel error so that errors.Is finds it.
 func (e *LimitError) Unwrap() error { return e.Err }
+
+// A driveError is a layout solver's error as a transmission adapter
+// returns it: ErrInvalid when the solver's error is powersplit.ErrInput,
+// ErrTransmission otherwise, then the solver's error; its text is theirs
+// joined by ": " (as fmt.Errorf("%w: %w") would give). The kind and the
+// text are found only when asked: a strategy's search discards most of
+// the errors of the points it tries unread.
+type driveError struct{ err error }
+
+func (e *driveError) kind() error {
+	if errors.Is(e.err, powersplit.ErrInput) {
+		return ErrInvalid
+	}
+	return ErrTransmission
+}
+
+// Error returns the kind's text and the solver's error's.
+func (e *driveError) Error() string { return e.kind().Error() + ": " + e.err.Error() }
+
+// Unwrap returns the kind and the solver's error.
+func (e *driveError) Unwrap() []error { return []error{e.kind(), e.err} }
 
 // An InputError records an invalid input field.
 type InputError struct {

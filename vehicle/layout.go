@@ -1,8 +1,6 @@
 package vehicle
 
 import (
-	"errors"
-	"fmt"
 	"math"
 	"sync"
 
@@ -21,6 +19,7 @@ type LayoutDrive struct {
 	mu     sync.Mutex
 	solver *powersplit.Solver
 	st     powersplit.State
+	names  flagNames // the names of the solver's flags, made once
 	outs   []powersplit.OutputDemand
 	// unrated are the flags of the layout's limits that are not rated.
 	unrated []Flag
@@ -63,6 +62,12 @@ func (d *LayoutDrive) Layout() powersplit.Layout { return d.layout }
 // DrivePoint.Flags, and so are the layout's limits that are not rated
 // (Flag.Unchecked; see powersplit.Layout.Unrated).
 func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTorque units.Torque) (DrivePoint, error) {
+	return d.operate(rng, engine, out, outTorque, nil)
+}
+
+// operate is Operate with the point's slices (NoLoad, Flags) from buf
+// (nil: new ones).
+func (d *LayoutDrive) operate(rng int, engine, out units.AngularVelocity, outTorque units.Torque, buf *driveBuf) (DrivePoint, error) {
 	if rng < 0 || rng >= d.layout.Ranges() {
 		return DrivePoint{}, invalid("range", float64(rng), "does not exist")
 	}
@@ -72,20 +77,9 @@ func (d *LayoutDrive) Operate(rng int, engine, out units.AngularVelocity, outTor
 	d.st.Brief = true // the summary is all a drive point needs
 	err := d.solver.Solve(powersplit.Point{Range: rng, Input: engine, Outputs: d.outs}, &d.st)
 	if err != nil {
-		// One line, the cause after the kind: "%w: %w" keeps both for errors.Is.
-		if errors.Is(err, powersplit.ErrInput) {
-			return DrivePoint{}, fmt.Errorf("%w: %w", ErrInvalid, err)
-		}
-		return DrivePoint{}, fmt.Errorf("%w: %w", ErrTransmission, err)
+		return DrivePoint{}, &driveError{err}
 	}
-	p := drivePoint(&d.st, rng, out, outTorque)
-	if len(p.Flags) == 0 {
-		// Shared by every point, capacity-limited: an append copies.
-		p.Flags = d.unrated[:len(d.unrated):len(d.unrated)]
-	} else {
-		p.Flags = append(p.Flags, d.unrated...)
-	}
-	return p, nil
+	return drivePoint(&d.st, rng, out, outTorque, d.unrated, &d.names, buf), nil
 }
 
 // LockedRatio returns the output over engine speed of range rng when it is

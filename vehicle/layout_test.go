@@ -3,6 +3,8 @@ package vehicle_test
 import (
 	"errors"
 	"math"
+	"reflect"
+	"slices"
 	"testing"
 
 	"github.com/powersplit-dev/powersplit"
@@ -175,5 +177,102 @@ func TestLockedRangeStrategy(t *testing.T) {
 	// The strategy saw the locked point: it chose it or one that burns less.
 	if p.FuelRate > lp.FuelRate {
 		t.Errorf("least fuel %v above the locked range's %v", p.FuelRate, lp.FuelRate)
+	}
+}
+
+// TestLayoutDriveErrors: a point the solver refuses comes back as the
+// kind (ErrTransmission, or ErrInvalid for the solver's bad input) joined
+// to the solver's own error by ": ", both found by errors.Is and the
+// solver's typed error by errors.As.
+func TestLayoutDriveErrors(t *testing.T) {
+	t.Parallel()
+	l := demoLayout(t)
+	drive, err := vehicle.FromLayout(l)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, c := range []struct {
+		name     string
+		engine   units.AngularVelocity
+		out      units.AngularVelocity
+		kind     error
+		rootKind error
+	}{
+		{"output beyond the range", units.RPM(1800), units.RPM(90000), vehicle.ErrTransmission, powersplit.ErrInfeasible},
+		{"engine speed not a number", units.AngularVelocity(math.NaN()), units.RPM(900), vehicle.ErrInvalid, powersplit.ErrInput},
+	} {
+		_, got := drive.Operate(0, c.engine, c.out, units.NewtonMetres(300))
+		var st powersplit.State
+		want := powersplit.NewSolver(l).Solve(powersplit.Point{Range: 0, Input: c.engine,
+			Outputs: []powersplit.OutputDemand{{Speed: c.out, Torque: units.NewtonMetres(300)}}}, &st)
+		if got == nil || want == nil {
+			t.Fatalf("%s: Operate error %v, solver error %v, want both", c.name, got, want)
+		}
+		if s, w := got.Error(), c.kind.Error()+": "+want.Error(); s != w {
+			t.Errorf("%s: Operate error\n got %q\nwant %q", c.name, s, w)
+		}
+		if !errors.Is(got, c.kind) || !errors.Is(got, c.rootKind) {
+			t.Errorf("%s: Operate error %v is not %v and %v", c.name, got, c.kind, c.rootKind)
+		}
+		if other := map[error]error{vehicle.ErrInvalid: vehicle.ErrTransmission, vehicle.ErrTransmission: vehicle.ErrInvalid}[c.kind]; errors.Is(got, other) {
+			t.Errorf("%s: Operate error %v is %v as well", c.name, got, other)
+		}
+	}
+	_, err = drive.Operate(0, units.RPM(1800), units.RPM(90000), units.NewtonMetres(300))
+	if le, ok := errors.AsType[*powersplit.LimitError](err); !ok || le.Quantity == "" {
+		t.Errorf("Operate error %v: no *powersplit.LimitError with its quantity", err)
+	}
+}
+
+// TestLeastFuelPointOwnsItsSlices: with a layout that has drag sources
+// (bearings), the point LeastFuel returns is the point At solves at its
+// engine speed and range, no-load parts by name included, and stays so
+// after further searches (its slices are its own, not the search's).
+func TestLeastFuelPointOwnsItsSlices(t *testing.T) {
+	t.Parallel()
+	l, err := demoLayout(t).WithLosses(powersplit.NoLoad{
+		Lubricant: powersplit.Lubricant{Viscosity: hydrostat.VG46.Viscosity(units.Celsius(70)), Density: hydrostat.VG46.Density(units.Celsius(70))},
+		Bearings: []powersplit.ShaftBearings{{Name: "input bearings", Shaft: "engine",
+			Bearings: powersplit.Bearings{MeanDiameter: units.Millimetres(85), F0: 2, Count: 2}}},
+	})
+	if err != nil {
+		t.Fatal(err)
+	}
+	drive, err := vehicle.FromLayout(l)
+	if err != nil {
+		t.Fatal(err)
+	}
+	v, err := vehicle.New(vehicle.Spec{Mass: units.Tonnes(9), Tyres: demoTyres(0.03), Transmission: drive,
+		FinalDrive: 20, Engine: demoEngine(t, true)})
+	if err != nil {
+		t.Fatal(err)
+	}
+	var kept []vehicle.Point
+	var copies []vehicle.Point
+	for _, kmh := range []float64{4, 8, 12, 6} {
+		p, err := vehicle.LeastFuel{}.Operate(v, vehicle.Demand{Speed: units.KMH(kmh), Draft: units.Kilonewtons(12)})
+		if err != nil {
+			t.Fatalf("%v km/h: %v", kmh, err)
+		}
+		if len(p.Drive.NoLoad) != 1 || p.Drive.NoLoad[0].Name != "input bearings" || !(p.Drive.NoLoad[0].Power > 0) {
+			t.Fatalf("%v km/h: no-load parts %+v, want the input bearings' loss", kmh, p.Drive.NoLoad)
+		}
+		q, err := v.At(p.Demand, p.EngineSpeed, p.Range)
+		if err != nil {
+			t.Fatalf("%v km/h: At(%v, range %d): %v", kmh, p.EngineSpeed, p.Range, err)
+		}
+		if !reflect.DeepEqual(p, q) {
+			t.Errorf("%v km/h: LeastFuel's point\n%+v\nis not At's at its engine speed and range\n%+v", kmh, p, q)
+		}
+		kept = append(kept, p)
+		c := p
+		c.Drive.NoLoad = slices.Clone(p.Drive.NoLoad)
+		c.Drive.Flags, c.Flags = slices.Clone(p.Drive.Flags), slices.Clone(p.Flags)
+		copies = append(copies, c)
+	}
+	for i := range kept {
+		if !reflect.DeepEqual(kept[i], copies[i]) {
+			t.Errorf("point %d changed after later searches:\n%+v\nwant\n%+v", i, kept[i], copies[i])
+		}
 	}
 }

@@ -1,6 +1,7 @@
 package vehicle
 
 import (
+	"slices"
 	"sync"
 
 	"github.com/powersplit-dev/powersplit/units"
@@ -58,6 +59,7 @@ type search struct {
 	v     *Vehicle
 	d     Demand
 	tyres tyreMemo
+	buf   driveBuf
 	seen  []seenPoint
 }
 
@@ -82,7 +84,8 @@ func newSearch(v *Vehicle, d Demand) *search {
 // vehicles) and gives it back to the pool.
 func (s *search) release() {
 	clear(s.seen)
-	*s = search{seen: s.seen[:0]}
+	s.buf.reset()
+	*s = search{seen: s.seen[:0], buf: s.buf}
 	searches.Put(s)
 }
 
@@ -93,7 +96,93 @@ func (s *search) at(w units.AngularVelocity, rng int) (Point, error) {
 			return q.p, q.err
 		}
 	}
-	p, err := s.v.at(s.d, w, rng, &s.tyres)
+	p, err := s.v.at(s.d, w, rng, &s.tyres, &s.buf)
 	s.seen = append(s.seen, seenPoint{w: w, rng: rng, p: p, err: err})
 	return p, err
+}
+
+// A driveBuf hands out the slices of the drive points a search solves
+// (NoLoad, Flags) from a few large ones kept across searches, so a point
+// costs no allocation of its own. A point's slices are capacity-limited
+// (an append copies) and stay valid while the search runs; the point a
+// strategy returns is given slices of its own (own). A nil *driveBuf
+// makes new slices.
+type driveBuf struct {
+	parts []LossPart
+	flag  []Flag
+}
+
+// lossParts returns n parts.
+func (b *driveBuf) lossParts(n int) []LossPart {
+	if b == nil {
+		return make([]LossPart, n)
+	}
+	if cap(b.parts)-len(b.parts) < n {
+		// A new block; the points given the old one keep it.
+		b.parts = make([]LossPart, 0, max(2*cap(b.parts), 16*n))
+	}
+	k := len(b.parts)
+	b.parts = b.parts[:k+n]
+	return b.parts[k : k+n : k+n]
+}
+
+// flags returns n flags.
+func (b *driveBuf) flags(n int) []Flag {
+	if b == nil {
+		return make([]Flag, n)
+	}
+	if cap(b.flag)-len(b.flag) < n {
+		b.flag = make([]Flag, 0, max(2*cap(b.flag), 16*n))
+	}
+	k := len(b.flag)
+	b.flag = b.flag[:k+n]
+	return b.flag[k : k+n : k+n]
+}
+
+// reset makes the blocks' room free again once no point given from them
+// is in use.
+func (b *driveBuf) reset() {
+	clear(b.parts)
+	clear(b.flag)
+	b.parts, b.flag = b.parts[:0], b.flag[:0]
+}
+
+// own returns p with slices of its own in place of a search's blocks.
+func own(p Point) Point {
+	if len(p.Drive.NoLoad) > 0 {
+		p.Drive.NoLoad = slices.Clone(p.Drive.NoLoad)
+	}
+	if n := len(p.Drive.Flags); n > 0 {
+		shared := len(p.Flags) > 0 && &p.Flags[0] == &p.Drive.Flags[0]
+		p.Drive.Flags = slices.Clip(slices.Clone(p.Drive.Flags))
+		if shared {
+			p.Flags = p.Drive.Flags
+		}
+	}
+	return p
+}
+
+// flagNames holds the names of a solver's flags ("element: quantity"), so
+// each is built once per transmission rather than once per point.
+type flagNames struct {
+	known []flagName
+}
+
+type flagName struct{ element, quantity, name string }
+
+// maxFlagNames bounds the names kept; a name beyond them is built anew.
+const maxFlagNames = 64
+
+// name returns element + ": " + quantity.
+func (c *flagNames) name(element, quantity string) string {
+	for _, k := range c.known {
+		if k.element == element && k.quantity == quantity {
+			return k.name
+		}
+	}
+	n := element + ": " + quantity
+	if len(c.known) < maxFlagNames {
+		c.known = append(c.known, flagName{element, quantity, n})
+	}
+	return n
 }

@@ -75,7 +75,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 		if err != nil {
 			return Point{}, infeasible(err)
 		}
-		return p, nil
+		return own(p), nil
 	}
 	var (
 		best  Point
@@ -141,7 +141,7 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 	if !found {
 		return Point{}, infeasibleTries(v.s.Transmission, tries)
 	}
-	return best, nil
+	return own(best), nil
 }
 
 // A LockedRatioer is a Transmission with locked (mechanical) ranges: each
@@ -348,7 +348,7 @@ func bestRange(v *Vehicle, d Demand, ws []units.AngularVelocity) (Point, error) 
 	if !found {
 		return Point{}, infeasibleTries(v.s.Transmission, tries)
 	}
-	return best, nil
+	return own(best), nil
 }
 
 // ptoEngineSpeeds returns the engine speeds a demanded PTO speed allows,

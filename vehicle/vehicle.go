@@ -236,13 +236,14 @@ func (p Point) TransmissionEfficiency() float64 {
 // still (zero speed and acceleration) disengages the drive and rng is
 // ignored.
 func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) {
-	return v.at(d, w, rng, nil)
+	return v.at(d, w, rng, nil, nil)
 }
 
 // at is At; a non-nil ty holds what does not depend on the engine speed
 // or range (the axle loads and the tyres' solution of d), solved on the
-// first call that needs it and reused by the others of a search.
-func (v *Vehicle) at(d Demand, w units.AngularVelocity, rng int, ty *tyreMemo) (Point, error) {
+// first call that needs it and reused by the others of a search, and a
+// non-nil buf gives a LayoutDrive's point its slices.
+func (v *Vehicle) at(d Demand, w units.AngularVelocity, rng int, ty *tyreMemo, buf *driveBuf) (Point, error) {
 	if err := d.Validate(); err != nil {
 		return Point{}, err
 	}
@@ -351,7 +352,15 @@ func (v *Vehicle) at(d Demand, w units.AngularVelocity, rng int, ty *tyreMemo) (
 			if wp < 0 {
 				ot = units.Torque(wp * s.FinalDriveEfficiency / float64(out))
 			}
-			dp, err := s.Transmission.Operate(rng, w, out, ot)
+			var (
+				dp  DrivePoint
+				err error
+			)
+			if ld, ok := s.Transmission.(*LayoutDrive); ok && buf != nil {
+				dp, err = ld.operate(rng, w, out, ot, buf)
+			} else {
+				dp, err = s.Transmission.Operate(rng, w, out, ot)
+			}
 			if err != nil {
 				return dp, err
 			}
