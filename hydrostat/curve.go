@@ -55,8 +55,115 @@ type Curve struct {
 type curveTorque struct {
 	w      float64 // shaft speed
 	sw     float64 // sgn ω
+	dmax   float64 // the unit's maximum displacement
 	fixed  bool    // τ = t0 + t1·|Δp| (lossless, or Wilson with its torque at full displacement)
 	t0, t1 float64
+}
+
+// curvePlan is what a Curve needs of a loop that does not change with the
+// speeds, worked out once when the loop is built: whether the loop can be
+// seen as a Curve at all, and per unit the constant parts of its leakage
+// and loss torque.
+type curvePlan struct {
+	ok    bool
+	smin  float64 // the schedule's motor floor
+	units []unitPlan
+}
+
+// unitPlan is the constant part of a unit's leakage (per unit |Δp|) and
+// loss torque, in the arithmetic of wilsonLeak and curveTorque.
+type unitPlan struct {
+	dmax     float64
+	a, b     float64 // leakage a + b·|x| per |Δp| (slip; compressibility is added per speed)
+	comp     bool    // compressibility: a += dead·c, b += c with c = D·|ω|/β
+	dead     float64
+	beta     float64
+	fixed    bool    // τ = t0 + t1·|Δp|
+	va, cb   float64 // t0 = va·|ω| + cb (+ hr·ω²·d53)
+	hr, d53  float64 // hydrodynamic term, when hr > 0
+	t1       float64
+	lossless bool
+}
+
+// planCurve works out l's curvePlan (see Loop.Curve for the loops a Curve
+// serves).
+func (l *Loop) planCurve() curvePlan {
+	sq, isSeq := l.sched.(Sequential)
+	n := len(l.spec.Motors)
+	if !isSeq || n == 0 || validMin(sq.MinMotorSetting) != nil || !l.curveUnits() {
+		return curvePlan{}
+	}
+	smin := l.motorFloor(sq.MinMotorSetting)
+	if smin <= 0 || l.pumpLow > -1 {
+		// Motors that swing to zero or over centre, a pump that does not:
+		// the schedule's special cases at a standing shaft are left to the
+		// general path.
+		return curvePlan{}
+	}
+	f := &l.fl
+	pl := curvePlan{ok: true, smin: smin, units: make([]unitPlan, n+1)}
+	for i := range pl.units {
+		u := &l.spec.Pump
+		if i > 0 {
+			u = &l.spec.Motors[i-1]
+		}
+		up := unitPlan{dmax: u.dmax}
+		m := u.wil
+		if m == nil {
+			// Lossless: no leakage, no loss torque.
+			if !(u.dmax > 0) {
+				return curvePlan{}
+			}
+			up.fixed, up.lossless = true, true
+			pl.units[i] = up
+			continue
+		}
+		// The checks of wilsonLeak that do not depend on the speed.
+		if !(u.dmax > 0) || !(f.mu > 0) || !finite(u.dmax) || !finite(f.mu) ||
+			(m.Compressibility && (!(f.beta > 0) || !finite(f.beta))) || (m.Hydrodynamic > 0 && (!(f.rho > 0) || !finite(f.rho))) {
+			return curvePlan{}
+		}
+		sl := m.Slip * u.dmax * 1 / f.mu
+		up.a, up.b = sl*(1-m.LeakageSetting), sl*m.LeakageSetting
+		up.comp, up.dead, up.beta = m.Compressibility, m.DeadVolume, f.beta
+		if m.TorqueSetting == 0 {
+			// The torque terms of Wilson.losses at D_t = D_max.
+			dt := u.dmax
+			up.fixed = true
+			up.va, up.cb = m.Viscous*dt*f.mu, float64(m.ConstantPressure)*dt+float64(m.ConstantTorque)
+			if m.Hydrodynamic > 0 {
+				up.hr, up.d53 = m.Hydrodynamic*f.rho, u.d53
+			}
+			up.t1 = m.Friction * dt
+		}
+		pl.units[i] = up
+	}
+	return pl
+}
+
+// leak returns the unit's leakage a + b·|x| per unit |Δp| at speed w, and
+// false where it is not finite.
+func (up *unitPlan) leak(w float64) (a, b float64, ok bool) {
+	a, b = up.a, up.b
+	if up.comp {
+		c := up.dmax * math.Abs(w) / up.beta
+		a += up.dead * c
+		b += c
+	}
+	return a, b, finite(a) && finite(b)
+}
+
+// torque returns what a Curve keeps of the unit's loss torque at speed w.
+func (up *unitPlan) torque(w float64) curveTorque {
+	ct := curveTorque{w: w, sw: sgn(w), dmax: up.dmax, fixed: up.fixed}
+	if up.fixed && !up.lossless {
+		ct.t0 = up.va*math.Abs(w) + up.cb
+		if up.hr > 0 {
+			ct.t0 += up.hr * w * w * up.d53
+		}
+		ct.t1 = up.t1
+	}
+	return ct
 }
 
 // Curve prepares c for the loop at the given shaft speeds and reports
@@ -64,16 +171,13 @@ type curveTorque struct {
 // reused; it does not allocate once c has held a loop with as many motors.
 func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, c *Curve) bool {
 	c.ok = false
-	sq, isSeq := l.sched.(Sequential)
+	pl := &l.plan
 	n := len(l.spec.Motors)
-	if !isSeq || n == 0 || len(motorSpeeds) != n || validMin(sq.MinMotorSetting) != nil {
+	if !pl.ok || len(motorSpeeds) != n {
 		return false
 	}
-	c.l, c.wp, c.smin = l, float64(pumpSpeed), l.motorFloor(sq.MinMotorSetting)
-	if c.smin <= 0 || l.pumpLow > -1 {
-		// Motors that swing to zero or over centre, a pump that does not:
-		// the schedule's special cases at a standing shaft are left to the
-		// general path.
+	wp := float64(pumpSpeed)
+	if !finite(wp) {
 		return false
 	}
 	if cap(c.wms) < n {
@@ -81,45 +185,36 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 		c.tau = make([]curveTorque, n+1)
 	}
 	c.wms, c.tau = c.wms[:n], c.tau[:n+1]
-	copy(c.wms, motorSpeeds)
-	// The leakage per unit |Δp| (every term is proportional to it).
-	lin, ok := l.linear(c.wp, c.wms, 1)
-	if !ok || !l.curveUnits() {
+	c.l, c.wp, c.smin = l, wp, pl.smin
+	// The leakage per unit |Δp| (every term is proportional to it), as
+	// Loop.linear sums it.
+	u0 := &pl.units[0]
+	ap, bp, ok := u0.leak(wp)
+	if !ok {
 		return false
 	}
-	c.pumpQ, c.motorQ = lin.pumpQ, lin.motorQ
-	c.ap, c.bp, c.am, c.bm = lin.ap, lin.bp, lin.am, lin.bm
-	for i := range c.tau {
-		u, w := &l.spec.Pump, c.wp
-		if i > 0 {
-			u, w = &l.spec.Motors[i-1], float64(c.wms[i-1])
+	var mq, am, bm float64
+	for i, ws := range motorSpeeds {
+		w := float64(ws)
+		if !finite(w) {
+			return false
 		}
-		c.tau[i] = u.curveTorque(w, &l.fl)
+		up := &pl.units[i+1]
+		a, b, ok := up.leak(w)
+		if !ok {
+			return false
+		}
+		mq += up.dmax * w
+		am += a
+		bm += b
+		c.wms[i] = ws
+		c.tau[i+1] = up.torque(w)
 	}
+	c.pumpQ, c.motorQ = u0.dmax*wp, mq
+	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
+	c.tau[0] = u0.torque(wp)
 	c.ok = true
 	return true
-}
-
-// curveTorque returns the loss torque of u at speed w as a Curve keeps it.
-func (u *Unit) curveTorque(w float64, f *fluid) curveTorque {
-	ct := curveTorque{w: w, sw: sgn(w)}
-	m := u.wil
-	if m == nil {
-		ct.fixed = true // lossless
-		return ct
-	}
-	if m.TorqueSetting != 0 {
-		return ct
-	}
-	// The torque terms of Wilson.losses at D_t = D_max.
-	dt := u.dmax
-	ct.fixed = true
-	ct.t0 = m.Viscous*dt*f.mu*math.Abs(w) + float64(m.ConstantPressure)*dt
-	if m.Hydrodynamic > 0 {
-		ct.t0 += m.Hydrodynamic * f.rho * w * w * u.d53
-	}
-	ct.t1 = m.Friction * dt
-	return ct
 }
 
 // curveUnits reports whether every unit's torque is one a Curve can
@@ -149,9 +244,8 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 	if !c.ok {
 		return false
 	}
-	l := c.l
 	d := float64(dp)
-	c.limit = setLimit{}
+	c.limit.hit = false
 	xp, sm, ok := c.sequential(d)
 	if !ok {
 		return false
@@ -173,22 +267,25 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 		den := c.motorQ + c.bm*d*sgn(sm)
 		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)) / den
 	}
-	fl := &l.fl
 	for i := range c.tau {
+		tc := &c.tau[i]
 		x, dx, q, dq := xp, dxp, d, 1.0
-		u := &l.spec.Pump
 		if i > 0 {
 			x, dx, q, dq = sm, dsm, -d, -1
-			u = &l.spec.Motors[i-1]
 		}
 		var t, sl float64
-		if tc := &c.tau[i]; tc.fixed {
+		if tc.fixed {
 			// τ = τ0 + τ1·|Δp| at the full torque displacement.
-			t = q*x*u.dmax + tc.sw*(tc.t0+tc.t1*math.Abs(q))
-			sl = dq*x*u.dmax + q*u.dmax*dx + tc.sw*tc.t1*sgn(q)*dq
+			dm := tc.dmax
+			t = q*x*dm + tc.sw*(tc.t0+tc.t1*math.Abs(q))
+			sl = dq*x*dm + q*dm*dx + tc.sw*tc.t1*sgn(q)*dq
 		} else {
+			u := &c.l.spec.Pump
+			if i > 0 {
+				u = &c.l.spec.Motors[i-1]
+			}
 			var ok bool
-			t, sl, ok = u.torqueSlope(x, dx, tc.w, q, dq, fl)
+			t, sl, ok = u.torqueSlope(x, dx, tc.w, q, dq, &c.l.fl)
 			if !ok {
 				return false
 			}

@@ -28,6 +28,7 @@ func TestCurveMatchesAt(t *testing.T) {
 			Slip: rapid.Float64Range(0, 3e-9).Draw(t, "slip"), Viscous: rapid.Float64Range(0, 2e5).Draw(t, "viscous"),
 			Friction: rapid.Float64Range(0, 0.03).Draw(t, "friction"), Hydrodynamic: rapid.Float64Range(0, 5).Draw(t, "churning"),
 			ConstantPressure: units.Bar(rapid.Float64Range(0, 3).Draw(t, "constant bar")),
+			ConstantTorque:   units.NewtonMetres(rapid.SampledFrom([]float64{0, 0, 2.5}).Draw(t, "constant N·m")),
 			Compressibility:  rapid.Bool().Draw(t, "compressibility"), DeadVolume: rapid.Float64Range(0, 1).Draw(t, "dead volume"),
 			LeakageSetting: rapid.Float64Range(0, 1).Draw(t, "leakage share"), TorqueSetting: rapid.SampledFrom([]float64{0, 0, 0.5, 1}).Draw(t, "torque share"),
 		}

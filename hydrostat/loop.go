@@ -40,6 +40,7 @@ type Loop struct {
 	// (−1 over centre, 0 to zero, 0.2 when a motor's swing is unstated);
 	// pumpLow the pump's (−1, or 0 for SwingToZero).
 	floor, pumpLow float64
+	plan           curvePlan // what Curve needs, worked out once (planCurve)
 }
 
 // checkRatings refuses a relief setting above what the units can take —
@@ -130,7 +131,9 @@ func NewLoop(s LoopSpec) (Loop, error) {
 			floor = max(floor, 0)
 		}
 	}
-	return Loop{spec: s, fl: fl, sched: s.Schedule, names: names, floor: floor, pumpLow: s.Pump.spec.Swing.lowest()}, nil
+	l := Loop{spec: s, fl: fl, sched: s.Schedule, names: names, floor: floor, pumpLow: s.Pump.spec.Swing.lowest()}
+	l.plan = l.planCurve()
+	return l, nil
 }
 
 // Spec returns the specification (with a copy of the motors and the

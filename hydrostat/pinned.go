@@ -161,6 +161,7 @@ func (l Loop) WithSchedule(sched Schedule) (Loop, error) {
 	}
 	l.spec.Schedule = sched
 	l.sched = sched
+	l.plan = l.planCurve()
 	return l, nil
 }
 
