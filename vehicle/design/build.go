@@ -486,6 +486,11 @@ func (s *File) Ground(surface string) (vehicle.Tyres, error) {
 // Vehicle builds the tractor with transmission t. Its default ground is
 // the surface of the day's first segment that names one.
 func (s *File) Vehicle(t Transmission) (*vehicle.Vehicle, error) {
+	return s.vehicle(t, nil)
+}
+
+// vehicle is Vehicle; a non-nil l is t's layout, built already.
+func (s *File) vehicle(t Transmission, l *powersplit.Layout) (*vehicle.Vehicle, error) {
 	var drive vehicle.Transmission
 	if fm := s.Tractor.FrontMotor; fm != nil {
 		l, err := s.FrontLayout(t)
@@ -504,11 +509,14 @@ func (s *File) Vehicle(t Transmission) (*vehicle.Vehicle, error) {
 		}
 		drive = d
 	} else {
-		l, err := t.Layout()
-		if err != nil {
-			return nil, fmt.Errorf("%s: transmission %q: %w", s.source, t.Name, err)
+		if l == nil {
+			built, err := t.Layout()
+			if err != nil {
+				return nil, fmt.Errorf("%s: transmission %q: %w", s.source, t.Name, err)
+			}
+			l = &built
 		}
-		d, err := vehicle.FromLayout(l)
+		d, err := vehicle.FromLayout(*l)
 		if err != nil {
 			return nil, err
 		}

@@ -9,6 +9,7 @@ import (
 
 	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/units"
+	"github.com/powersplit-dev/powersplit/vehicle"
 )
 
 // Requirements are what the design must do, the "requirements" object of
@@ -182,9 +183,9 @@ func (f *File) travel(out units.AngularVelocity) units.Speed {
 	return units.Speed(float64(out) / f.Tractor.FinalDrive * float64(f.Tractor.Rear.Tyre.RollingRadius))
 }
 
-// intervals returns each range's travel speeds at engine speed w.
-func (f *File) intervals(l powersplit.Layout, names []string, w units.AngularVelocity) []Interval {
-	s := powersplit.NewSolver(l)
+// intervals returns each range's travel speeds at engine speed w, from s,
+// a solver of l.
+func (f *File) intervals(s *powersplit.Solver, l powersplit.Layout, names []string, w units.AngularVelocity) []Interval {
 	var out []Interval
 	for rg := range l.Ranges() {
 		ivs, err := s.Interval(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{}}})
@@ -202,19 +203,26 @@ func (f *File) intervals(l powersplit.Layout, names []string, w units.AngularVel
 // Check checks transmission t of the file against f's requirements (none
 // when req is nil: the report then lists the speed coverage only).
 func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
-	rep := Report{Design: t.Name}
 	l, err := t.Layout()
 	if err != nil {
-		return rep, err
+		return Report{Design: t.Name}, err
 	}
-	v, err := f.Vehicle(t)
+	v, err := f.vehicle(t, &l)
 	if err != nil {
-		return rep, err
+		return Report{Design: t.Name}, err
 	}
+	return f.check(t, l, v, powersplit.NewSolver(l), req)
+}
+
+// check is Check with t's layout l, vehicle v and a solver s of l, built
+// once for every check (and for Score): the solver's points do not depend
+// on the points it solved before.
+func (f *File) check(t Transmission, l powersplit.Layout, v *vehicle.Vehicle, s *powersplit.Solver, req *Requirements) (Report, error) {
+	rep := Report{Design: t.Name}
 	eng := v.Engine()
 	rated := eng.Rated()
 	names := t.RangeNames()
-	rep.Intervals = f.intervals(l, names, rated)
+	rep.Intervals = f.intervals(s, l, names, rated)
 
 	// Coverage of the forward speeds: merge the intervals.
 	var spans [][2]float64
@@ -261,7 +269,7 @@ func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
 		if we == 0 {
 			we = rated
 		}
-		ivs := f.intervals(l, names, we)
+		ivs := f.intervals(s, l, names, we)
 		best, at := 0.0, ""
 		for _, iv := range ivs {
 			if iv.Feasible && float64(iv.Hi) > best {
@@ -338,7 +346,7 @@ func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
 		add(c)
 	}
 	if req.UnitSpeedMargin > 0 {
-		add(f.unitSpeedCheck(l, rep.Intervals, rated, req))
+		add(f.unitSpeedCheck(s, l, rep.Intervals, rated, req))
 	}
 	if req.PressureMargin > 0 {
 		limit := math.Inf(1)
@@ -364,10 +372,10 @@ func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
 		add(c)
 	}
 	if req.ShiftTolerance > 0 && l.Ranges() > 1 {
-		add(f.shiftCheck(l, names, rep.Intervals, rated, req.ShiftTolerance))
+		add(f.shiftCheck(s, l, names, rep.Intervals, rated, req.ShiftTolerance))
 	}
 	if req.CornerPower > 0 {
-		corner := f.cornerPower(t, l, rated)
+		corner := f.cornerPower(s, t, l, rated)
 		ratio := float64(corner) / float64(eng.RatedPower())
 		add(Check{Name: fmt.Sprintf("hydrostat corner power at most %.0f %% of engine power", 100*req.CornerPower),
 			Met: ratio <= req.CornerPower, Margin: 1 - ratio/req.CornerPower,
@@ -404,14 +412,13 @@ func (f *File) firstSurface(kind string) string {
 
 // cornerPower is the relief pressure times the pump's full flow at engine
 // speed w: the greatest power the loop could carry.
-func (f *File) cornerPower(t Transmission, l powersplit.Layout, w units.AngularVelocity) units.Power {
-	pump := f.pumpSpeed(l, w)
+func (f *File) cornerPower(s *powersplit.Solver, t Transmission, l powersplit.Layout, w units.AngularVelocity) units.Power {
+	pump := f.pumpSpeed(s, l, w)
 	return units.Power(float64(t.Relief) * float64(t.Pump.Displacement) * float64(pump))
 }
 
 // pumpSpeed is the pump's speed at engine speed w, from a solved point.
-func (f *File) pumpSpeed(l powersplit.Layout, w units.AngularVelocity) units.AngularVelocity {
-	s := powersplit.NewSolver(l)
+func (f *File) pumpSpeed(s *powersplit.Solver, l powersplit.Layout, w units.AngularVelocity) units.AngularVelocity {
 	var st powersplit.State
 	for rg := range l.Ranges() {
 		ivs, err := s.Interval(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{}}})
@@ -468,8 +475,7 @@ func (f *File) unitState(s *powersplit.Solver, st *powersplit.State, rg int, w u
 // range that keeps the units furthest below their greatest speeds, and
 // reports the speed where even that range comes closest: the solver's own
 // margins at the binding point.
-func (f *File) unitSpeedCheck(l powersplit.Layout, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
-	s := powersplit.NewSolver(l)
+func (f *File) unitSpeedCheck(s *powersplit.Solver, l powersplit.Layout, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
 	var st powersplit.State
 	top := req.TopSpeed
 	if top == 0 {
@@ -518,8 +524,7 @@ func (f *File) unitSpeedCheck(l powersplit.Layout, ivs []Interval, w units.Angul
 // shiftCheck compares the variator's speed ratio (motor over pump) in the
 // two ranges of each range change, at the common travel speed where they
 // come closest: a synchronous change needs no jump of the variator.
-func (f *File) shiftCheck(l powersplit.Layout, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
-	s := powersplit.NewSolver(l)
+func (f *File) shiftCheck(s *powersplit.Solver, l powersplit.Layout, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
 	var st powersplit.State
 	worst, at := 0.0, ""
 	for i := 0; i+1 < l.Ranges(); i++ {

@@ -115,8 +115,18 @@ func (f *File) SplitProblem(s Space, req *Requirements) (Problem, error) {
 // spectrum under the least-fuel strategy and returns SplitObjectives.
 func (f *File) Score(req *Requirements, spec []SpectrumPoint) ([]float64, string) {
 	t := f.Transmission
+	// The layout, vehicle and solver serve the check and the spectrum.
+	l, err := t.Layout()
+	if err != nil {
+		return nil, firstLine(err)
+	}
+	v, err := f.vehicle(t, &l)
+	if err != nil {
+		return nil, firstLine(err)
+	}
+	solver := powersplit.NewSolver(l)
 	if req != nil {
-		rep, err := f.Check(t, req)
+		rep, err := f.check(t, l, v, solver, req)
 		if err != nil {
 			return nil, firstLine(err)
 		}
@@ -124,15 +134,6 @@ func (f *File) Score(req *Requirements, spec []SpectrumPoint) ([]float64, string
 			return nil, strings.Join(rep.Failed(), "; ")
 		}
 	}
-	l, err := t.Layout()
-	if err != nil {
-		return nil, firstLine(err)
-	}
-	v, err := f.Vehicle(t)
-	if err != nil {
-		return nil, firstLine(err)
-	}
-	solver := powersplit.NewSolver(l)
 	var st powersplit.State
 	var fuel, peak float64
 	for _, p := range spec {
