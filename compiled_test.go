@@ -155,9 +155,9 @@ func TestMapCompiledMatchesGeneral(t *testing.T) {
 		t.Fatal(err)
 	}
 	bad, ok := 0, 0
-	for i := range mc.Cells {
-		for j := range mc.Cells[i] {
-			a, b := mc.Cells[i][j], mg.Cells[i][j]
+	for i := range mc.Torques {
+		for j := range mc.Speeds {
+			a, b := mc.At(i, j), mg.At(i, j)
 			if a.OK != b.OK || a.Reason() != b.Reason() {
 				t.Fatalf("cell %d,%d: compiled %v %q, general %v %q", i, j, a.OK, a.Reason(), b.OK, b.Reason())
 			}

@@ -196,7 +196,7 @@ func ExampleLayout_Sweep() {
 		log.Fatal(err)
 	}
 	// sw.WriteCSV(w) writes the same as CSV, with the reasons.
-	for _, c := range sw.Cells {
+	for _, c := range sw.Cells() {
 		if !c.OK {
 			fmt.Printf("%4.0f rpm: infeasible\n", c.OutputSpeed.RPM())
 			continue

@@ -208,7 +208,7 @@ func FuzzSweep(f *testing.F) {
 		sw, err := l.Sweep(SweepSpec{Range: rng, Input: units.RPM(in), From: units.RPM(from), To: units.RPM(to), Steps: n,
 			Torque: units.Torque(tq), Power: units.Power(power), Workers: 2})
 		if err == nil {
-			for _, c := range sw.Cells {
+			for _, c := range sw.Cells() {
 				if c.OK && (bad(c.Efficiency) || bad(float64(c.InputPower)) || bad(c.HydraulicShare)) {
 					t.Fatalf("non-finite feasible cell %+v", c)
 				}
@@ -219,8 +219,8 @@ func FuzzSweep(f *testing.F) {
 		}
 		m, err := l.Map(MapSpec{Range: rng, Input: units.RPM(in), SpeedFrom: units.RPM(from), SpeedTo: units.RPM(to), SpeedSteps: n,
 			TorqueFrom: 0, TorqueTo: units.Torque(tq), TorqueSteps: n, Workers: 2})
-		if err == nil && len(m.Cells) != n {
-			t.Fatalf("%d rows for %d torques", len(m.Cells), n)
+		if err == nil && (len(m.Torques) != n || len(m.Feasible()) != n) {
+			t.Fatalf("%d torques, %d mask rows for %d steps", len(m.Torques), len(m.Feasible()), n)
 		}
 	})
 }

@@ -3,6 +3,7 @@ package powersplit
 import (
 	"math"
 	"runtime"
+	"slices"
 	"strconv"
 	"sync"
 	"testing"
@@ -195,33 +196,44 @@ func TestMapWorkersIdentical(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			if len(m1.Cells) != rows || len(m.Cells) != rows {
-				t.Fatalf("%d rows: maps have %d and %d rows", rows, len(m1.Cells), len(m.Cells))
+			if len(m1.Feasible()) != rows || len(m.Feasible()) != rows {
+				t.Fatalf("%d rows: maps have %d and %d rows", rows, len(m1.Feasible()), len(m.Feasible()))
 			}
 			compareMaps(t, m1, m, n*rows)
 		}
 	}
 }
 
-// compareMaps fails t unless m1 and m4 agree bit for bit.
+// compareMaps fails t unless m1 and m4 agree bit for bit: every number a
+// cell reports, its reason and its binding margin, and the storage behind
+// them (the same error and margin-name indices, the same tables).
 func compareMaps(t *testing.T, m1, m4 Map, cells int) {
 	t.Helper()
 	same := func(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
+	if !slices.Equal(m1.res.binds, m4.res.binds) || len(m1.res.errs) != len(m4.res.errs) || len(m1.res.cells) != len(m4.res.cells) {
+		t.Fatalf("tables differ: margin names %v and %v, %d and %d errors, %d and %d cells", m1.res.binds, m4.res.binds,
+			len(m1.res.errs), len(m4.res.errs), len(m1.res.cells), len(m4.res.cells))
+	}
 	ok := 0
-	for i := range m1.Cells {
-		for j := range m1.Cells[i] {
-			a, c := m1.Cells[i][j], m4.Cells[i][j]
+	for i := range m1.Torques {
+		for j := range m1.Speeds {
+			a, c := m1.At(i, j), m4.At(i, j)
 			if a.OK {
 				ok++
 			}
-			if a.OK != c.OK || a.Reason() != c.Reason() || a.Range != c.Range ||
+			ra, rc := &m1.res.cells[i*len(m1.Speeds)+j], &m4.res.cells[i*len(m1.Speeds)+j]
+			ba, bc := a.Binding, c.Binding
+			if a.OK != c.OK || a.Reason() != c.Reason() || a.Range != c.Range || ra.err != rc.err || ra.bind != rc.bind ||
 				!same(float64(a.OutputSpeed), float64(c.OutputSpeed)) || !same(float64(a.OutputTorque), float64(c.OutputTorque)) ||
 				!same(float64(a.InputTorque), float64(c.InputTorque)) || !same(float64(a.InputPower), float64(c.InputPower)) ||
 				!same(float64(a.OutputPower), float64(c.OutputPower)) || !same(float64(a.Loss), float64(c.Loss)) ||
 				!same(a.Efficiency, c.Efficiency) || !same(a.HydraulicShare, c.HydraulicShare) ||
-				!same(float64(a.Pressure), float64(c.Pressure)) || !same(a.PumpSetting, c.PumpSetting) ||
-				!same(a.MotorSetting, c.MotorSetting) {
-				t.Fatalf("cell %d,%d differs: 1 worker %+v, 4 workers %+v", i, j, a, c)
+				!same(float64(a.Pressure), float64(c.Pressure)) || !same(float64(a.HighPressure), float64(c.HighPressure)) ||
+				!same(float64(a.PumpSpeed), float64(c.PumpSpeed)) || !same(float64(a.MotorSpeed), float64(c.MotorSpeed)) ||
+				!same(a.PumpSetting, c.PumpSetting) || !same(a.MotorSetting, c.MotorSetting) ||
+				ba.Element != bc.Element || ba.Quantity != bc.Quantity || ba.Bound != bc.Bound || ba.Unchecked != bc.Unchecked ||
+				ba.Value.Kind != bc.Value.Kind || !same(ba.Value.SI, bc.Value.SI) || !same(ba.Limit.SI, bc.Limit.SI) {
+				t.Fatalf("cell %d,%d differs: 1 worker %+v, more workers %+v", i, j, a, c)
 			}
 		}
 	}

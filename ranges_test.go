@@ -5,7 +5,7 @@ import (
 	"encoding/csv"
 	"errors"
 	"math"
-	"sync/atomic"
+	"slices"
 	"testing"
 
 	"github.com/google/go-cmp/cmp"
@@ -182,35 +182,46 @@ func TestSweepAndMap(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	var calls atomic.Int64
+	// Progress is reported once per row of 17 cells (the calls are
+	// serialised), done rising to the total.
+	var dones []int
 	spec := MapSpec{Range: Auto, Input: units.RPM(2000), SpeedFrom: units.RPM(-200), SpeedTo: units.RPM(1400), SpeedSteps: 17,
 		TorqueFrom: units.NewtonMetres(100), TorqueTo: units.NewtonMetres(4000), TorqueSteps: 9, Workers: 1,
-		Progress: func(done, total int) { calls.Add(1) }}
+		Progress: func(done, total int) {
+			if total != 17*9 {
+				t.Errorf("progress total %d, want %d", total, 17*9)
+			}
+			dones = append(dones, done)
+		}}
 	m1, err := l.Map(spec)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if calls.Load() != 17*9 {
-		t.Errorf("progress called %d times", calls.Load())
+	if len(dones) != 9 || dones[8] != 17*9 || !slices.IsSorted(dones) {
+		t.Errorf("progress reported %v, want 9 calls rising to %d", dones, 17*9)
 	}
 	spec.Workers, spec.Progress = 4, nil
 	m4, err := l.Map(spec)
 	if err != nil {
 		t.Fatal(err)
 	}
-	if d := cmp.Diff(m1, m4, cmpopts.IgnoreFields(Cell{}, "Err")); d != "" {
+	if d := cmp.Diff(m1, m4, cmp.AllowUnexported(Map{}, results{}, cell{}, marginName{}), cmpopts.IgnoreFields(results{}, "errs")); d != "" {
 		t.Errorf("map differs with 4 workers:\n%s", d)
 	}
 	ok, bad := 0, 0
-	for _, row := range m1.Cells {
-		for _, c := range row {
+	for i := range m1.Torques {
+		for j := range m1.Speeds {
+			c := m1.At(i, j)
 			if c.OK {
 				ok++
-			} else {
-				bad++
-				if c.Reason() == "" || c.Err == nil {
-					t.Errorf("infeasible cell without reason: %+v", c)
-				}
+				continue
+			}
+			bad++
+			if c.Reason() == "" || c.Err == nil {
+				t.Errorf("infeasible cell without reason: %+v", c)
+			}
+			if r4 := m4.At(i, j).Reason(); r4 != c.Reason() {
+				t.Errorf("cell %d,%d: reason %q with 1 worker, %q with 4", i, j, c.Reason(), r4)
 			}
 		}
 	}
@@ -232,7 +243,7 @@ func TestSweepAndMap(t *testing.T) {
 		t.Fatal(err)
 	}
 	n := 0
-	for _, c := range sw.Cells {
+	for _, c := range sw.Cells() {
 		if c.OK {
 			n++
 			if !testutil.Close(c.InputPower.Kilowatts(), 80, 1e-9, 0) {

@@ -40,7 +40,7 @@ func TestCellCarriesUnitState(t *testing.T) {
 	s := NewSolver(l)
 	var st State
 	n := 0
-	for i, c := range sw.Cells {
+	for i, c := range sw.Cells() {
 		if !c.OK {
 			continue
 		}
@@ -100,7 +100,7 @@ func TestPowerSweepNamesTheLimit(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, c := range sw.Cells {
+	for _, c := range sw.Cells() {
 		if c.OK {
 			t.Fatalf("5 MW reached at %v", c.OutputSpeed)
 		}
@@ -125,7 +125,7 @@ func TestAutoFailureListsEveryRange(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	for _, c := range sw.Cells {
+	for _, c := range sw.Cells() {
 		var re *RangesError
 		if c.OK || !errors.As(c.Err, &re) {
 			t.Fatalf("at %v: %v, want a *RangesError", c.OutputSpeed, c.Err)

@@ -4,8 +4,10 @@ import (
 	"encoding/csv"
 	"errors"
 	"io"
+	"iter"
 	"math"
 	"runtime"
+	"slices"
 	"strconv"
 	"sync"
 	"sync/atomic"
@@ -13,7 +15,8 @@ import (
 	"github.com/powersplit-dev/powersplit/units"
 )
 
-// Cell is the result at one grid point of a sweep or map.
+// Cell is the result at one grid point of a sweep or map, as Sweep.At and
+// Map.At build it from the result's compact storage.
 type Cell struct {
 	OK  bool  // the point solved and is feasible
 	Err error // why not, when !OK (a *RangesError when the spec's Range is Auto and every range failed)
@@ -59,20 +62,43 @@ type SweepSpec struct {
 	// Torque is the first output's torque; other outputs carry none. When
 	// Power is non-zero instead, the output torque at each speed is found so
 	// that the engine delivers Power.
-	Torque   units.Torque
-	Power    units.Power
-	PTO      []units.Torque
-	Workers  int                   // parallel workers; 0 means GOMAXPROCS
-	Progress func(done, total int) // called after each point, serialised; may be nil
+	Torque  units.Torque
+	Power   units.Power
+	PTO     []units.Torque
+	Workers int // parallel workers; 0 means GOMAXPROCS
+	// Progress, when not nil, is called as the points complete, after each
+	// chunk of runChunk points (and after the last), with the number done
+	// so far and the total; the calls are serialised and done increases.
+	Progress func(done, total int)
 }
 
-// Sweep is the result of Layout.Sweep: one Cell per output speed.
+// Sweep is the result of Layout.Sweep: one cell per output speed, read
+// with At or Cells.
 type Sweep struct {
 	Design     string                // the spec's Design
 	Input      units.AngularVelocity // the spec's input speed
 	RangeNames []string              // the layout's range names, by Cell.Range
 	Speeds     []units.AngularVelocity
-	Cells      []Cell
+	res        results
+}
+
+// At returns the cell at Speeds[i]. It panics if i is out of range.
+func (s Sweep) At(i int) Cell {
+	if i < 0 || i >= len(s.res.cells) {
+		panic("powersplit: Sweep.At index out of range")
+	}
+	return s.res.at(i)
+}
+
+// Cells returns the sweep's cells in order of speed, with their index.
+func (s Sweep) Cells() iter.Seq2[int, Cell] {
+	return func(yield func(int, Cell) bool) {
+		for i := range s.res.cells {
+			if !yield(i, s.res.at(i)) {
+				return
+			}
+		}
+	}
 }
 
 // MapSpec describes a 2-D map over output speed × output torque.
@@ -84,109 +110,280 @@ type MapSpec struct {
 	SpeedFrom, SpeedTo   units.AngularVelocity
 	SpeedSteps           int // ≥ 2
 	TorqueFrom, TorqueTo units.Torque
-	TorqueSteps          int // ≥ 2
+	TorqueSteps          int // ≥ 2; SpeedSteps × TorqueSteps ≤ 2^30
 	PTO                  []units.Torque
-	Workers              int
-	Progress             func(done, total int)
+	Workers              int // parallel workers; 0 means GOMAXPROCS
+	// Progress, when not nil, is called as the cells complete, after each
+	// row (or chunk of runChunk cells when there are few rows) and after
+	// the last, with the number done so far and the total; the calls are
+	// serialised and done increases.
+	Progress func(done, total int)
 }
 
-// Map is the result of Layout.Map: Cells[i][j] at Torques[i], Speeds[j].
+// Map is the result of Layout.Map: the cell at Torques[i], Speeds[j] is
+// At(i, j).
 type Map struct {
 	Design     string                // the spec's Design
 	Input      units.AngularVelocity // the spec's input speed
 	RangeNames []string              // the layout's range names, by Cell.Range
 	Speeds     []units.AngularVelocity
 	Torques    []units.Torque
-	Cells      [][]Cell
+	res        results // torque-major
 }
 
-// Feasible returns the feasibility mask: mask[i][j] is Cells[i][j].OK.
+// At returns the cell at Torques[i], Speeds[j]. It panics if i or j is out
+// of range.
+func (m Map) At(i, j int) Cell {
+	if i < 0 || i >= len(m.Torques) || j < 0 || j >= len(m.Speeds) || len(m.res.cells) != len(m.Torques)*len(m.Speeds) {
+		panic("powersplit: Map.At index out of range")
+	}
+	return m.res.at(i*len(m.Speeds) + j)
+}
+
+// Feasible returns the feasibility mask: mask[i][j] is At(i, j).OK.
 func (m Map) Feasible() [][]bool {
-	mask := make([][]bool, len(m.Cells))
-	for i, row := range m.Cells {
-		mask[i] = make([]bool, len(row))
-		for j, c := range row {
-			mask[i][j] = c.OK
-		}
+	nv := len(m.Speeds)
+	if len(m.res.cells) != len(m.Torques)*nv {
+		return nil
+	}
+	flat := make([]bool, len(m.res.cells))
+	for k := range m.res.cells {
+		flat[k] = m.res.cells[k].err == 0
+	}
+	mask := make([][]bool, len(m.Torques))
+	for i := range mask {
+		mask[i] = flat[i*nv : (i+1)*nv : (i+1)*nv]
 	}
 	return mask
 }
 
-func axis(from, to float64, n int) []float64 {
-	out := make([]float64, n)
-	for i := range out {
-		out[i] = from + (to-from)*float64(i)/float64(n-1)
+// results holds the cells of a sweep or map compactly: the numbers of every
+// cell in one slice without pointers, which the garbage collector never
+// scans, and the few things with pointers in side tables, the errors of the
+// failed cells and the names of the binding margins.
+type results struct {
+	cells []cell
+	errs  []error      // errs[c.err-1] is why cell c failed
+	binds []marginName // binds[c.bind-1] names cell c's binding margin
+}
+
+// cell is one Cell as results stores it. A cell is OK when err is 0.
+type cell struct {
+	outSpeed, outTorque, inTorque, inPower, outPower, loss float64
+	eff, share, dp, high, pumpW, motorW, xp, xm            float64
+	bindValue, bindLimit                                   float64
+	rng                                                    int32
+	err, bind                                              uint32
+}
+
+// marginName is what a Margin holds besides its two numbers.
+type marginName struct {
+	element, quantity, bound string
+	kind                     units.Kind
+	unchecked                bool
+}
+
+// at builds the Cell of cells[k].
+func (r *results) at(k int) Cell {
+	c := &r.cells[k]
+	out := Cell{OK: c.err == 0, Range: int(c.rng),
+		OutputSpeed: units.AngularVelocity(c.outSpeed), OutputTorque: units.Torque(c.outTorque),
+		InputTorque: units.Torque(c.inTorque), InputPower: units.Power(c.inPower), OutputPower: units.Power(c.outPower),
+		Loss: units.Power(c.loss), Efficiency: c.eff, HydraulicShare: c.share,
+		Pressure: units.Pressure(c.dp), HighPressure: units.Pressure(c.high),
+		PumpSpeed: units.AngularVelocity(c.pumpW), MotorSpeed: units.AngularVelocity(c.motorW),
+		PumpSetting: c.xp, MotorSetting: c.xm}
+	if c.err != 0 {
+		out.Err = r.errs[c.err-1]
 	}
-	out[n-1] = to
+	if c.bind != 0 {
+		n := &r.binds[c.bind-1]
+		out.Binding = Margin{Element: n.element, Quantity: n.quantity, Bound: n.bound, Unchecked: n.unchecked,
+			Value: measure(c.bindValue, n.kind), Limit: measure(c.bindLimit, n.kind)}
+	}
 	return out
 }
 
-func checkAxis(field string, from, to units.Measure, n int) error {
-	if bad(from.SI) {
-		return &InputError{Field: field, Value: from, Reason: "not finite"}
+// marginNames lists the names of every margin the solver can find binding
+// on layout l (those of Solver.margins, in its order): the per-map table
+// the cells index, fixed before the run so that the indices do not depend
+// on the order the workers meet the margins in.
+func marginNames(l *layout) []marginName {
+	const w, pa = units.AngularVelocityKind, units.PressureKind
+	var out []marginName
+	for i := range l.ranges {
+		if r := &l.ranges[i]; r.maxOut > 0 {
+			out = append(out, marginName{r.name, "output speed", boundRangeSpeed, w, false})
+		}
 	}
-	if bad(to.SI) {
-		return &InputError{Field: field, Value: to, Reason: "not finite"}
+	for _, e := range l.loops {
+		el := &l.elems[e]
+		out = append(out, marginName{el.name, "high-line pressure", boundRelief, pa, el.lspec.Relief <= 0})
+		for k := range el.shafts {
+			us := &el.uspec[k]
+			out = append(out,
+				marginName{el.name, el.unames[k][0], boundPeak, pa, us.PeakPressure <= 0},
+				marginName{el.name, el.unames[k][1], boundSpeed, w, us.MaxSpeed <= 0},
+				marginName{el.name, el.unames[k][2], boundFull, units.Number, false})
+		}
 	}
-	if n < 2 || n > 1<<20 {
-		return &InputError{Field: field + " steps", Value: units.Plain(float64(n)), Reason: "need 2 to 2^20 steps"}
-	}
-	return nil
+	return out
 }
 
-// job solves one cell.
-type job func(s *Solver, st *State, p *Point, i int) Cell
+// A worker solves cells with its own solver, state and point.
+type worker struct {
+	s     *Solver
+	st    State
+	q     Point
+	binds []marginName // the run's table, shared and read-only
+	last  uint32       // the index (+1) of the last binding margin found
+	// extra lists binding margins missing from binds (none unless
+	// marginNames misses one of Solver.margins), shared under mu.
+	extra *extraNames
+	errs  []cellErr // this worker's failed cells, in order of index
+}
+
+type cellErr struct {
+	k   int
+	err error
+}
+
+type extraNames struct {
+	mu    sync.Mutex
+	names []marginName
+}
+
+// bindIndex returns the index (+1) of m's names in the run's table, 0 for
+// the zero Margin.
+func (w *worker) bindIndex(m *Margin) uint32 {
+	if m.Element == "" && m.Quantity == "" && m.Bound == "" {
+		return 0
+	}
+	n := marginName{m.Element, m.Quantity, m.Bound, m.Value.Kind, m.Unchecked}
+	if w.last != 0 && w.last <= uint32(len(w.binds)) && w.binds[w.last-1] == n {
+		return w.last
+	}
+	for i := range w.binds {
+		if w.binds[i] == n {
+			w.last = uint32(i + 1)
+			return w.last
+		}
+	}
+	x := w.extra
+	x.mu.Lock()
+	defer x.mu.Unlock()
+	k := slices.Index(x.names, n)
+	if k < 0 {
+		k = len(x.names)
+		x.names = append(x.names, n)
+	}
+	return uint32(len(w.binds) + k + 1)
+}
+
+// job solves cell k into c and returns its error (nil when it is OK).
+type job func(w *worker, k int, c *cell) error
 
 // runChunk is the number of consecutive cells a worker takes at a time in
 // a sweep: large enough that the workers rarely meet on the shared counter
 // or on neighbouring cells, small enough to balance the load.
 const runChunk = 16
 
-// run solves n cells in rows of cols (the last row may be shorter) on
-// workers goroutines, each with its own Solver. A worker takes a whole row
-// at a time and allocates it itself, so that the zeroing of a large result
-// (5 MB for a 200 × 200 map) is shared by the workers instead of preceding
-// them. Results depend only on the cell, never on the order or the worker,
-// so they are deterministic (and identical for any number of workers).
-func (l Layout) run(n, cols, workers int, progress func(int, int), p Point, f job) [][]Cell {
-	nrows := (n + cols - 1) / cols
-	rows := make([][]Cell, nrows)
+// maxCells bounds the cells of a map (the errors' indices are 32-bit).
+const maxCells = 1 << 30
+
+// run solves n cells in chunks of chunk consecutive cells on workers
+// goroutines, each with its own Solver, into one slice of compact cells.
+// Results depend only on the cell, never on the order or the worker, so
+// they are deterministic (and identical for any number of workers): the
+// table of margin names is fixed before the run and the errors are listed
+// in order of the cells.
+func (l Layout) run(n, chunk, workers int, progress func(int, int), p Point, f job) results {
+	nchunks := (n + chunk - 1) / chunk
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	workers = min(workers, nrows)
+	workers = max(1, min(workers, nchunks))
+	res := results{cells: make([]cell, n), binds: marginNames(l.l)}
+	extra := &extraNames{}
+	// spans[r] is where chunk r's errors are in its worker's list.
+	type span struct{ w, lo, hi int32 }
+	spans := make([]span, nchunks)
+	ws := make([]worker, workers)
 	var next atomic.Int64
 	var mu sync.Mutex
 	done := 0
 	var wg sync.WaitGroup
-	for range workers {
+	for wi := range ws {
+		w := &ws[wi]
 		wg.Go(func() {
-			s := NewSolver(l)
-			st := State{Brief: !s.general} // a cell needs the summary only
-			q := p
-			q.Outputs = append([]OutputDemand(nil), p.Outputs...)
+			w.s = NewSolver(l)
+			w.st = State{Brief: !w.s.general} // a cell needs the summary only
+			w.q = p
+			w.q.Outputs = append([]OutputDemand(nil), p.Outputs...)
+			w.binds, w.extra = res.binds, extra
 			for {
 				r := int(next.Add(1)) - 1
-				if r >= nrows {
+				if r >= nchunks {
 					return
 				}
-				i0, i1 := r*cols, min((r+1)*cols, n)
-				row := make([]Cell, i1-i0)
-				for i := i0; i < i1; i++ {
-					row[i-i0] = f(s, &st, &q, i)
-					if progress != nil {
-						mu.Lock()
-						done++
-						progress(done, n)
-						mu.Unlock()
+				k0, k1 := r*chunk, min((r+1)*chunk, n)
+				lo := len(w.errs)
+				cs := res.cells[k0:k1]
+				for k := range cs {
+					if err := f(w, k0+k, &cs[k]); err != nil {
+						cs[k].err = 1 // numbered below
+						w.errs = append(w.errs, cellErr{k0 + k, err})
 					}
 				}
-				rows[r] = row
+				spans[r] = span{int32(wi), int32(lo), int32(len(w.errs))}
+				if progress != nil {
+					mu.Lock()
+					done += k1 - k0
+					progress(done, n)
+					mu.Unlock()
+				}
 			}
 		})
 	}
 	wg.Wait()
-	return rows
+	nerr := 0
+	for i := range ws {
+		nerr += len(ws[i].errs)
+	}
+	if nerr > 0 {
+		res.errs = make([]error, 0, nerr)
+		for _, sp := range spans {
+			for _, e := range ws[sp.w].errs[sp.lo:sp.hi] {
+				res.errs = append(res.errs, e.err)
+				res.cells[e.k].err = uint32(len(res.errs))
+			}
+		}
+	}
+	if len(extra.names) > 0 {
+		res.binds = canonicalBinds(res, len(res.binds), extra.names)
+	}
+	return res
+}
+
+// canonicalBinds appends the margin names the workers added during the run
+// to the table in order of the first cell binding on each (the workers'
+// order depends on their timing) and renumbers the cells to match.
+func canonicalBinds(res results, fixed int, extra []marginName) []marginName {
+	renum := make([]uint32, len(extra))
+	binds := res.binds
+	for k := range res.cells {
+		c := &res.cells[k]
+		if int(c.bind) <= fixed {
+			continue
+		}
+		x := int(c.bind) - fixed - 1
+		if renum[x] == 0 {
+			binds = append(binds, extra[x])
+			renum[x] = uint32(len(binds))
+		}
+		c.bind = renum[x]
+	}
+	return binds
 }
 
 // Reason is why the cell failed (its error's text), or "" when it solved.
@@ -198,8 +395,11 @@ func (c Cell) Reason() string {
 	return c.Err.Error()
 }
 
-// solveCell solves q in range rg (or Auto) and summarises it.
-func solveCell(s *Solver, st *State, q *Point, rg int, pol Policy) Cell {
+// solveCell solves w.q in range rg (or Auto) into c and returns the error.
+// A failed cell keeps the range the solver reports and the demanded speed
+// and torque; its other numbers are zero.
+func solveCell(w *worker, rg int, pol Policy, c *cell) error {
+	s, st, q := w.s, &w.st, &w.q
 	var err error
 	if rg == Auto {
 		err = s.Best(*q, pol, st)
@@ -207,24 +407,25 @@ func solveCell(s *Solver, st *State, q *Point, rg int, pol Policy) Cell {
 		q.Range = rg
 		err = s.Solve(*q, st)
 	}
-	c := Cell{OK: err == nil, Err: err, Range: st.Range, OutputTorque: q.Outputs[0].Torque,
-		OutputSpeed: q.Outputs[0].Speed}
 	if err != nil {
-		return c
+		*c = cell{rng: int32(st.Range), outSpeed: float64(q.Outputs[0].Speed), outTorque: float64(q.Outputs[0].Torque)}
+		return err
 	}
-	c.InputTorque, c.InputPower, c.OutputPower = st.InputTorque, st.InputPower, st.OutputPower
-	c.OutputTorque = st.Outputs[0].Torque
-	c.Loss, c.Efficiency, c.HydraulicShare = st.Loss, st.Efficiency, st.HydraulicShare
+	*c = cell{rng: int32(st.Range), outSpeed: float64(q.Outputs[0].Speed), outTorque: float64(st.Outputs[0].Torque),
+		inTorque: float64(st.InputTorque), inPower: float64(st.InputPower), outPower: float64(st.OutputPower),
+		loss: float64(st.Loss), eff: st.Efficiency, share: st.HydraulicShare}
 	if len(st.Loops) > 0 {
 		lp := &st.Loops[0]
-		c.Pressure, c.HighPressure = lp.Pressure, lp.High
-		c.PumpSetting, c.PumpSpeed = lp.Pump.Setting, lp.Pump.Speed
+		c.dp, c.high = float64(lp.Pressure), float64(lp.High)
+		c.xp, c.pumpW = lp.Pump.Setting, float64(lp.Pump.Speed)
 		if len(lp.Motors) > 0 {
-			c.MotorSetting, c.MotorSpeed = lp.Motors[0].Setting, lp.Motors[0].Speed
+			c.xm, c.motorW = lp.Motors[0].Setting, float64(lp.Motors[0].Speed)
 		}
 	}
-	c.Binding = st.Binding
-	return c
+	if c.bind = w.bindIndex(&st.Binding); c.bind != 0 {
+		c.bindValue, c.bindLimit = st.Binding.Value.SI, st.Binding.Limit.SI
+	}
+	return nil
 }
 
 func (l Layout) point(in units.AngularVelocity, pto []units.Torque) Point {
@@ -249,22 +450,19 @@ func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
 	}
 	vs := axis(float64(spec.From), float64(spec.To), spec.Steps)
 	p := l.point(spec.Input, spec.PTO)
-	rows := l.run(len(vs), runChunk, spec.Workers, spec.Progress, p, func(s *Solver, st *State, q *Point, i int) Cell {
-		for k := range q.Outputs {
-			q.Outputs[k] = OutputDemand{Speed: units.AngularVelocity(vs[i])}
+	res := l.run(len(vs), runChunk, spec.Workers, spec.Progress, p, func(w *worker, k int, c *cell) error {
+		q := &w.q
+		for o := range q.Outputs {
+			q.Outputs[o] = OutputDemand{Speed: units.AngularVelocity(vs[k])}
 		}
 		if spec.Power == 0 {
 			q.Outputs[0].Torque = spec.Torque
-			return solveCell(s, st, q, spec.Range, spec.Policy)
+			return solveCell(w, spec.Range, spec.Policy, c)
 		}
-		return powerCell(s, st, q, spec.Range, spec.Policy, float64(spec.Power))
+		return powerCell(w, spec.Range, spec.Policy, float64(spec.Power), c)
 	})
-	cells := make([]Cell, 0, len(vs))
-	for _, r := range rows {
-		cells = append(cells, r...)
-	}
 	out := Sweep{Design: spec.Design, Input: spec.Input, RangeNames: l.rangeNames(),
-		Speeds: make([]units.AngularVelocity, len(vs)), Cells: cells}
+		Speeds: make([]units.AngularVelocity, len(vs)), res: res}
 	for i, v := range vs {
 		out.Speeds[i] = units.AngularVelocity(v)
 	}
@@ -273,38 +471,40 @@ func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
 
 // powerCell finds the output torque at which the engine delivers power P
 // (secant iteration on the output torque; input power is close to affine in
-// it).
-func powerCell(s *Solver, st *State, q *Point, rg int, pol Policy, P float64) Cell {
-	pin := func(t float64) (float64, Cell) {
+// it) and writes that point into c.
+func powerCell(w *worker, rg int, pol Policy, P float64, c *cell) error {
+	q := &w.q
+	pin := func(t float64) (float64, error) {
 		q.Outputs[0].Torque = units.Torque(t)
-		c := solveCell(s, st, q, rg, pol)
-		return float64(c.InputPower), c
+		err := solveCell(w, rg, pol, c)
+		return c.inPower, err
 	}
-	w := math.Abs(float64(q.Outputs[0].Speed))
+	speed := q.Outputs[0].Speed
+	wo := math.Abs(float64(speed))
 	t0 := 0.0
-	t1 := 0.8 * P / math.Max(w, 0.05*math.Abs(float64(q.Input)))
-	if float64(q.Outputs[0].Speed) < 0 {
+	t1 := 0.8 * P / math.Max(wo, 0.05*math.Abs(float64(q.Input)))
+	if float64(speed) < 0 {
 		t1 = -t1
 	}
-	f0, c0 := pin(t0)
-	if !c0.OK {
-		return c0
+	f0, err := pin(t0)
+	if err != nil {
+		return err
 	}
 	// lim is the last limit met on the way: when the power is not reached,
 	// it is what stopped the search.
 	var lim error
 	for k := 0; k < 40; k++ {
-		f1, c1 := pin(t1)
-		if !c1.OK {
-			if errors.Is(c1.Err, ErrInfeasible) {
-				lim = c1.Err
+		f1, err := pin(t1)
+		if err != nil {
+			if errors.Is(err, ErrInfeasible) {
+				lim = err
 			}
 			// Step back towards the last good torque.
 			t1 = (t0 + t1) / 2
 			continue
 		}
 		if math.Abs(f1-P) <= 1e-9*math.Abs(P) {
-			return c1
+			return nil
 		}
 		if f1 == f0 {
 			break
@@ -314,13 +514,11 @@ func powerCell(s *Solver, st *State, q *Point, rg int, pol Policy, P float64) Ce
 			break
 		}
 	}
-	c := Cell{OutputSpeed: q.Outputs[0].Speed, Range: rg}
+	*c = cell{outSpeed: float64(speed), rng: int32(rg)}
 	if lim != nil {
-		c.Err = &PowerError{Power: units.Power(P), Err: lim}
-		return c
+		return &PowerError{Power: units.Power(P), Err: lim}
 	}
-	c.Err = &PowerError{Power: units.Power(P), Err: ErrUnreachable}
-	return c
+	return &PowerError{Power: units.Power(P), Err: ErrUnreachable}
 }
 
 // PowerError reports that a power sweep's cell could not draw the demanded
@@ -352,38 +550,33 @@ func (l Layout) Map(spec MapSpec) (Map, error) {
 	if err := checkAxis("Map torque", units.Of(spec.TorqueFrom), units.Of(spec.TorqueTo), spec.TorqueSteps); err != nil {
 		return Map{}, err
 	}
+	if n := spec.SpeedSteps * spec.TorqueSteps; n > maxCells {
+		return Map{}, &InputError{Field: "Map cells", Value: units.Plain(float64(n)), Reason: "at most 2^30 cells (speed steps × torque steps)"}
+	}
 	vs := axis(float64(spec.SpeedFrom), float64(spec.SpeedTo), spec.SpeedSteps)
 	ts := axis(float64(spec.TorqueFrom), float64(spec.TorqueTo), spec.TorqueSteps)
 	nv := len(vs)
 	p := l.point(spec.Input, spec.PTO)
 	// A worker takes a row of the map at a time, unless there are too few
-	// rows to share among the workers: then chunks, joined afterwards.
-	cols, workers := nv, spec.Workers
+	// rows to share among the workers: then chunks of runChunk cells.
+	chunk, workers := nv, spec.Workers
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
 	if len(ts) < 4*workers {
-		cols = runChunk
+		chunk = runChunk
 	}
-	rows := l.run(nv*len(ts), cols, spec.Workers, spec.Progress, p, func(s *Solver, st *State, q *Point, i int) Cell {
-		for k := range q.Outputs {
-			q.Outputs[k] = OutputDemand{Speed: units.AngularVelocity(vs[i%nv])}
+	res := l.run(nv*len(ts), chunk, spec.Workers, spec.Progress, p, func(w *worker, k int, c *cell) error {
+		q := &w.q
+		i, j := k/nv, k%nv
+		for o := range q.Outputs {
+			q.Outputs[o] = OutputDemand{Speed: units.AngularVelocity(vs[j])}
 		}
-		q.Outputs[0].Torque = units.Torque(ts[i/nv])
-		return solveCell(s, st, q, spec.Range, spec.Policy)
+		q.Outputs[0].Torque = units.Torque(ts[i])
+		return solveCell(w, spec.Range, spec.Policy, c)
 	})
-	if cols != nv {
-		flat := make([]Cell, 0, nv*len(ts))
-		for _, r := range rows {
-			flat = append(flat, r...)
-		}
-		rows = make([][]Cell, len(ts))
-		for i := range rows {
-			rows[i] = flat[i*nv : (i+1)*nv : (i+1)*nv]
-		}
-	}
 	m := Map{Design: spec.Design, Input: spec.Input, RangeNames: l.rangeNames(),
-		Speeds: make([]units.AngularVelocity, nv), Torques: make([]units.Torque, len(ts)), Cells: rows}
+		Speeds: make([]units.AngularVelocity, nv), Torques: make([]units.Torque, len(ts)), res: res}
 	for j, v := range vs {
 		m.Speeds[j] = units.AngularVelocity(v)
 	}
@@ -405,6 +598,28 @@ func (l Layout) checkSpec(rg int, in units.AngularVelocity, pto []units.Torque) 
 	}
 	if pto != nil && len(pto) != len(l.l.ptos) {
 		return &InputError{Field: "len(PTO)", Value: units.Plain(float64(len(pto))), Reason: "one torque per PTO, or nil"}
+	}
+	return nil
+}
+
+func axis(from, to float64, n int) []float64 {
+	out := make([]float64, n)
+	for i := range out {
+		out[i] = from + (to-from)*float64(i)/float64(n-1)
+	}
+	out[n-1] = to
+	return out
+}
+
+func checkAxis(field string, from, to units.Measure, n int) error {
+	if bad(from.SI) {
+		return &InputError{Field: field, Value: from, Reason: "not finite"}
+	}
+	if bad(to.SI) {
+		return &InputError{Field: field, Value: to, Reason: "not finite"}
+	}
+	if n < 2 || n > 1<<20 {
+		return &InputError{Field: field + " steps", Value: units.Plain(float64(n)), Reason: "need 2 to 2^20 steps"}
 	}
 	return nil
 }
@@ -443,25 +658,24 @@ func (c Cell) record(design string, in units.AngularVelocity, names []string) []
 // WriteCSV writes the sweep as CSV: the header CSVHeader, then one row per
 // speed. Infeasible rows carry the reason and leave the results empty.
 func (s Sweep) WriteCSV(w io.Writer) error {
-	return writeCells(w, s.Design, s.Input, s.RangeNames, [][]Cell{s.Cells})
+	return writeCells(w, s.Design, s.Input, s.RangeNames, &s.res)
 }
 
 // WriteCSV writes the map as CSV in long form: the header CSVHeader, then
 // one row per cell, torque-major.
 func (m Map) WriteCSV(w io.Writer) error {
-	return writeCells(w, m.Design, m.Input, m.RangeNames, m.Cells)
+	return writeCells(w, m.Design, m.Input, m.RangeNames, &m.res)
 }
 
-func writeCells(w io.Writer, design string, in units.AngularVelocity, names []string, rows [][]Cell) error {
+func writeCells(w io.Writer, design string, in units.AngularVelocity, names []string, res *results) error {
 	cw := csv.NewWriter(w)
 	if err := cw.Write(CSVHeader); err != nil {
 		return err
 	}
-	for _, row := range rows {
-		for _, c := range row {
-			if err := cw.Write(c.record(design, in, names)); err != nil {
-				return err
-			}
+	for k := range res.cells {
+		c := res.at(k)
+		if err := cw.Write(c.record(design, in, names)); err != nil {
+			return err
 		}
 	}
 	cw.Flush()

@@ -157,7 +157,7 @@ func run(r *demo.Run) error {
 	var series []figures.Series
 	for _, res := range results {
 		s := figures.Series{Name: fullNames([]*result{res})[0]}
-		for i, c := range res.sweep.Cells {
+		for i, c := range res.sweep.Cells() {
 			s.X = append(s.X, kmh(res.sweep.Speeds[i]))
 			if c.OK {
 				s.Y = append(s.Y, 100*c.Efficiency)

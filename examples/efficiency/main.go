@@ -90,7 +90,7 @@ func run(r *demo.Run) error {
 		ms := figures.Series{Colour: rg + 1, Dashed: true}
 		pset := figures.Series{Colour: rg + 1}
 		mset := figures.Series{Colour: rg + 1, Dashed: true}
-		for i, c := range plan.Cells {
+		for i, c := range plan.Cells() {
 			x := conv.kmh(plan.Speeds[i])
 			ps.X, ms.X, pset.X, mset.X = append(ps.X, x), append(ms.X, x), append(pset.X, x), append(mset.X, x)
 			if !c.OK {
@@ -104,7 +104,7 @@ func run(r *demo.Run) error {
 		pumpSeries = append(pumpSeries, ps, ms)
 		settingSeries = append(settingSeries, pset, mset)
 		pr := figures.Series{Name: name, Colour: rg + 1}
-		for i, c := range sw.Cells {
+		for i, c := range sw.Cells() {
 			pr.X = append(pr.X, conv.kmh(sw.Speeds[i]))
 			if c.OK {
 				pr.Y = append(pr.Y, c.HighPressure.Bar())
@@ -113,13 +113,13 @@ func run(r *demo.Run) error {
 			}
 		}
 		pressureSeries = append(pressureSeries, pr)
-		xs := make([]float64, len(sw.Cells))
-		eff := make([]float64, len(sw.Cells))
-		share := make([]float64, len(sw.Cells))
+		xs := make([]float64, len(sw.Speeds))
+		eff := make([]float64, len(sw.Speeds))
+		share := make([]float64, len(sw.Speeds))
 		best, bestAt, ok := 0.0, math.NaN(), 0
 		mech, mechShare := math.NaN(), math.Inf(1)
 		shLo, shHi := math.Inf(1), math.Inf(-1)
-		for i, c := range sw.Cells {
+		for i, c := range sw.Cells() {
 			xs[i] = conv.kmh(sw.Speeds[i])
 			eff[i], share[i] = math.NaN(), math.NaN()
 			if !c.OK {
@@ -144,7 +144,7 @@ func run(r *demo.Run) error {
 			continue
 		}
 		tb.Row(name, demo.F(conv.kmh(lo), 1, "")+" to "+demo.F(conv.kmh(hi), 1, "km/h"), demo.Pct(best, 1), demo.F(bestAt, 1, "km/h"),
-			mechText, demo.Pct(shLo, 0)+" to "+demo.Pct(shHi, 0), fmt.Sprintf("%d of %d", ok, len(sw.Cells)))
+			mechText, demo.Pct(shLo, 0)+" to "+demo.Pct(shHi, 0), fmt.Sprintf("%d of %d", ok, len(sw.Speeds)))
 		effSeries = append(effSeries, figures.Series{Name: name, X: xs, Y: eff})
 		shareSeries = append(shareSeries, figures.Series{Name: name, X: xs, Y: share})
 		csvs = append(csvs, path)
@@ -295,7 +295,7 @@ func efficiencyMap(r *demo.Run, layout powersplit.Layout, conv converter, eng un
 		g.Z[i] = make([]float64, len(m.Speeds))
 		g.Feasible[i] = make([]bool, len(m.Speeds))
 		for j := range m.Speeds {
-			c := m.Cells[i][j]
+			c := m.At(i, j)
 			if c.OK && c.InputTorque > full {
 				engineLimited++
 				continue

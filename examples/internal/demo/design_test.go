@@ -58,7 +58,7 @@ func TestDemoShiftsSynchronously(t *testing.T) {
 			t.Fatal(err)
 		}
 		n := 0
-		for _, c := range sw.Cells {
+		for _, c := range sw.Cells() {
 			if !c.OK {
 				continue
 			}

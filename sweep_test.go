@@ -1,0 +1,117 @@
+package powersplit
+
+import (
+	"math"
+	"slices"
+	"testing"
+
+	"pgregory.net/rapid"
+)
+
+// TestMapCellsMatchSolve checks the compact storage of a map against the
+// solver: over random valid layouts (the property generators) and a small
+// map around a random point, with a fixed range or Auto, every cell that
+// Map.At returns equals, bit for bit, what Solve (or Best) gives for that
+// point on a Brief State: the error's text, the range, every number and the
+// binding margin with its names. And the table of margin names fixed
+// before the run holds every binding margin met (none added during it) and
+// lists the margins of the full State (all but the rated pressures, which
+// are flags that never bind, and the other ranges' speed limits), in the
+// same order.
+func TestMapCellsMatchSolve(t *testing.T) {
+	t.Parallel()
+	rapid.Check(t, func(t *rapid.T) {
+		c := genCase(t)
+		var full State
+		if err := NewSolver(c.l).Solve(c.p, &full); err == nil {
+			var names []marginName
+			for _, m := range full.Margins {
+				if m.Bound != boundRated {
+					names = append(names, marginName{m.Element, m.Quantity, m.Bound, m.Value.Kind, m.Unchecked})
+				}
+			}
+			// The table holds every range's speed limit, the State only its
+			// range's.
+			want := slices.DeleteFunc(marginNames(c.l.l), func(n marginName) bool {
+				return n.bound == boundRangeSpeed && n.element != full.RangeName
+			})
+			if !slices.Equal(names, want) {
+				t.Fatalf("%s: margin names %v, the full State's %v", c.kind, want, names)
+			}
+		}
+		auto := rapid.Bool().Draw(t, "Auto")
+		rg := c.p.Range
+		if auto {
+			rg = Auto
+		}
+		v, tq := c.p.Outputs[0].Speed, c.p.Outputs[0].Torque
+		spec := MapSpec{Range: rg, Input: c.p.Input, SpeedFrom: v / 2, SpeedTo: 3 * v / 2, SpeedSteps: 5,
+			TorqueFrom: -tq, TorqueTo: 2 * tq, TorqueSteps: 4, PTO: c.p.PTO, Workers: 2}
+		m, err := c.l.Map(spec)
+		if err != nil {
+			t.Fatalf("Map: %v", err)
+		}
+		if got, want := len(m.res.binds), len(marginNames(c.l.l)); got != want {
+			t.Errorf("%s: %d margin names after the run, %d before: %v", c.kind, got, want, m.res.binds[want:])
+		}
+		s := NewSolver(c.l)
+		st := State{Brief: true}
+		same := func(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
+		for i, tq := range m.Torques {
+			for j, v := range m.Speeds {
+				p := c.p
+				p.Outputs = make([]OutputDemand, len(c.p.Outputs))
+				for k := range p.Outputs {
+					p.Outputs[k].Speed = v
+				}
+				p.Outputs[0].Torque = tq
+				var err error
+				if auto {
+					err = s.Best(p, nil, &st)
+				} else {
+					err = s.Solve(p, &st)
+				}
+				cl := m.At(i, j)
+				if cl.OK != (err == nil) || cl.Reason() != (Cell{Err: err}).Reason() || cl.Range != st.Range {
+					t.Fatalf("cell %d,%d: OK %v %q range %d; Solve: %v, range %d", i, j, cl.OK, cl.Reason(), cl.Range, err, st.Range)
+				}
+				if !same(float64(cl.OutputSpeed), float64(v)) {
+					t.Fatalf("cell %d,%d: speed %v, want %v", i, j, cl.OutputSpeed, v)
+				}
+				if err != nil {
+					continue
+				}
+				lp := st.Loops[0]
+				for _, q := range []struct {
+					name      string
+					got, want float64
+				}{
+					{"output torque", float64(cl.OutputTorque), float64(st.Outputs[0].Torque)},
+					{"input torque", float64(cl.InputTorque), float64(st.InputTorque)},
+					{"input power", float64(cl.InputPower), float64(st.InputPower)},
+					{"output power", float64(cl.OutputPower), float64(st.OutputPower)},
+					{"loss", float64(cl.Loss), float64(st.Loss)},
+					{"efficiency", cl.Efficiency, st.Efficiency},
+					{"hydraulic share", cl.HydraulicShare, st.HydraulicShare},
+					{"pressure", float64(cl.Pressure), float64(lp.Pressure)},
+					{"high pressure", float64(cl.HighPressure), float64(lp.High)},
+					{"pump speed", float64(cl.PumpSpeed), float64(lp.Pump.Speed)},
+					{"motor speed", float64(cl.MotorSpeed), float64(lp.Motors[0].Speed)},
+					{"pump setting", cl.PumpSetting, lp.Pump.Setting},
+					{"motor setting", cl.MotorSetting, lp.Motors[0].Setting},
+					{"binding value", cl.Binding.Value.SI, st.Binding.Value.SI},
+					{"binding limit", cl.Binding.Limit.SI, st.Binding.Limit.SI},
+				} {
+					if !same(q.got, q.want) {
+						t.Fatalf("%s cell %d,%d: %s %.17g, Solve %.17g", c.kind, i, j, q.name, q.got, q.want)
+					}
+				}
+				b, w := cl.Binding, st.Binding
+				if b.Element != w.Element || b.Quantity != w.Quantity || b.Bound != w.Bound || b.Unchecked != w.Unchecked ||
+					b.Value.Kind != w.Value.Kind || b.Limit.Kind != w.Limit.Kind {
+					t.Fatalf("%s cell %d,%d: binding %+v, Solve %+v", c.kind, i, j, b, w)
+				}
+			}
+		}
+	})
+}
