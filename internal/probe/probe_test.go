@@ -24,6 +24,8 @@ func TestZeroValuesDoNotPanic(t *testing.T) {
 	// Documented programmer errors.
 	documented := map[string]bool{
 		"powersplit.SettingCurve.At": true, // "It panics on an empty curve."
+		"powersplit.Sweep.At":        true, // "It panics if i is out of range." (the zero Sweep has no cell)
+		"powersplit.Map.At":          true, // "It panics if i or j is out of range." (the zero Map has no cell)
 	}
 	vals := []any{
 		ps.Layout{}, &ps.Builder{}, ps.NewBuilder(), &ps.State{}, ps.Margin{}, ps.Cell{}, ps.Sweep{}, ps.Map{}, &ps.LimitError{}, &ps.InputError{}, &ps.LayoutError{}, &ps.KinematicsError{}, &ps.ConvergenceError{}, ps.SettingCurve{}, ps.SecondMotor{},
