@@ -400,6 +400,12 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz []float64, lim float64, evals 
 		if bad(step) {
 			return 0, false
 		}
+		if math.Abs(step) <= 1e-13*math.Abs(dp) {
+			// Already balanced to rounding (F linear, as with ideal units,
+			// lands here on the second evaluation): the torques just taken
+			// are the point's.
+			return dp, true
+		}
 		dp -= step
 		if math.Abs(dp) > lim {
 			return 0, false

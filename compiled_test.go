@@ -107,6 +107,10 @@ func TestCompiledOnBenchmarkPoints(t *testing.T) {
 	}
 }
 
+// TestCompiledLosslessHits: every benchmark point of the lossless layout
+// takes the compiled path, and with ideal units (F linear in Δp) Newton's
+// method lands in one step: two evaluations of the unit torques a point,
+// the second at the pressure reached.
 func TestCompiledLosslessHits(t *testing.T) {
 	l := benchLayout(t, false)
 	s := NewSolver(l)
@@ -116,10 +120,18 @@ func TestCompiledLosslessHits(t *testing.T) {
 		if err := s.Solve(p, &st); err != nil {
 			t.Fatal(err)
 		}
+		if st.Iterations != 2 {
+			t.Errorf("%v rpm, %v N·m: %d evaluations of the unit torques, want 2", p.Outputs[0].Speed.RPM(), float64(p.Outputs[0].Torque), st.Iterations)
+		}
 	}
-	t.Logf("%d of %d, iterations %d", s.comp.hits, len(pts), st.Iterations)
+	if s.comp.hits != len(pts) {
+		t.Errorf("%d of %d lossless points took the compiled path", s.comp.hits, len(pts))
+	}
 }
 
+// TestCompiledEvals: on the lossy benchmark points the compiled path needs
+// about as many evaluations of the unit torques as the hand-written lossy
+// floor (4.4 a point, lossyfloor_test.go), never more than 6 on a point.
 func TestCompiledEvals(t *testing.T) {
 	l := benchLayout(t, true)
 	s := NewSolver(l)
@@ -130,9 +142,16 @@ func TestCompiledEvals(t *testing.T) {
 		if err := s.Solve(p, &st); err != nil {
 			t.Fatal(err)
 		}
+		if st.Iterations > 6 {
+			t.Errorf("%v rpm, %v N·m: %d evaluations", p.Outputs[0].Speed.RPM(), float64(p.Outputs[0].Torque), st.Iterations)
+		}
 		tot += st.Iterations
 	}
-	t.Logf("%d points, %.2f evaluations each", len(pts), float64(tot)/float64(len(pts)))
+	mean := float64(tot) / float64(len(pts))
+	t.Logf("%d points, %.2f evaluations each", len(pts), mean)
+	if mean > 5 {
+		t.Errorf("%.2f evaluations a point, want at most 5 (the lossy floor needs 4.4)", mean)
+	}
 }
 
 // TestMapCompiledMatchesGeneral: the benchmark map (a fifth of it beyond
