@@ -138,13 +138,17 @@ func TractiveEffort(v *vehicle.Vehicle, spec EffortSpec) ([]EffortPoint, error) 
 	return out, nil
 }
 
+// errSlip is a point's slip above EffortSpec.MaxSlip: only its kind is
+// read (Classify), so it is one value rather than words per point.
+var errSlip = fmt.Errorf("%w: slip above the greatest counted", vehicle.ErrTraction)
+
 // greatestPull bisects on the draft between a feasible and an infeasible
 // pull.
 func greatestPull(v *vehicle.Vehicle, spec EffortSpec, rg int, s units.Speed, top units.Force) EffortPoint {
 	try := func(draft units.Force) (vehicle.Point, error) {
 		p, err := v.At(vehicle.Demand{Speed: s, Draft: draft, Ground: spec.Ground}, spec.EngineSpeed, rg)
 		if err == nil && p.Slip > spec.MaxSlip {
-			err = fmt.Errorf("%w: slip %.3g above %.3g", vehicle.ErrTraction, p.Slip, spec.MaxSlip)
+			err = errSlip
 		}
 		return p, err
 	}

@@ -487,8 +487,12 @@ func (f *File) unitSpeedCheck(s *powersplit.Solver, l powersplit.Layout, ivs []I
 	for _, iv := range ivs {
 		names[iv.Range] = iv.Name
 	}
-	worst, at := 0.0, ""
-	var bind *Binding
+	worst := 0.0
+	var (
+		bound     bool // a point set worst
+		bind      Binding
+		bindUnits powersplit.Margin // the units' margin at bind
+	)
 	low := req.LowestSpeed
 	if req.Standstill {
 		low = 0
@@ -499,26 +503,34 @@ func (f *File) unitSpeedCheck(s *powersplit.Solver, l powersplit.Layout, ivs []I
 		if v <= 0 {
 			continue
 		}
-		best, bestAt, bestRange := math.Inf(1), "", 0
+		best, bestRange := math.Inf(1), 0
+		var bestM powersplit.Margin
 		for rg := range l.Ranges() {
 			r, m, _, ok := f.unitState(s, &st, rg, w, v)
 			if ok && r < best {
-				best, bestRange = r, rg
-				bestAt = fmt.Sprintf("range %s at %.2f km/h, engine %.0f rpm: %s %s %.0f of %.0f rpm", names[rg], v.KMH(), w.RPM(),
-					m.Element, m.Quantity, units.AngularVelocity(m.Value.SI).RPM(), units.AngularVelocity(m.Limit.SI).RPM())
+				best, bestRange, bestM = r, rg, m
 			}
 		}
 		if math.IsInf(best, 1) { // a gap: the gap check reports it
 			continue
 		}
 		if best > worst {
-			worst, at = best, bestAt
-			bind = &Binding{Range: bestRange, Speed: v, Engine: w}
+			worst, bound = best, true
+			bind, bindUnits = Binding{Range: bestRange, Speed: v, Engine: w}, bestM
 		}
+	}
+	// Words for the binding point only.
+	at := ""
+	var bindAt *Binding
+	if bound {
+		m := bindUnits
+		at = fmt.Sprintf("range %s at %.2f km/h, engine %.0f rpm: %s %s %.0f of %.0f rpm", names[bind.Range], bind.Speed.KMH(), w.RPM(),
+			m.Element, m.Quantity, units.AngularVelocity(m.Value.SI).RPM(), units.AngularVelocity(m.Limit.SI).RPM())
+		bindAt = &bind
 	}
 	margin := 1 - worst - req.UnitSpeedMargin
 	return Check{Name: fmt.Sprintf("unit speeds %.0f %% below their greatest", 100*req.UnitSpeedMargin),
-		Met: margin >= 0, Margin: margin, Got: fmt.Sprintf("%.1f %% of the greatest", 100*worst), At: at, Binding: bind}
+		Met: margin >= 0, Margin: margin, Got: fmt.Sprintf("%.1f %% of the greatest", 100*worst), At: at, Binding: bindAt}
 }
 
 // shiftCheck compares the variator's speed ratio (motor over pump) in the
@@ -539,7 +551,9 @@ func (f *File) shiftCheck(s *powersplit.Solver, l powersplit.Layout, names []str
 				}
 			}
 		}
-		best, bestAt := 1.0, fmt.Sprintf("range change %s → %s: no common speed", names[i], names[i+1])
+		best, found := 1.0, false
+		var bestV units.Speed
+		var bestA, bestB float64
 		if lo <= hi {
 			const n = 40
 			for k := range n + 1 {
@@ -551,13 +565,19 @@ func (f *File) shiftCheck(s *powersplit.Solver, l powersplit.Layout, names []str
 				}
 				mis := math.Abs(ra-rb) / math.Max(math.Abs(ra), math.Abs(rb))
 				if mis < best {
-					best = mis
-					bestAt = fmt.Sprintf("range change %s → %s at %.2f km/h: variator %.3f against %.3f", names[i], names[i+1], v.KMH(), ra, rb)
+					best, found = mis, true
+					bestV, bestA, bestB = v, ra, rb
 				}
 			}
 		}
 		if best >= worst {
-			worst, at = best, bestAt
+			worst = best
+			// Words for the worst change only.
+			if found {
+				at = fmt.Sprintf("range change %s → %s at %.2f km/h: variator %.3f against %.3f", names[i], names[i+1], bestV.KMH(), bestA, bestB)
+			} else {
+				at = fmt.Sprintf("range change %s → %s: no common speed", names[i], names[i+1])
+			}
 		}
 	}
 	return Check{Name: fmt.Sprintf("range changes match within %.1f %%", 100*tol),
