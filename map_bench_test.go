@@ -1,6 +1,7 @@
 package powersplit
 
 import (
+	"io"
 	"math"
 	"runtime"
 	"slices"
@@ -43,6 +44,26 @@ func BenchmarkMap(b *testing.B) {
 			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*n*n), "ns/point")
 		})
 	}
+}
+
+// BenchmarkMapWriteCSV writes the CSV of the 200 × 200 map (50 × 50 in
+// -short mode); ns/row is per cell.
+func BenchmarkMapWriteCSV(b *testing.B) {
+	n := 200
+	if testing.Short() {
+		n = 50
+	}
+	m, err := benchLayout(b, true).Map(benchMapSpec(n, 0))
+	if err != nil {
+		b.Fatal(err)
+	}
+	b.ReportAllocs()
+	for b.Loop() {
+		if err := m.WriteCSV(io.Discard); err != nil {
+			b.Fatal(err)
+		}
+	}
+	b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N*n*n), "ns/row")
 }
 
 // generalOnly returns a copy of l whose solvers take the general path
@@ -210,9 +231,9 @@ func TestMapWorkersIdentical(t *testing.T) {
 func compareMaps(t *testing.T, m1, m4 Map, cells int) {
 	t.Helper()
 	same := func(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
-	if !slices.Equal(m1.res.binds, m4.res.binds) || len(m1.res.errs) != len(m4.res.errs) || len(m1.res.cells) != len(m4.res.cells) {
+	if !slices.Equal(m1.res.binds, m4.res.binds) || len(m1.res.errs) != len(m4.res.errs) || m1.res.n != m4.res.n {
 		t.Fatalf("tables differ: margin names %v and %v, %d and %d errors, %d and %d cells", m1.res.binds, m4.res.binds,
-			len(m1.res.errs), len(m4.res.errs), len(m1.res.cells), len(m4.res.cells))
+			len(m1.res.errs), len(m4.res.errs), m1.res.n, m4.res.n)
 	}
 	ok := 0
 	for i := range m1.Torques {
@@ -221,7 +242,7 @@ func compareMaps(t *testing.T, m1, m4 Map, cells int) {
 			if a.OK {
 				ok++
 			}
-			ra, rc := &m1.res.cells[i*len(m1.Speeds)+j], &m4.res.cells[i*len(m1.Speeds)+j]
+			ra, rc := m1.res.cell(i*len(m1.Speeds)+j), m4.res.cell(i*len(m1.Speeds)+j)
 			ba, bc := a.Binding, c.Binding
 			if a.OK != c.OK || a.Reason() != c.Reason() || a.Range != c.Range || ra.err != rc.err || ra.bind != rc.bind ||
 				!same(float64(a.OutputSpeed), float64(c.OutputSpeed)) || !same(float64(a.OutputTorque), float64(c.OutputTorque)) ||

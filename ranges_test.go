@@ -182,7 +182,7 @@ func TestSweepAndMap(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	// Progress is reported once per row of 17 cells (the calls are
+	// Progress is reported once per chunk of 16 cells (the calls are
 	// serialised), done rising to the total.
 	var dones []int
 	spec := MapSpec{Range: Auto, Input: units.RPM(2000), SpeedFrom: units.RPM(-200), SpeedTo: units.RPM(1400), SpeedSteps: 17,
@@ -197,8 +197,8 @@ func TestSweepAndMap(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(dones) != 9 || dones[8] != 17*9 || !slices.IsSorted(dones) {
-		t.Errorf("progress reported %v, want 9 calls rising to %d", dones, 17*9)
+	if len(dones) != 10 || dones[9] != 17*9 || !slices.IsSorted(dones) {
+		t.Errorf("progress reported %v, want 10 calls rising to %d", dones, 17*9)
 	}
 	spec.Workers, spec.Progress = 4, nil
 	m4, err := l.Map(spec)

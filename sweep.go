@@ -1,7 +1,6 @@
 package powersplit
 
 import (
-	"encoding/csv"
 	"errors"
 	"io"
 	"iter"
@@ -11,6 +10,8 @@ import (
 	"strconv"
 	"sync"
 	"sync/atomic"
+	"unicode"
+	"unicode/utf8"
 
 	"github.com/powersplit-dev/powersplit/units"
 )
@@ -67,8 +68,9 @@ type SweepSpec struct {
 	PTO     []units.Torque
 	Workers int // parallel workers; 0 means GOMAXPROCS
 	// Progress, when not nil, is called as the points complete, after each
-	// chunk of runChunk points (and after the last), with the number done
-	// so far and the total; the calls are serialised and done increases.
+	// chunk of 16 to 224 points (about a 64th of the sweep), with the number
+	// done so far and the total; the calls are serialised, done increases
+	// and the last call has done = total.
 	Progress func(done, total int)
 }
 
@@ -84,7 +86,7 @@ type Sweep struct {
 
 // At returns the cell at Speeds[i]. It panics if i is out of range.
 func (s Sweep) At(i int) Cell {
-	if i < 0 || i >= len(s.res.cells) {
+	if i < 0 || i >= s.res.n {
 		panic("powersplit: Sweep.At index out of range")
 	}
 	return s.res.at(i)
@@ -93,7 +95,7 @@ func (s Sweep) At(i int) Cell {
 // Cells returns the sweep's cells in order of speed, with their index.
 func (s Sweep) Cells() iter.Seq2[int, Cell] {
 	return func(yield func(int, Cell) bool) {
-		for i := range s.res.cells {
+		for i := range s.res.n {
 			if !yield(i, s.res.at(i)) {
 				return
 			}
@@ -114,9 +116,9 @@ type MapSpec struct {
 	PTO                  []units.Torque
 	Workers              int // parallel workers; 0 means GOMAXPROCS
 	// Progress, when not nil, is called as the cells complete, after each
-	// row (or chunk of runChunk cells when there are few rows) and after
-	// the last, with the number done so far and the total; the calls are
-	// serialised and done increases.
+	// chunk of 16 to 224 cells (about a 64th of the map), with the number
+	// done so far and the total; the calls are serialised, done increases
+	// and the last call has done = total.
 	Progress func(done, total int)
 }
 
@@ -134,7 +136,7 @@ type Map struct {
 // At returns the cell at Torques[i], Speeds[j]. It panics if i or j is out
 // of range.
 func (m Map) At(i, j int) Cell {
-	if i < 0 || i >= len(m.Torques) || j < 0 || j >= len(m.Speeds) || len(m.res.cells) != len(m.Torques)*len(m.Speeds) {
+	if i < 0 || i >= len(m.Torques) || j < 0 || j >= len(m.Speeds) || m.res.n != len(m.Torques)*len(m.Speeds) {
 		panic("powersplit: Map.At index out of range")
 	}
 	return m.res.at(i*len(m.Speeds) + j)
@@ -143,12 +145,12 @@ func (m Map) At(i, j int) Cell {
 // Feasible returns the feasibility mask: mask[i][j] is At(i, j).OK.
 func (m Map) Feasible() [][]bool {
 	nv := len(m.Speeds)
-	if len(m.res.cells) != len(m.Torques)*nv {
+	if m.res.n != len(m.Torques)*nv {
 		return nil
 	}
-	flat := make([]bool, len(m.res.cells))
-	for k := range m.res.cells {
-		flat[k] = m.res.cells[k].err == 0
+	flat := make([]bool, m.res.n)
+	for k := range flat {
+		flat[k] = m.res.cell(k).err == 0
 	}
 	mask := make([][]bool, len(m.Torques))
 	for i := range mask {
@@ -158,14 +160,22 @@ func (m Map) Feasible() [][]bool {
 }
 
 // results holds the cells of a sweep or map compactly: the numbers of every
-// cell in one slice without pointers, which the garbage collector never
-// scans, and the few things with pointers in side tables, the errors of the
-// failed cells and the names of the binding margins.
+// cell in slices without pointers, which the garbage collector never scans,
+// and the few things with pointers in side tables, the errors of the failed
+// cells and the names of the binding margins. The cells are stored in the
+// chunks the workers solved them in, each allocated (and so zeroed) by its
+// worker: one slice for the whole result had the allocating goroutine clear
+// it alone before the workers could start.
 type results struct {
-	cells []cell
-	errs  []error      // errs[c.err-1] is why cell c failed
-	binds []marginName // binds[c.bind-1] names cell c's binding margin
+	n      int          // cells
+	chunk  int          // cells per chunk (the last may be shorter)
+	chunks [][]cell     // cell k is chunks[k/chunk][k%chunk]
+	errs   []error      // errs[c.err-1] is why cell c failed
+	binds  []marginName // binds[c.bind-1] names cell c's binding margin
 }
+
+// cell returns cell k.
+func (r *results) cell(k int) *cell { return &r.chunks[k/r.chunk][k%r.chunk] }
 
 // cell is one Cell as results stores it. A cell is OK when err is 0.
 type cell struct {
@@ -185,7 +195,7 @@ type marginName struct {
 
 // at builds the Cell of cells[k].
 func (r *results) at(k int) Cell {
-	c := &r.cells[k]
+	c := r.cell(k)
 	out := Cell{OK: c.err == 0, Range: int(c.rng),
 		OutputSpeed: units.AngularVelocity(c.outSpeed), OutputTorque: units.Torque(c.outTorque),
 		InputTorque: units.Torque(c.inTorque), InputPower: units.Power(c.inPower), OutputPower: units.Power(c.outPower),
@@ -283,10 +293,13 @@ func (w *worker) bindIndex(m *Margin) uint32 {
 // job solves cell k into c and returns its error (nil when it is OK).
 type job func(w *worker, k int, c *cell) error
 
-// runChunk is the number of consecutive cells a worker takes at a time in
-// a sweep: large enough that the workers rarely meet on the shared counter
-// or on neighbouring cells, small enough to balance the load.
-const runChunk = 16
+// runChunk returns the number of consecutive cells a worker takes (and
+// allocates) at a time out of n: about n/64, so that the workers share the
+// load evenly to the end, but at least 16, so that they rarely meet on the
+// shared counter, and at most 224, so that a chunk (32 KiB) comes from the
+// allocator's per-core caches. It depends on n only, never on the number
+// of workers, so the stored result does not either.
+func runChunk(n int) int { return min(224, max(16, n/64)) }
 
 // maxCells bounds the cells of a map (the errors' indices are 32-bit).
 const maxCells = 1 << 30
@@ -297,24 +310,28 @@ const maxCells = 1 << 30
 // they are deterministic (and identical for any number of workers): the
 // table of margin names is fixed before the run and the errors are listed
 // in order of the cells.
-func (l Layout) run(n, chunk, workers int, progress func(int, int), p Point, f job) results {
+func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) results {
+	chunk := runChunk(n)
 	nchunks := (n + chunk - 1) / chunk
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
 	workers = max(1, min(workers, nchunks))
-	res := results{cells: make([]cell, n), binds: marginNames(l.l)}
+	res := results{n: n, chunk: chunk, chunks: make([][]cell, nchunks), binds: marginNames(l.l)}
 	extra := &extraNames{}
 	// spans[r] is where chunk r's errors are in its worker's list.
 	type span struct{ w, lo, hi int32 }
 	spans := make([]span, nchunks)
-	ws := make([]worker, workers)
+	// Each worker is its own allocation, so that one worker's writes to its
+	// State never share a cache line with another's.
+	ws := make([]*worker, workers)
 	var next atomic.Int64
 	var mu sync.Mutex
 	done := 0
 	var wg sync.WaitGroup
 	for wi := range ws {
-		w := &ws[wi]
+		w := &worker{}
+		ws[wi] = w
 		wg.Go(func() {
 			w.s = NewSolver(l)
 			w.st = State{Brief: !w.s.general} // a cell needs the summary only
@@ -328,7 +345,8 @@ func (l Layout) run(n, chunk, workers int, progress func(int, int), p Point, f j
 				}
 				k0, k1 := r*chunk, min((r+1)*chunk, n)
 				lo := len(w.errs)
-				cs := res.cells[k0:k1]
+				cs := make([]cell, k1-k0)
+				res.chunks[r] = cs
 				for k := range cs {
 					if err := f(w, k0+k, &cs[k]); err != nil {
 						cs[k].err = 1 // numbered below
@@ -355,7 +373,7 @@ func (l Layout) run(n, chunk, workers int, progress func(int, int), p Point, f j
 		for _, sp := range spans {
 			for _, e := range ws[sp.w].errs[sp.lo:sp.hi] {
 				res.errs = append(res.errs, e.err)
-				res.cells[e.k].err = uint32(len(res.errs))
+				res.cell(e.k).err = uint32(len(res.errs))
 			}
 		}
 	}
@@ -371,8 +389,8 @@ func (l Layout) run(n, chunk, workers int, progress func(int, int), p Point, f j
 func canonicalBinds(res results, fixed int, extra []marginName) []marginName {
 	renum := make([]uint32, len(extra))
 	binds := res.binds
-	for k := range res.cells {
-		c := &res.cells[k]
+	for k := range res.n {
+		c := res.cell(k)
 		if int(c.bind) <= fixed {
 			continue
 		}
@@ -450,7 +468,7 @@ func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
 	}
 	vs := axis(float64(spec.From), float64(spec.To), spec.Steps)
 	p := l.point(spec.Input, spec.PTO)
-	res := l.run(len(vs), runChunk, spec.Workers, spec.Progress, p, func(w *worker, k int, c *cell) error {
+	res := l.run(len(vs), spec.Workers, spec.Progress, p, func(w *worker, k int, c *cell) error {
 		q := &w.q
 		for o := range q.Outputs {
 			q.Outputs[o] = OutputDemand{Speed: units.AngularVelocity(vs[k])}
@@ -557,16 +575,7 @@ func (l Layout) Map(spec MapSpec) (Map, error) {
 	ts := axis(float64(spec.TorqueFrom), float64(spec.TorqueTo), spec.TorqueSteps)
 	nv := len(vs)
 	p := l.point(spec.Input, spec.PTO)
-	// A worker takes a row of the map at a time, unless there are too few
-	// rows to share among the workers: then chunks of runChunk cells.
-	chunk, workers := nv, spec.Workers
-	if workers <= 0 {
-		workers = runtime.GOMAXPROCS(0)
-	}
-	if len(ts) < 4*workers {
-		chunk = runChunk
-	}
-	res := l.run(nv*len(ts), chunk, spec.Workers, spec.Progress, p, func(w *worker, k int, c *cell) error {
+	res := l.run(nv*len(ts), spec.Workers, spec.Progress, p, func(w *worker, k int, c *cell) error {
 		q := &w.q
 		i, j := k/nv, k%nv
 		for o := range q.Outputs {
@@ -634,27 +643,6 @@ var CSVHeader = []string{"design", "input_speed_rpm", "output_speed_rpm", "outpu
 	"loop_pressure_bar", "high_pressure_bar", "pump_speed_rpm", "motor_speed_rpm", "pump_setting_pct",
 	"motor_setting_pct", "binding_limit", "binding_left_pct", "reason"}
 
-func (c Cell) record(design string, in units.AngularVelocity, names []string) []string {
-	f := func(v float64) string { return strconv.FormatFloat(v, 'g', 10, 64) }
-	head := []string{design, f(in.RPM()), f(c.OutputSpeed.RPM()), f(float64(c.OutputTorque))}
-	if !c.OK {
-		return append(head, "false", "", "", "", "", "", "", "", "", "", "", "", "", "", "", "", c.Reason())
-	}
-	rg := strconv.Itoa(c.Range)
-	if c.Range >= 0 && c.Range < len(names) {
-		rg = names[c.Range]
-	}
-	bind, left := "", ""
-	if c.Binding.Limit.SI > 0 {
-		bind = c.Binding.Element + " " + c.Binding.Quantity
-		left = f(100 * c.Binding.Left().SI / c.Binding.Limit.SI)
-	}
-	return append(head, "true", rg,
-		f(float64(c.InputTorque)), f(c.InputPower.Kilowatts()), f(c.OutputPower.Kilowatts()), f(c.Loss.Kilowatts()),
-		f(100*c.Efficiency), f(100*c.HydraulicShare), f(c.Pressure.Bar()), f(c.HighPressure.Bar()),
-		f(c.PumpSpeed.RPM()), f(c.MotorSpeed.RPM()), f(100*c.PumpSetting), f(100*c.MotorSetting), bind, left, "")
-}
-
 // WriteCSV writes the sweep as CSV: the header CSVHeader, then one row per
 // speed. Infeasible rows carry the reason and leave the results empty.
 func (s Sweep) WriteCSV(w io.Writer) error {
@@ -667,19 +655,87 @@ func (m Map) WriteCSV(w io.Writer) error {
 	return writeCells(w, m.Design, m.Input, m.RangeNames, &m.res)
 }
 
+// writeCells writes the CSV of res (encoding/csv's format: quotes only
+// where a field needs them, "\n" line ends) straight into one reused
+// buffer: a map writes 40 000 rows of 21 fields, and strings for them cost
+// several times the map's own solving.
 func writeCells(w io.Writer, design string, in units.AngularVelocity, names []string, res *results) error {
-	cw := csv.NewWriter(w)
-	if err := cw.Write(CSVHeader); err != nil {
-		return err
+	b := make([]byte, 0, 64<<10)
+	for i, h := range CSVHeader {
+		if i > 0 {
+			b = append(b, ',')
+		}
+		b = appendCSVField(b, h)
 	}
-	for k := range res.cells {
+	b = append(b, '\n')
+	f := func(b []byte, v float64) []byte { return append(strconv.AppendFloat(b, v, 'g', 10, 64), ',') }
+	head := append(appendCSVField(nil, design), ',')
+	head = f(head, in.RPM())
+	var scratch []byte
+	for k := range res.n {
 		c := res.at(k)
-		if err := cw.Write(c.record(design, in, names)); err != nil {
-			return err
+		b = append(b, head...)
+		b = f(b, c.OutputSpeed.RPM())
+		b = f(b, float64(c.OutputTorque))
+		if !c.OK {
+			b = append(b, "false,,,,,,,,,,,,,,,,"...)
+			b = appendCSVField(b, c.Reason())
+		} else {
+			b = append(b, "true,"...)
+			if c.Range >= 0 && c.Range < len(names) {
+				b = appendCSVField(b, names[c.Range])
+			} else {
+				b = strconv.AppendInt(b, int64(c.Range), 10)
+			}
+			b = append(b, ',')
+			for _, v := range [...]float64{float64(c.InputTorque), c.InputPower.Kilowatts(), c.OutputPower.Kilowatts(),
+				c.Loss.Kilowatts(), 100 * c.Efficiency, 100 * c.HydraulicShare, c.Pressure.Bar(), c.HighPressure.Bar(),
+				c.PumpSpeed.RPM(), c.MotorSpeed.RPM(), 100 * c.PumpSetting, 100 * c.MotorSetting} {
+				b = f(b, v)
+			}
+			if c.Binding.Limit.SI > 0 {
+				scratch = append(append(append(scratch[:0], c.Binding.Element...), ' '), c.Binding.Quantity...)
+				b = append(appendCSVField(b, scratch), ',')
+				b = f(b, 100*c.Binding.Left().SI/c.Binding.Limit.SI)
+			} else {
+				b = append(b, ",,"...)
+			}
+		}
+		b = append(b, '\n')
+		if len(b) >= 60<<10 {
+			if _, err := w.Write(b); err != nil {
+				return err
+			}
+			b = b[:0]
 		}
 	}
-	cw.Flush()
-	return errors.Join(cw.Error())
+	_, err := w.Write(b)
+	return err
+}
+
+// appendCSVField appends s as one CSV field, quoted as encoding/csv quotes
+// it (when empty it is not; when it holds a comma, a quote, a line break,
+// starts with a space or is \.), with quotes doubled.
+func appendCSVField[S string | []byte](b []byte, s S) []byte {
+	quote := false
+	if len(s) > 0 {
+		r, _ := utf8.DecodeRuneInString(string(s[:min(len(s), utf8.UTFMax)]))
+		quote = string(s) == `\.` || unicode.IsSpace(r)
+		for i := 0; i < len(s) && !quote; i++ {
+			quote = s[i] == ',' || s[i] == '"' || s[i] == '\r' || s[i] == '\n'
+		}
+	}
+	if !quote {
+		return append(b, s...)
+	}
+	b = append(b, '"')
+	for i := 0; i < len(s); i++ {
+		if s[i] == '"' {
+			b = append(b, '"')
+		}
+		b = append(b, s[i])
+	}
+	return append(b, '"')
 }
 
 func (l Layout) rangeNames() []string {
