@@ -57,3 +57,54 @@ func BenchmarkLoopAtOverCentre(b *testing.B) {
 		_ = l.At(units.RPM(-300), speeds, units.Bar(250), &st)
 	}
 }
+
+// BenchmarkCurve times what a layout solver's compiled path asks of a loop
+// per point: preparing the Curve at the shaft speeds, one evaluation of the
+// unit torques and their slopes, and the final Fill of the loop state; for
+// the classic Wilson model (torque at full displacement, the common case)
+// and for the model with every term (torque displacement following the
+// setting, hydrodynamic and compressibility terms).
+func BenchmarkCurve(b *testing.B) {
+	classic := Wilson{Slip: 1e-9, Viscous: 2e5, Friction: 0.01, ConstantPressure: units.Bar(1)}
+	unit := func(cc float64) Unit {
+		return mustUnit(b, UnitSpec{MaxDisplacement: units.CCPerRev(cc), MaxSpeed: units.RPM(4500), Loss: classic})
+	}
+	cl, err := NewLoop(LoopSpec{Pump: unit(100), Motors: []Unit{unit(100)}, Oil: VG46, Temperature: units.Celsius(60),
+		Charge: units.Bar(25), Relief: units.Bar(450)})
+	if err != nil {
+		b.Fatal(err)
+	}
+	for _, lc := range []struct {
+		name string
+		l    Loop
+	}{{"classic", cl}, {"every-term", demoLoop(b, 1, nil)}} {
+		l := lc.l
+		wp, wm := units.RPM(2100), []units.AngularVelocity{units.RPM(1700)}
+		var c Curve
+		set := make([]float64, 2)
+		tq := make([]units.Torque, 2)
+		sl := make([]units.Displacement, 2)
+		var st LoopState
+		b.Run(lc.name+"/prepare", func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				l.Curve(wp, wm, &c)
+			}
+		})
+		if !l.Curve(wp, wm, &c) {
+			b.Fatal("no Curve")
+		}
+		b.Run(lc.name+"/torques", func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				c.Torques(units.Bar(180), set, tq, sl)
+			}
+		})
+		b.Run(lc.name+"/fill", func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				_ = c.Fill(units.Bar(180), set, &st)
+			}
+		})
+	}
+}

@@ -153,17 +153,18 @@ func (up *unitPlan) leak(w float64) (a, b float64, ok bool) {
 	return a, b, finite(a) && finite(b)
 }
 
-// torque returns what a Curve keeps of the unit's loss torque at speed w.
-func (up *unitPlan) torque(w float64) curveTorque {
-	ct := curveTorque{w: w, sw: sgn(w), dmax: up.dmax, fixed: up.fixed}
+// torque sets ct to what a Curve keeps of the unit's loss torque at speed
+// w (in place: a returned struct costs a copy through memory).
+func (up *unitPlan) torque(ct *curveTorque, w float64) {
+	ct.w, ct.sw, ct.dmax, ct.fixed = w, sgn(w), up.dmax, up.fixed
+	ct.t0, ct.t1 = 0, 0
 	if up.fixed && !up.lossless {
-		ct.t0 = up.va*math.Abs(w) + up.cb
+		t0 := up.va*math.Abs(w) + up.cb
 		if up.hr > 0 {
-			ct.t0 += up.hr * w * w * up.d53
+			t0 += up.hr * w * w * up.d53
 		}
-		ct.t1 = up.t1
+		ct.t0, ct.t1 = t0, up.t1
 	}
-	return ct
 }
 
 // Curve prepares c for the loop at the given shaft speeds and reports
@@ -208,11 +209,11 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 		am += a
 		bm += b
 		c.wms[i] = ws
-		c.tau[i+1] = up.torque(w)
+		up.torque(&c.tau[i+1], w)
 	}
 	c.pumpQ, c.motorQ = u0.dmax*wp, mq
 	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
-	c.tau[0] = u0.torque(wp)
+	u0.torque(&c.tau[0], wp)
 	c.ok = true
 	return true
 }

@@ -428,7 +428,7 @@ func (l *Loop) fill(wp units.AngularVelocity, wms []units.AngularVelocity, dp un
 	st.Leakage, st.ChargeFlow = units.VolumeFlow(leak), units.VolumeFlow(leak)
 	st.Efficiency = 1
 	if in > 0 {
-		st.Efficiency = math.Max(0, math.Min(1, out/in))
+		st.Efficiency = clamp01(out / in) // out ≥ 0, in > 0: never NaN
 	}
 	return nil
 }
