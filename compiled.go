@@ -278,16 +278,19 @@ func (s *Solver) summaryC(st *State, p *Point, r *rangeDef, iters int, tmax floa
 	w, t := s.w[e.a], s.t[e.port0]+0
 	st.InputSpeed, st.InputTorque, st.InputPower = units.AngularVelocity(w), -units.Torque(t), -units.Power(t*w)
 	var out, pto float64
+	// Field by field: a composite literal is built aside and copied.
 	for k, oi := range l.outputs {
 		e := &s.ec[oi]
 		w, t := s.w[e.a], s.t[e.port0]+0
-		st.Outputs[k] = FlowState{Name: l.elems[oi].name, Speed: units.AngularVelocity(w), Torque: units.Torque(t), Power: units.Power(t * w)}
+		fs := &st.Outputs[k]
+		fs.Name, fs.Speed, fs.Torque, fs.Power = l.elems[oi].name, units.AngularVelocity(w), units.Torque(t), units.Power(t*w)
 		out += t * w
 	}
 	for k, pi := range l.ptos {
 		e := &s.ec[pi]
 		w, t := s.w[e.a], s.t[e.port0]+0
-		st.PTOs[k] = FlowState{Name: l.elems[pi].name, Speed: units.AngularVelocity(w), Torque: units.Torque(t), Power: units.Power(t * w)}
+		fs := &st.PTOs[k]
+		fs.Name, fs.Speed, fs.Torque, fs.Power = l.elems[pi].name, units.AngularVelocity(w), units.Torque(t), units.Power(t*w)
 		pto += t * w
 	}
 	st.OutputPower, st.PTOPower = units.Power(out), units.Power(pto)

@@ -597,7 +597,11 @@ func (s *Solver) margin(st *State, d *marginDesc, v float64) {
 		}
 		return // a rating is a flag, not a limit
 	}
-	if r := left / d.limit; r < s.room {
+	r := left
+	if d.limit != 1 { // a setting's limit: left/1 is left, without the division
+		r = left / d.limit
+	}
+	if r < s.room {
 		s.room, s.bind, s.bindV = r, d, v
 	}
 	if s.bad == nil && crossed {

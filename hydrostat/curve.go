@@ -45,10 +45,15 @@ type Curve struct {
 	smin   float64
 	pumpQ  float64
 	motorQ float64
-	ap, bp float64       // pump leakage a + b·|x| per |Δp|
-	am, bm float64       // Σ over the motors
-	tau    []curveTorque // per unit, pump first
-	limit  setLimit      // the setting limit of the last Torques, if hit
+	// invQ and invM are 1/pumpQ and 1/motorQ: with no leakage that grows
+	// with the setting (bp, bm zero, the classic models) every division
+	// of a Newton step's settings and slopes is by one of them, and a
+	// product with the inverse is off the step's chain of divisions.
+	invQ, invM float64
+	ap, bp     float64       // pump leakage a + b·|x| per |Δp|
+	am, bm     float64       // Σ over the motors
+	tau        []curveTorque // per unit, pump first
+	limit      setLimit      // the setting limit of the last Torques, if hit
 }
 
 // curveTorque is what a Curve knows of a unit's loss torque at its speed.
@@ -212,6 +217,7 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 		up.torque(&c.tau[i+1], w)
 	}
 	c.pumpQ, c.motorQ = u0.dmax*wp, mq
+	c.invQ, c.invM = 1/c.pumpQ, 1/mq
 	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
 	u0.torque(&c.tau[0], wp)
 	c.ok = true
@@ -261,9 +267,13 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 	switch {
 	case c.limit.hit:
 		// Both settings held at the ends of their ranges.
+	case sm == 1 && c.bp == 0:
+		dxp = (c.ap + c.am + c.bm) * c.invQ
 	case sm == 1:
 		den := c.pumpQ - c.bp*d*sgn(xp)
 		dxp = (c.ap + c.bp*math.Abs(xp) + c.am + c.bm) / den
+	case c.bm == 0:
+		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am) * c.invM
 	default:
 		den := c.motorQ + c.bm*d*sgn(sm)
 		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)) / den
@@ -316,9 +326,12 @@ func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	// Motors full: r(x) = x·Dp·ωp − σ·(ap + bp·|x|) − Σ Dm·ωm − σ·(am + bm),
 	// monotone in x, its zero on the side where −r(0) has the sign of Dp·ωp.
 	k := -sig*ap - c.motorQ - sig*(am+bm) // r(0)
-	if (-k > 0) == (q > 0) {
+	switch {
+	case bp == 0:
+		xp = -k * c.invQ
+	case (-k > 0) == (q > 0):
 		xp = -k / (q - sig*bp)
-	} else {
+	default:
 		xp = -k / (q + sig*bp)
 	}
 	if math.Abs(xp) <= 1 {
@@ -330,7 +343,11 @@ func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	// The pump full on the side of its zero: the motors swing back, the
 	// zero of the balance (linear in s > 0) between the floor and full.
 	xp = math.Copysign(1, xp)
-	sm = (xp*q - sig*(ap+bp) - sig*am) / (c.motorQ + sig*bm)
+	if bm == 0 {
+		sm = (xp*q - sig*(ap+bp) - sig*am) * c.invM
+	} else {
+		sm = (xp*q - sig*(ap+bp) - sig*am) / (c.motorQ + sig*bm)
+	}
 	if sm >= c.smin && sm <= 1 {
 		return xp, sm, true
 	}
