@@ -8,16 +8,30 @@ import (
 )
 
 // A tyreMemo holds what a point of a demand needs that depends on neither
-// the engine speed nor the range: the axle loads' check and the tyres'
-// solution. A strategy's search over engine speeds and ranges solves them
+// the engine speed nor the range: the demand's validation, the axle loads'
+// check and the tyres' solution. A strategy's search over engine speeds and ranges solves them
 // once per demand (the first point that needs them) instead of once per
 // point. A nil *tyreMemo solves them every time.
 type tyreMemo struct {
+	validDone bool
+	validErr  error
 	loadsDone bool
 	loadsErr  error
 	driveDone bool
 	wheels    Wheels
 	driveErr  error
+}
+
+// validate returns d.Validate(), once per memo.
+func (m *tyreMemo) validate(d Demand) error {
+	if m == nil {
+		return d.Validate()
+	}
+	if !m.validDone {
+		m.validErr = d.Validate()
+		m.validDone = true
+	}
+	return m.validErr
 }
 
 // axleLoads returns v.AxleLoads(d)'s error, once per memo.
@@ -60,13 +74,20 @@ type search struct {
 	d     Demand
 	tyres tyreMemo
 	buf   driveBuf
-	seen  []seenPoint
+	// seen are the engine speeds and ranges solved, kept apart from their
+	// outcomes (large) so the look-up reads a few cache lines.
+	seen     []seenKey
+	outcomes []outcome
 }
 
-// seenPoint is one engine speed and range a search solved, and the outcome.
-type seenPoint struct {
+// seenKey is one engine speed and range a search solved.
+type seenKey struct {
 	w   units.AngularVelocity
 	rng int
+}
+
+// outcome is the point or error of a seenKey.
+type outcome struct {
 	p   Point
 	err error
 }
@@ -83,21 +104,23 @@ func newSearch(v *Vehicle, d Demand) *search {
 // release clears the search (so the pool holds no points, errors or
 // vehicles) and gives it back to the pool.
 func (s *search) release() {
-	clear(s.seen)
+	clear(s.outcomes)
 	s.buf.reset()
-	*s = search{seen: s.seen[:0], buf: s.buf}
+	*s = search{seen: s.seen[:0], outcomes: s.outcomes[:0], buf: s.buf}
 	searches.Put(s)
 }
 
 // at is s.v.At(s.d, w, rng), each engine speed and range solved once.
 func (s *search) at(w units.AngularVelocity, rng int) (Point, error) {
-	for i := range s.seen {
-		if q := &s.seen[i]; q.w == w && q.rng == rng {
-			return q.p, q.err
+	for i, k := range s.seen {
+		if k.w == w && k.rng == rng {
+			o := &s.outcomes[i]
+			return o.p, o.err
 		}
 	}
 	p, err := s.v.at(s.d, w, rng, &s.tyres, &s.buf)
-	s.seen = append(s.seen, seenPoint{w: w, rng: rng, p: p, err: err})
+	s.seen = append(s.seen, seenKey{w: w, rng: rng})
+	s.outcomes = append(s.outcomes, outcome{p: p, err: err})
 	return p, err
 }
 

@@ -240,11 +240,11 @@ func (v *Vehicle) At(d Demand, w units.AngularVelocity, rng int) (Point, error) 
 }
 
 // at is At; a non-nil ty holds what does not depend on the engine speed
-// or range (the axle loads and the tyres' solution of d), solved on the
+// or range (d's validation, the axle loads and the tyres' solution of d), solved on the
 // first call that needs it and reused by the others of a search, and a
 // non-nil buf gives a LayoutDrive's point its slices.
 func (v *Vehicle) at(d Demand, w units.AngularVelocity, rng int, ty *tyreMemo, buf *driveBuf) (Point, error) {
-	if err := d.Validate(); err != nil {
+	if err := ty.validate(d); err != nil {
 		return Point{}, err
 	}
 	if !finite(float64(w)) || w <= 0 {
