@@ -231,9 +231,9 @@ func TestMapWorkersIdentical(t *testing.T) {
 func compareMaps(t *testing.T, m1, m4 Map, cells int) {
 	t.Helper()
 	same := func(a, b float64) bool { return math.Float64bits(a) == math.Float64bits(b) }
-	if !slices.Equal(m1.res.binds, m4.res.binds) || len(m1.res.errs) != len(m4.res.errs) || m1.res.n != m4.res.n {
-		t.Fatalf("tables differ: margin names %v and %v, %d and %d errors, %d and %d cells", m1.res.binds, m4.res.binds,
-			len(m1.res.errs), len(m4.res.errs), m1.res.n, m4.res.n)
+	if !slices.Equal(m1.res.binds, m4.res.binds) || m1.res.n != m4.res.n || m1.res.size != m4.res.size {
+		t.Fatalf("tables differ: margin names %v and %v, %d and %d cells in blocks of %d and %d", m1.res.binds, m4.res.binds,
+			m1.res.n, m4.res.n, m1.res.size, m4.res.size)
 	}
 	ok := 0
 	for i := range m1.Torques {
@@ -242,7 +242,11 @@ func compareMaps(t *testing.T, m1, m4 Map, cells int) {
 			if a.OK {
 				ok++
 			}
-			ra, rc := m1.res.cell(i*len(m1.Speeds)+j), m4.res.cell(i*len(m1.Speeds)+j)
+			ra, blk1 := m1.res.cell(i*len(m1.Speeds) + j)
+			rc, blk4 := m4.res.cell(i*len(m1.Speeds) + j)
+			if len(blk1.errs) != len(blk4.errs) {
+				t.Fatalf("cell %d,%d: %d and %d errors in its block", i, j, len(blk1.errs), len(blk4.errs))
+			}
 			ba, bc := a.Binding, c.Binding
 			if a.OK != c.OK || a.Reason() != c.Reason() || a.Range != c.Range || ra.err != rc.err || ra.bind != rc.bind ||
 				!same(float64(a.OutputSpeed), float64(c.OutputSpeed)) || !same(float64(a.OutputTorque), float64(c.OutputTorque)) ||

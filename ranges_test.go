@@ -182,7 +182,7 @@ func TestSweepAndMap(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	// Progress is reported once per chunk of 16 cells (the calls are
+	// Progress is reported once per block of 16 cells (the calls are
 	// serialised), done rising to the total.
 	var dones []int
 	spec := MapSpec{Range: Auto, Input: units.RPM(2000), SpeedFrom: units.RPM(-200), SpeedTo: units.RPM(1400), SpeedSteps: 17,
@@ -205,7 +205,7 @@ func TestSweepAndMap(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if d := cmp.Diff(m1, m4, cmp.AllowUnexported(Map{}, results{}, cell{}, marginName{}), cmpopts.IgnoreFields(results{}, "errs")); d != "" {
+	if d := cmp.Diff(m1, m4, cmp.AllowUnexported(Map{}, results{}, block{}, cell{}, marginName{}), cmpopts.IgnoreFields(block{}, "errs")); d != "" {
 		t.Errorf("map differs with 4 workers:\n%s", d)
 	}
 	ok, bad := 0, 0

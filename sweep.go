@@ -68,7 +68,7 @@ type SweepSpec struct {
 	PTO     []units.Torque
 	Workers int // parallel workers; 0 means GOMAXPROCS
 	// Progress, when not nil, is called as the points complete, after each
-	// chunk of 16 to 224 points (about a 64th of the sweep), with the number
+	// block of 16 to 128 points (about a 256th of the sweep), with the number
 	// done so far and the total; the calls are serialised, done increases
 	// and the last call has done = total.
 	Progress func(done, total int)
@@ -116,7 +116,7 @@ type MapSpec struct {
 	PTO                  []units.Torque
 	Workers              int // parallel workers; 0 means GOMAXPROCS
 	// Progress, when not nil, is called as the cells complete, after each
-	// chunk of 16 to 224 cells (about a 64th of the map), with the number
+	// block of 16 to 128 cells (about a 256th of the map), with the number
 	// done so far and the total; the calls are serialised, done increases
 	// and the last call has done = total.
 	Progress func(done, total int)
@@ -150,7 +150,8 @@ func (m Map) Feasible() [][]bool {
 	}
 	flat := make([]bool, m.res.n)
 	for k := range flat {
-		flat[k] = m.res.cell(k).err == 0
+		c, _ := m.res.cell(k)
+		flat[k] = c.err == 0
 	}
 	mask := make([][]bool, len(m.Torques))
 	for i := range mask {
@@ -163,19 +164,28 @@ func (m Map) Feasible() [][]bool {
 // cell in slices without pointers, which the garbage collector never scans,
 // and the few things with pointers in side tables, the errors of the failed
 // cells and the names of the binding margins. The cells are stored in the
-// chunks the workers solved them in, each allocated (and so zeroed) by its
-// worker: one slice for the whole result had the allocating goroutine clear
-// it alone before the workers could start.
+// blocks the workers solved them in, each allocated (and so zeroed) by its
+// worker with the errors of its cells: one slice for the whole result had
+// the allocating goroutine clear it alone before the workers could start,
+// and one list of errors took a pass over the cells after them.
 type results struct {
 	n      int          // cells
-	chunk  int          // cells per chunk (the last may be shorter)
-	chunks [][]cell     // cell k is chunks[k/chunk][k%chunk]
-	errs   []error      // errs[c.err-1] is why cell c failed
+	size   int          // cells per block (the last may have fewer)
+	blocks []block      // cell k is blocks[k/size].cells[k%size]
 	binds  []marginName // binds[c.bind-1] names cell c's binding margin
 }
 
-// cell returns cell k.
-func (r *results) cell(k int) *cell { return &r.chunks[k/r.chunk][k%r.chunk] }
+// A block holds consecutive cells and the errors of those that failed.
+type block struct {
+	cells []cell
+	errs  []error // errs[c.err-1] is why cell c failed
+}
+
+// cell returns cell k and its block.
+func (r *results) cell(k int) (*cell, *block) {
+	b := &r.blocks[k/r.size]
+	return &b.cells[k%r.size], b
+}
 
 // cell is one Cell as results stores it. A cell is OK when err is 0.
 type cell struct {
@@ -195,7 +205,7 @@ type marginName struct {
 
 // at builds the Cell of cells[k].
 func (r *results) at(k int) Cell {
-	c := r.cell(k)
+	c, b := r.cell(k)
 	out := Cell{OK: c.err == 0, Range: int(c.rng),
 		OutputSpeed: units.AngularVelocity(c.outSpeed), OutputTorque: units.Torque(c.outTorque),
 		InputTorque: units.Torque(c.inTorque), InputPower: units.Power(c.inPower), OutputPower: units.Power(c.outPower),
@@ -204,7 +214,7 @@ func (r *results) at(k int) Cell {
 		PumpSpeed: units.AngularVelocity(c.pumpW), MotorSpeed: units.AngularVelocity(c.motorW),
 		PumpSetting: c.xp, MotorSetting: c.xm}
 	if c.err != 0 {
-		out.Err = r.errs[c.err-1]
+		out.Err = b.errs[c.err-1]
 	}
 	if c.bind != 0 {
 		n := &r.binds[c.bind-1]
@@ -250,12 +260,7 @@ type worker struct {
 	// extra lists binding margins missing from binds (none unless
 	// marginNames misses one of Solver.margins), shared under mu.
 	extra *extraNames
-	errs  []cellErr // this worker's failed cells, in order of index
-}
-
-type cellErr struct {
-	k   int
-	err error
+	errs  []error // the errors of the block being solved
 }
 
 type extraNames struct {
@@ -293,67 +298,57 @@ func (w *worker) bindIndex(m *Margin) uint32 {
 // job solves cell k into c and returns its error (nil when it is OK).
 type job func(w *worker, k int, c *cell) error
 
-// runChunk returns the number of consecutive cells a worker takes (and
-// allocates) at a time out of n: about n/64, so that the workers share the
+// blockSize returns the number of consecutive cells a worker takes (and
+// allocates) at a time out of n: about n/256, so that the workers share the
 // load evenly to the end, but at least 16, so that they rarely meet on the
-// shared counter, and at most 224, so that a chunk (32 KiB) comes from the
-// allocator's per-core caches. It depends on n only, never on the number
-// of workers, so the stored result does not either.
-func runChunk(n int) int { return min(224, max(16, n/64)) }
+// shared counter, and at most 128 (18 KiB). It depends on n only, never on
+// the number of workers, so the stored result does not either.
+func blockSize(n int) int { return min(128, max(16, n/256)) }
 
-// maxCells bounds the cells of a map (the errors' indices are 32-bit).
+// maxCells bounds the cells of a map (the cells' indices are 32-bit).
 const maxCells = 1 << 30
 
-// run solves n cells in chunks of chunk consecutive cells on workers
-// goroutines, each with its own Solver, into one slice of compact cells.
-// Results depend only on the cell, never on the order or the worker, so
-// they are deterministic (and identical for any number of workers): the
-// table of margin names is fixed before the run and the errors are listed
-// in order of the cells.
+// run solves n cells in blocks of consecutive cells on workers goroutines,
+// each with its own Solver, into compact cells. Results depend only on the
+// cell, never on the order or the worker, so they are deterministic (and
+// identical for any number of workers): the table of margin names is fixed
+// before the run and the errors are listed by block in order of the cells.
 func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) results {
-	chunk := runChunk(n)
-	nchunks := (n + chunk - 1) / chunk
+	size := blockSize(n)
+	nblocks := (n + size - 1) / size
 	if workers <= 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	workers = max(1, min(workers, nchunks))
-	res := results{n: n, chunk: chunk, chunks: make([][]cell, nchunks), binds: marginNames(l.l)}
+	workers = max(1, min(workers, nblocks))
+	res := results{n: n, size: size, blocks: make([]block, nblocks), binds: marginNames(l.l)}
 	extra := &extraNames{}
-	// spans[r] is where chunk r's errors are in its worker's list.
-	type span struct{ w, lo, hi int32 }
-	spans := make([]span, nchunks)
-	// Each worker is its own allocation, so that one worker's writes to its
-	// State never share a cache line with another's.
-	ws := make([]*worker, workers)
 	var next atomic.Int64
 	var mu sync.Mutex
 	done := 0
 	var wg sync.WaitGroup
-	for wi := range ws {
-		w := &worker{}
-		ws[wi] = w
+	for range workers {
 		wg.Go(func() {
-			w.s = NewSolver(l)
+			// Each worker is its own allocation, so that one worker's
+			// writes to its State never share a cache line with another's.
+			w := &worker{s: NewSolver(l), q: p, binds: res.binds, extra: extra}
 			w.st = State{Brief: !w.s.general} // a cell needs the summary only
-			w.q = p
 			w.q.Outputs = append([]OutputDemand(nil), p.Outputs...)
-			w.binds, w.extra = res.binds, extra
 			for {
 				r := int(next.Add(1)) - 1
-				if r >= nchunks {
+				if r >= nblocks {
 					return
 				}
-				k0, k1 := r*chunk, min((r+1)*chunk, n)
-				lo := len(w.errs)
+				k0, k1 := r*size, min((r+1)*size, n)
 				cs := make([]cell, k1-k0)
-				res.chunks[r] = cs
+				w.errs = w.errs[:0]
 				for k := range cs {
 					if err := f(w, k0+k, &cs[k]); err != nil {
-						cs[k].err = 1 // numbered below
-						w.errs = append(w.errs, cellErr{k0 + k, err})
+						w.errs = append(w.errs, err)
+						cs[k].err = uint32(len(w.errs))
 					}
 				}
-				spans[r] = span{int32(wi), int32(lo), int32(len(w.errs))}
+				res.blocks[r] = block{cells: cs, errs: slices.Clip(slices.Clone(w.errs))}
+				clear(w.errs) // drop the references
 				if progress != nil {
 					mu.Lock()
 					done += k1 - k0
@@ -364,19 +359,6 @@ func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) res
 		})
 	}
 	wg.Wait()
-	nerr := 0
-	for i := range ws {
-		nerr += len(ws[i].errs)
-	}
-	if nerr > 0 {
-		res.errs = make([]error, 0, nerr)
-		for _, sp := range spans {
-			for _, e := range ws[sp.w].errs[sp.lo:sp.hi] {
-				res.errs = append(res.errs, e.err)
-				res.cell(e.k).err = uint32(len(res.errs))
-			}
-		}
-	}
 	if len(extra.names) > 0 {
 		res.binds = canonicalBinds(res, len(res.binds), extra.names)
 	}
@@ -390,7 +372,7 @@ func canonicalBinds(res results, fixed int, extra []marginName) []marginName {
 	renum := make([]uint32, len(extra))
 	binds := res.binds
 	for k := range res.n {
-		c := res.cell(k)
+		c, _ := res.cell(k)
 		if int(c.bind) <= fixed {
 			continue
 		}
