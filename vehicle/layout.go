@@ -82,6 +82,24 @@ func (d *LayoutDrive) operate(rng int, engine, out units.AngularVelocity, outTor
 	return drivePoint(&d.st, rng, out, outTorque, d.unrated, &d.names, buf), nil
 }
 
+// Solve solves point p of the drive's layout into st with the drive's own
+// solver, under its lock, as powersplit.Solver.Solve does: a caller that
+// solves points of the same layout (a design check) needs no solver of
+// its own.
+func (d *LayoutDrive) Solve(p powersplit.Point, st *powersplit.State) error {
+	d.mu.Lock()
+	defer d.mu.Unlock()
+	return d.solver.Solve(p, st)
+}
+
+// Interval returns the output speeds range p.Range reaches, from the
+// drive's own solver under its lock, as powersplit.Solver.Interval does.
+func (d *LayoutDrive) Interval(p powersplit.Point) ([]powersplit.SpeedInterval, error) {
+	d.mu.Lock()
+	defer d.mu.Unlock()
+	return d.solver.Interval(p)
+}
+
 // LockedRatio returns the output over engine speed of range rng when it is
 // a locked (mechanical) range of the layout (powersplit.Layout.LockedRatio).
 func (d *LayoutDrive) LockedRatio(rng int) (float64, bool) { return d.layout.LockedRatio(rng) }

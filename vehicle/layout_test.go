@@ -2,6 +2,7 @@ package vehicle_test
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"reflect"
 	"slices"
@@ -274,5 +275,32 @@ func TestLeastFuelPointOwnsItsSlices(t *testing.T) {
 		if !reflect.DeepEqual(kept[i], copies[i]) {
 			t.Errorf("point %d changed after later searches:\n%+v\nwant\n%+v", i, kept[i], copies[i])
 		}
+	}
+}
+
+// TestLayoutDriveSolvesLikeASolver: the drive's Solve and Interval give
+// what a solver of its own layout gives.
+func TestLayoutDriveSolvesLikeASolver(t *testing.T) {
+	t.Parallel()
+	l := demoLayout(t)
+	drive, err := vehicle.FromLayout(l)
+	if err != nil {
+		t.Fatal(err)
+	}
+	s := powersplit.NewSolver(l)
+	we := units.RPM(1800)
+	for _, out := range []float64{300, 900, 1500, 90000} {
+		p := powersplit.Point{Input: we, Outputs: []powersplit.OutputDemand{{Speed: units.RPM(out), Torque: units.NewtonMetres(300)}}}
+		var got, want powersplit.State
+		errGot, errWant := drive.Solve(p, &got), s.Solve(p, &want)
+		if fmt.Sprint(errGot) != fmt.Sprint(errWant) || !reflect.DeepEqual(got, want) {
+			t.Errorf("out %v rpm: drive.Solve = %v, %+v\nwant %v, %+v", out, errGot, got.InputTorque, errWant, want.InputTorque)
+		}
+	}
+	p := powersplit.Point{Input: we, Outputs: []powersplit.OutputDemand{{}}}
+	got, errGot := drive.Interval(p)
+	want, errWant := s.Interval(p)
+	if errGot != nil || errWant != nil || len(want) == 0 || !reflect.DeepEqual(got, want) {
+		t.Errorf("drive.Interval = %v, %v; want %v, %v (not empty)", got, errGot, want, errWant)
 	}
 }

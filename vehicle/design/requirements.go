@@ -185,7 +185,7 @@ func (f *File) travel(out units.AngularVelocity) units.Speed {
 
 // intervals returns each range's travel speeds at engine speed w, from s,
 // a solver of l.
-func (f *File) intervals(s *powersplit.Solver, l powersplit.Layout, names []string, w units.AngularVelocity) []Interval {
+func (f *File) intervals(s pointSolver, l powersplit.Layout, names []string, w units.AngularVelocity) []Interval {
 	var out []Interval
 	for rg := range l.Ranges() {
 		ivs, err := s.Interval(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{}}})
@@ -211,13 +211,29 @@ func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
 	if err != nil {
 		return Report{Design: t.Name}, err
 	}
-	return f.check(t, l, v, powersplit.NewSolver(l), req)
+	return f.check(t, l, v, solverOf(v, l), req)
+}
+
+// A pointSolver solves points of one layout: a powersplit.Solver, or the
+// vehicle's vehicle.LayoutDrive, which has one already.
+type pointSolver interface {
+	Solve(p powersplit.Point, st *powersplit.State) error
+	Interval(p powersplit.Point) ([]powersplit.SpeedInterval, error)
+}
+
+// solverOf returns a solver of l, t's layout: the drive of v when it
+// solves l (a vehicle without a front motor), else a new one.
+func solverOf(v *vehicle.Vehicle, l powersplit.Layout) pointSolver {
+	if d, ok := v.Spec().Transmission.(*vehicle.LayoutDrive); ok && d.Layout() == l {
+		return d
+	}
+	return powersplit.NewSolver(l)
 }
 
 // check is Check with t's layout l, vehicle v and a solver s of l, built
 // once for every check (and for Score): the solver's points do not depend
 // on the points it solved before.
-func (f *File) check(t Transmission, l powersplit.Layout, v *vehicle.Vehicle, s *powersplit.Solver, req *Requirements) (Report, error) {
+func (f *File) check(t Transmission, l powersplit.Layout, v *vehicle.Vehicle, s pointSolver, req *Requirements) (Report, error) {
 	rep := Report{Design: t.Name}
 	eng := v.Engine()
 	rated := eng.Rated()
@@ -412,13 +428,13 @@ func (f *File) firstSurface(kind string) string {
 
 // cornerPower is the relief pressure times the pump's full flow at engine
 // speed w: the greatest power the loop could carry.
-func (f *File) cornerPower(s *powersplit.Solver, t Transmission, l powersplit.Layout, w units.AngularVelocity) units.Power {
+func (f *File) cornerPower(s pointSolver, t Transmission, l powersplit.Layout, w units.AngularVelocity) units.Power {
 	pump := f.pumpSpeed(s, l, w)
 	return units.Power(float64(t.Relief) * float64(t.Pump.Displacement) * float64(pump))
 }
 
 // pumpSpeed is the pump's speed at engine speed w, from a solved point.
-func (f *File) pumpSpeed(s *powersplit.Solver, l powersplit.Layout, w units.AngularVelocity) units.AngularVelocity {
+func (f *File) pumpSpeed(s pointSolver, l powersplit.Layout, w units.AngularVelocity) units.AngularVelocity {
 	var st powersplit.State
 	for rg := range l.Ranges() {
 		ivs, err := s.Interval(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{}}})
@@ -446,7 +462,7 @@ func (f *File) outSpeed(v units.Speed) units.AngularVelocity {
 // unitState solves range rg at travel speed v (no load) and returns the
 // worst unit speed over its limit (with the margin that sets it) and the
 // variator's speed ratio, motor over pump, from the solver's margins.
-func (f *File) unitState(s *powersplit.Solver, st *powersplit.State, rg int, w units.AngularVelocity, v units.Speed) (worst float64, m powersplit.Margin, ratio float64, ok bool) {
+func (f *File) unitState(s pointSolver, st *powersplit.State, rg int, w units.AngularVelocity, v units.Speed) (worst float64, m powersplit.Margin, ratio float64, ok bool) {
 	if err := s.Solve(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{Speed: f.outSpeed(v)}}}, st); err != nil {
 		return 0, m, 0, false
 	}
@@ -475,7 +491,7 @@ func (f *File) unitState(s *powersplit.Solver, st *powersplit.State, rg int, w u
 // range that keeps the units furthest below their greatest speeds, and
 // reports the speed where even that range comes closest: the solver's own
 // margins at the binding point.
-func (f *File) unitSpeedCheck(s *powersplit.Solver, l powersplit.Layout, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
+func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
 	var st powersplit.State
 	top := req.TopSpeed
 	if top == 0 {
@@ -536,7 +552,7 @@ func (f *File) unitSpeedCheck(s *powersplit.Solver, l powersplit.Layout, ivs []I
 // shiftCheck compares the variator's speed ratio (motor over pump) in the
 // two ranges of each range change, at the common travel speed where they
 // come closest: a synchronous change needs no jump of the variator.
-func (f *File) shiftCheck(s *powersplit.Solver, l powersplit.Layout, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
+func (f *File) shiftCheck(s pointSolver, l powersplit.Layout, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
 	var st powersplit.State
 	worst, at := 0.0, ""
 	for i := 0; i+1 < l.Ranges(); i++ {

@@ -124,7 +124,7 @@ func (f *File) Score(req *Requirements, spec []SpectrumPoint) ([]float64, string
 	if err != nil {
 		return nil, firstLine(err)
 	}
-	solver := powersplit.NewSolver(l)
+	solver := solverOf(v, l)
 	if req != nil {
 		rep, err := f.check(t, l, v, solver, req)
 		if err != nil {
