@@ -82,11 +82,18 @@ func (d *LayoutDrive) operate(rng int, engine, out units.AngularVelocity, outTor
 	return drivePoint(&d.st, rng, out, outTorque, d.unrated, &d.names, buf), nil
 }
 
+// errUnbuilt is a LayoutDrive's refusal to solve without a layout (the
+// zero LayoutDrive).
+var errUnbuilt = invalid("LayoutDrive", math.NaN(), "not built with FromLayout")
+
 // Solve solves point p of the drive's layout into st with the drive's own
 // solver, under its lock, as powersplit.Solver.Solve does: a caller that
 // solves points of the same layout (a design check) needs no solver of
 // its own.
 func (d *LayoutDrive) Solve(p powersplit.Point, st *powersplit.State) error {
+	if d.solver == nil {
+		return errUnbuilt
+	}
 	d.mu.Lock()
 	defer d.mu.Unlock()
 	return d.solver.Solve(p, st)
@@ -95,6 +102,9 @@ func (d *LayoutDrive) Solve(p powersplit.Point, st *powersplit.State) error {
 // Interval returns the output speeds range p.Range reaches, from the
 // drive's own solver under its lock, as powersplit.Solver.Interval does.
 func (d *LayoutDrive) Interval(p powersplit.Point) ([]powersplit.SpeedInterval, error) {
+	if d.solver == nil {
+		return nil, errUnbuilt
+	}
 	d.mu.Lock()
 	defer d.mu.Unlock()
 	return d.solver.Interval(p)

@@ -304,3 +304,17 @@ func TestLayoutDriveSolvesLikeASolver(t *testing.T) {
 		t.Errorf("drive.Interval = %v, %v; want %v, %v (not empty)", got, errGot, want, errWant)
 	}
 }
+
+// TestZeroLayoutDriveSolvesNothing: the zero LayoutDrive refuses Solve and
+// Interval with ErrInvalid.
+func TestZeroLayoutDriveSolvesNothing(t *testing.T) {
+	t.Parallel()
+	var d vehicle.LayoutDrive
+	var st powersplit.State
+	if err := d.Solve(powersplit.Point{}, &st); !errors.Is(err, vehicle.ErrInvalid) {
+		t.Errorf("zero LayoutDrive.Solve = %v, want ErrInvalid", err)
+	}
+	if _, err := d.Interval(powersplit.Point{}); !errors.Is(err, vehicle.ErrInvalid) {
+		t.Errorf("zero LayoutDrive.Interval = %v, want ErrInvalid", err)
+	}
+}
