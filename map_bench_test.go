@@ -248,7 +248,7 @@ func compareMaps(t *testing.T, m1, m4 Map, cells int) {
 				t.Fatalf("cell %d,%d: %d and %d errors in its block", i, j, len(blk1.errs), len(blk4.errs))
 			}
 			ba, bc := a.Binding, c.Binding
-			if a.OK != c.OK || a.Reason() != c.Reason() || a.Range != c.Range || ra.err != rc.err || ra.bind != rc.bind ||
+			if a.OK != c.OK || a.Reason() != c.Reason() || a.Range != c.Range || ra.aux != rc.aux ||
 				!same(float64(a.OutputSpeed), float64(c.OutputSpeed)) || !same(float64(a.OutputTorque), float64(c.OutputTorque)) ||
 				!same(float64(a.InputTorque), float64(c.InputTorque)) || !same(float64(a.InputPower), float64(c.InputPower)) ||
 				!same(float64(a.OutputPower), float64(c.OutputPower)) || !same(float64(a.Loss), float64(c.Loss)) ||

@@ -151,7 +151,7 @@ func (m Map) Feasible() [][]bool {
 	flat := make([]bool, m.res.n)
 	for k := range flat {
 		c, _ := m.res.cell(k)
-		flat[k] = c.err == 0
+		flat[k] = !c.failed()
 	}
 	mask := make([][]bool, len(m.Torques))
 	for i := range mask {
@@ -172,13 +172,14 @@ type results struct {
 	n      int          // cells
 	size   int          // cells per block (the last may have fewer)
 	blocks []block      // cell k is blocks[k/size].cells[k%size]
-	binds  []marginName // binds[c.bind-1] names cell c's binding margin
+	binds  []marginName // binds[c.aux-1] names OK cell c's binding margin
+	speeds []float64    // cell k's output speed is speeds[k%len(speeds)]
 }
 
 // A block holds consecutive cells and the errors of those that failed.
 type block struct {
 	cells []cell
-	errs  []error // errs[c.err-1] is why cell c failed
+	errs  []error // errs[c.aux&^failed] is why failed cell c failed
 }
 
 // cell returns cell k and its block.
@@ -187,39 +188,55 @@ func (r *results) cell(k int) (*cell, *block) {
 	return &b.cells[k%r.size], b
 }
 
-// cell is one Cell as results stores it. A cell is OK when err is 0.
+// cell is one Cell as results stores it: 120 bytes. The output speed is
+// the result's axis, the binding margin's limit and names are in the
+// result's table.
 type cell struct {
-	outSpeed, outTorque, inTorque, inPower, outPower, loss float64
-	eff, share, dp, high, pumpW, motorW, xp, xm            float64
-	bindValue, bindLimit                                   float64
-	rng                                                    int32
-	err, bind                                              uint32
+	outTorque, inTorque, inPower, outPower, loss float64
+	eff, share, dp, high, pumpW, motorW, xp, xm  float64
+	bindValue                                    float64
+	rng                                          int32
+	// aux is, for an OK cell, the index (+1) of its binding margin's names
+	// in results.binds (0: none); for a failed cell, failedBit and the index
+	// of its error in its block's errs.
+	aux uint32
 }
 
-// marginName is what a Margin holds besides its two numbers.
+const failedBit = 1 << 31
+
+// failed reports whether the cell did not solve.
+func (c *cell) failed() bool { return c.aux&failedBit != 0 }
+
+// marginName is what a binding Margin holds besides its value (its limit
+// as bits, so that names compare with ==).
 type marginName struct {
 	element, quantity, bound string
+	limit                    uint64
 	kind                     units.Kind
 	unchecked                bool
+}
+
+func newMarginName(element, quantity, bound string, limit float64, kind units.Kind, unchecked bool) marginName {
+	return marginName{element, quantity, bound, math.Float64bits(limit), kind, unchecked}
 }
 
 // at builds the Cell of cells[k].
 func (r *results) at(k int) Cell {
 	c, b := r.cell(k)
-	out := Cell{OK: c.err == 0, Range: int(c.rng),
-		OutputSpeed: units.AngularVelocity(c.outSpeed), OutputTorque: units.Torque(c.outTorque),
+	out := Cell{OK: !c.failed(), Range: int(c.rng),
+		OutputSpeed: units.AngularVelocity(r.speeds[k%len(r.speeds)]), OutputTorque: units.Torque(c.outTorque),
 		InputTorque: units.Torque(c.inTorque), InputPower: units.Power(c.inPower), OutputPower: units.Power(c.outPower),
 		Loss: units.Power(c.loss), Efficiency: c.eff, HydraulicShare: c.share,
 		Pressure: units.Pressure(c.dp), HighPressure: units.Pressure(c.high),
 		PumpSpeed: units.AngularVelocity(c.pumpW), MotorSpeed: units.AngularVelocity(c.motorW),
 		PumpSetting: c.xp, MotorSetting: c.xm}
-	if c.err != 0 {
-		out.Err = b.errs[c.err-1]
-	}
-	if c.bind != 0 {
-		n := &r.binds[c.bind-1]
+	switch {
+	case c.failed():
+		out.Err = b.errs[c.aux&^failedBit]
+	case c.aux != 0:
+		n := &r.binds[c.aux-1]
 		out.Binding = Margin{Element: n.element, Quantity: n.quantity, Bound: n.bound, Unchecked: n.unchecked,
-			Value: measure(c.bindValue, n.kind), Limit: measure(c.bindLimit, n.kind)}
+			Value: measure(c.bindValue, n.kind), Limit: measure(math.Float64frombits(n.limit), n.kind)}
 	}
 	return out
 }
@@ -233,18 +250,18 @@ func marginNames(l *layout) []marginName {
 	var out []marginName
 	for i := range l.ranges {
 		if r := &l.ranges[i]; r.maxOut > 0 {
-			out = append(out, marginName{r.name, "output speed", boundRangeSpeed, w, false})
+			out = append(out, newMarginName(r.name, "output speed", boundRangeSpeed, r.maxOut, w, false))
 		}
 	}
 	for _, e := range l.loops {
 		el := &l.elems[e]
-		out = append(out, marginName{el.name, "high-line pressure", boundRelief, pa, el.lspec.Relief <= 0})
+		out = append(out, newMarginName(el.name, "high-line pressure", boundRelief, float64(el.lspec.Relief), pa, el.lspec.Relief <= 0))
 		for k := range el.shafts {
 			us := &el.uspec[k]
 			out = append(out,
-				marginName{el.name, el.unames[k][0], boundPeak, pa, us.PeakPressure <= 0},
-				marginName{el.name, el.unames[k][1], boundSpeed, w, us.MaxSpeed <= 0},
-				marginName{el.name, el.unames[k][2], boundFull, units.Number, false})
+				newMarginName(el.name, el.unames[k][0], boundPeak, float64(us.PeakPressure), pa, us.PeakPressure <= 0),
+				newMarginName(el.name, el.unames[k][1], boundSpeed, float64(us.MaxSpeed), w, us.MaxSpeed <= 0),
+				newMarginName(el.name, el.unames[k][2], boundFull, 1, units.Number, false))
 		}
 	}
 	return out
@@ -274,7 +291,7 @@ func (w *worker) bindIndex(m *Margin) uint32 {
 	if m.Element == "" && m.Quantity == "" && m.Bound == "" {
 		return 0
 	}
-	n := marginName{m.Element, m.Quantity, m.Bound, m.Value.Kind, m.Unchecked}
+	n := newMarginName(m.Element, m.Quantity, m.Bound, m.Limit.SI, m.Value.Kind, m.Unchecked)
 	if w.last != 0 && w.last <= uint32(len(w.binds)) && w.binds[w.last-1] == n {
 		return w.last
 	}
@@ -343,8 +360,8 @@ func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) res
 				w.errs = w.errs[:0]
 				for k := range cs {
 					if err := f(w, k0+k, &cs[k]); err != nil {
+						cs[k].aux = failedBit | uint32(len(w.errs))
 						w.errs = append(w.errs, err)
-						cs[k].err = uint32(len(w.errs))
 					}
 				}
 				res.blocks[r] = block{cells: cs, errs: slices.Clip(slices.Clone(w.errs))}
@@ -373,15 +390,15 @@ func canonicalBinds(res results, fixed int, extra []marginName) []marginName {
 	binds := res.binds
 	for k := range res.n {
 		c, _ := res.cell(k)
-		if int(c.bind) <= fixed {
+		if c.failed() || int(c.aux) <= fixed {
 			continue
 		}
-		x := int(c.bind) - fixed - 1
+		x := int(c.aux) - fixed - 1
 		if renum[x] == 0 {
 			binds = append(binds, extra[x])
 			renum[x] = uint32(len(binds))
 		}
-		c.bind = renum[x]
+		c.aux = renum[x]
 	}
 	return binds
 }
@@ -408,10 +425,10 @@ func solveCell(w *worker, rg int, pol Policy, c *cell) error {
 		err = s.Solve(*q, st)
 	}
 	if err != nil {
-		*c = cell{rng: int32(st.Range), outSpeed: float64(q.Outputs[0].Speed), outTorque: float64(q.Outputs[0].Torque)}
+		*c = cell{rng: int32(st.Range), outTorque: float64(q.Outputs[0].Torque)}
 		return err
 	}
-	*c = cell{rng: int32(st.Range), outSpeed: float64(q.Outputs[0].Speed), outTorque: float64(st.Outputs[0].Torque),
+	*c = cell{rng: int32(st.Range), outTorque: float64(st.Outputs[0].Torque),
 		inTorque: float64(st.InputTorque), inPower: float64(st.InputPower), outPower: float64(st.OutputPower),
 		loss: float64(st.Loss), eff: st.Efficiency, share: st.HydraulicShare}
 	if len(st.Loops) > 0 {
@@ -422,8 +439,8 @@ func solveCell(w *worker, rg int, pol Policy, c *cell) error {
 			c.xm, c.motorW = lp.Motors[0].Setting, float64(lp.Motors[0].Speed)
 		}
 	}
-	if c.bind = w.bindIndex(&st.Binding); c.bind != 0 {
-		c.bindValue, c.bindLimit = st.Binding.Value.SI, st.Binding.Limit.SI
+	if c.aux = w.bindIndex(&st.Binding); c.aux != 0 {
+		c.bindValue = st.Binding.Value.SI
 	}
 	return nil
 }
@@ -461,6 +478,7 @@ func (l Layout) Sweep(spec SweepSpec) (Sweep, error) {
 		}
 		return powerCell(w, spec.Range, spec.Policy, float64(spec.Power), c)
 	})
+	res.speeds = vs
 	out := Sweep{Design: spec.Design, Input: spec.Input, RangeNames: l.rangeNames(),
 		Speeds: make([]units.AngularVelocity, len(vs)), res: res}
 	for i, v := range vs {
@@ -514,7 +532,7 @@ func powerCell(w *worker, rg int, pol Policy, P float64, c *cell) error {
 			break
 		}
 	}
-	*c = cell{outSpeed: float64(speed), rng: int32(rg)}
+	*c = cell{rng: int32(rg)}
 	if lim != nil {
 		return &PowerError{Power: units.Power(P), Err: lim}
 	}
@@ -566,6 +584,7 @@ func (l Layout) Map(spec MapSpec) (Map, error) {
 		q.Outputs[0].Torque = units.Torque(ts[i])
 		return solveCell(w, spec.Range, spec.Policy, c)
 	})
+	res.speeds = vs
 	m := Map{Design: spec.Design, Input: spec.Input, RangeNames: l.rangeNames(),
 		Speeds: make([]units.AngularVelocity, nv), Torques: make([]units.Torque, len(ts)), res: res}
 	for j, v := range vs {
