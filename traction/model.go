@@ -88,13 +88,26 @@ func makePull(load units.Force, slip, gt, mr float64) Pull {
 }
 
 func checkLoadSlip(load units.Force, slip float64) error {
-	if !finite(float64(load)) || load <= 0 {
+	if !validLoad(load) {
 		return rangeErr(ErrLoad, "wheel load", load, "> 0 and finite")
 	}
-	if !(slip >= MinSlip && slip < 1) {
+	if !validSlip(slip) {
 		return rangeErr(ErrSlip, "slip", slip, "in [-0.5, 1)")
 	}
 	return nil
+}
+
+func validLoad(load units.Force) bool { return finite(float64(load)) && load > 0 }
+
+func validSlip(slip float64) bool { return slip >= MinSlip && slip < 1 }
+
+// A netModel gives a wheel's net pull alone, as Pull's Net, for a tyre and
+// surface it accepted (NewWheel checks them): the slip searches ask for
+// nothing else, many times per solution, so the checks of the tyre and
+// surface and the rest of the Pull are left out. ok is false where Pull
+// would refuse the load or slip.
+type netModel interface {
+	net(t Tyre, s Surface, load units.Force, slip float64) (net float64, ok bool)
 }
 
 func checkSoil(t Tyre, s Surface) error {
@@ -148,12 +161,28 @@ func (m Brixius) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, 
 	if err := checkLoadSlip(load, slip); err != nil {
 		return Pull{}, err
 	}
-	bn := brixiusBn(t, s, load)
-	gt := 0.88*(1-math.Exp(-0.1*bn))*slipRise(7.5, slip) + 0.04
-	mr := 1/bn + 0.04 + 0.5*math.Abs(slip)/math.Sqrt(bn)
+	gt, mr := brixiusTerms(t, s, load, slip)
 	p := makePull(load, slip, gt, mr)
 	p.Outside = brixiusOutside(t, slip)
 	return p, nil
+}
+
+// net implements netModel: makePull's Net of the same terms.
+func (Brixius) net(t Tyre, s Surface, load units.Force, slip float64) (float64, bool) {
+	if !validLoad(load) || !validSlip(slip) {
+		return 0, false
+	}
+	gt, mr := brixiusTerms(t, s, load, slip)
+	return float64(units.Force((gt - mr) * float64(load))), true
+}
+
+// brixiusTerms returns the gross traction and motion resistance ratios,
+// GT and MR, of a checked tyre, soil, load and slip.
+func brixiusTerms(t Tyre, s Surface, load units.Force, slip float64) (gt, mr float64) {
+	bn := brixiusBn(t, s, load)
+	gt = 0.88*(1-math.Exp(-0.1*bn))*slipRise(7.5, slip) + 0.04
+	mr = 1/bn + 0.04 + 0.5*math.Abs(slip)/math.Sqrt(bn)
+	return gt, mr
 }
 
 // The ranges of b/d and δ/h the Brixius equations are used within without

@@ -66,6 +66,12 @@ func (w Wheel) pull(load units.Force, slip float64) (Pull, error) {
 // net returns the net pull at slip, or -Inf when the model refuses (which
 // the validated inputs never cause).
 func (w Wheel) net(load units.Force, slip float64) float64 {
+	if m, ok := w.model.(netModel); ok {
+		if n, ok := m.net(w.tyre, w.surface, load, slip); ok {
+			return n
+		}
+		return bigNeg
+	}
 	p, err := w.model.Pull(w.tyre, w.surface, load, slip)
 	if err != nil {
 		return bigNeg
