@@ -49,6 +49,28 @@ func BenchmarkLayoutAt(b *testing.B) {
 	}
 }
 
+// BenchmarkLeastFuelLayout is one least-fuel search with the transmission
+// solved point by point by the root package's solver (LayoutDrive): each
+// engine speed and range it asks for solved once, the tyres once.
+func BenchmarkLeastFuelLayout(b *testing.B) {
+	drive, err := vehicle.FromLayout(demoLayout(b))
+	if err != nil {
+		b.Fatal(err)
+	}
+	v, err := vehicle.New(vehicle.Spec{Mass: units.Tonnes(9), Tyres: demoTyres(0.03), Transmission: drive,
+		FinalDrive: 20, Engine: demoEngine(b, true)})
+	if err != nil {
+		b.Fatal(err)
+	}
+	d := vehicle.Demand{Speed: units.KMH(8), Draft: units.Kilonewtons(15)}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := (vehicle.LeastFuel{}).Operate(v, d); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
 // BenchmarkShortCycle simulates the tests' short duty cycle (a start to
 // 8 km/h, a 400 m field pass, a 20 s headland turn, 1 km of road with a
 // trailer over a hill and 2 min of stationary PTO work: 7.4 min of work in
