@@ -327,3 +327,56 @@ func TestSolveAllocatesNothingOverPoints(t *testing.T) {
 		t.Errorf("solving %d points allocates %v times", len(pts), n)
 	}
 }
+
+// BenchmarkCompiledSteps times, one by one, the steps a lossy benchmark
+// point takes on the compiled path (compiled.go), each repeated on the same
+// point with everything else held, beside the whole solve: the item by
+// item profile behind the ratio to the lossy floor. In order: the entry's
+// checks, the held settings, the shaft speeds, the units' speed limits,
+// the loop's Curve at those speeds, the factored system of the range and
+// directions, Newton's method on the loop pressure (every evaluation),
+// one evaluation of the unit torques alone, the key ports' torques, the
+// reading of the directions, the loop state at the final pressure, the
+// sizing of the State, the summary (margins included) and the margins
+// alone. On one core the steps add up to about three quarters of the
+// solve; the rest is the calls between them, the copies of the first
+// guess and the second pass some points take.
+func BenchmarkCompiledSteps(b *testing.B) {
+	s := NewSolver(benchLayout(b, true))
+	st := State{Brief: true}
+	p := benchPoints(b)[5]
+	if err := s.Solve(p, &st); err != nil {
+		b.Fatal(err)
+	}
+	e, r, c := s.recent, &s.l.ranges[p.Range], &s.comp
+	el := &s.l.elems[s.l.loops[0]]
+	wp := units.AngularVelocity(s.w[el.shafts[0]])
+	var evals int
+	for _, step := range []struct {
+		name string
+		f    func()
+	}{
+		{"solve", func() { _ = s.Solve(p, &st) }},
+		{"check", func() { _ = s.checkEntry(&p, &st) }},
+		{"held-settings", func() { s.setPins(&p, false) }},
+		{"speeds", func() { s.l.speeds(r, float64(p.Input), s.outW, s.w) }},
+		{"unit-speeds", func() { _ = s.unitSpeeds() }},
+		{"curve", func() { el.loop.Curve(wp, c.wms, &c.curve) }},
+		{"system", func() { s.entry(r, &p) }},
+		{"newton", func() { s.newton(e, &p, nil, math.Inf(1), &evals) }},
+		{"unit-torques", func() { c.curve.Torques(st.Loops[0].Pressure, c.settings, c.tau, c.slope) }},
+		{"key-ports", func() { s.portTorques(e, nil, c.keyPorts) }},
+		{"directions", func() { s.readDirections() }},
+		{"loop-state", func() { _ = c.curve.Fill(st.Loops[0].Pressure, c.settings, &st.Loops[0].LoopState) }},
+		{"size", func() { st.size(s.l) }},
+		{"summary", func() { s.summaryC(&st, &p, r, st.Iterations, 1) }},
+		{"margins", func() { s.margins(&st, true) }},
+	} {
+		b.Run(step.name, func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				step.f()
+			}
+		})
+	}
+}
