@@ -111,8 +111,8 @@ type compiledState struct {
 	// these unless the full State is asked for.
 	keyPorts []int32
 	acc      []float64 // the key ports' sums (portTorques)
-	gears    []int32 // element indices of the gears with a loss (η < 1)
-	lossy    []int32 // element indices of the elements with a loss: lossy gears, sets, the loop
+	gears    []int32   // element indices of the gears with a loss (η < 1)
+	lossy    []int32   // element indices of the elements with a loss: lossy gears, sets, the loop
 }
 
 func (s *Solver) initCompiled() {
@@ -154,6 +154,10 @@ func (s *Solver) initCompiled() {
 	c.lossy = append(c.lossy, int32(l.loops[0]))
 	c.keyPorts = key
 	c.acc = make([]float64, len(key))
+	m := len(l.outputs) + len(l.ptos) + s.nU
+	for i := range s.cache {
+		s.cache[i].kt = make([]float64, len(key)*m) // sized now: no solve allocates
+	}
 	// Size the curve's storage now (at standstill), so that no solve
 	// allocates.
 	l.elems[l.loops[0]].loop.Curve(0, c.wms, &c.curve)
