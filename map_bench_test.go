@@ -192,8 +192,8 @@ func cpuCeiling(short bool) float64 {
 }
 
 // TestMapWorkersIdentical checks that a map solved by 1, 2 and 4 workers
-// is bit-identical, cell by cell: a square map (the workers take rows) and
-// a wide one of 3 rows (the workers take chunks of cells). The compiled
+// is bit-identical, cell by cell, and again by 1 worker from the pool
+// after them: a square map and a wide one of 3 rows. The compiled
 // path's first guess of the directions is the last point's, which differs
 // with the order the workers take the cells in: only the guess, never the
 // result.
@@ -222,6 +222,13 @@ func TestMapWorkersIdentical(t *testing.T) {
 			}
 			compareMaps(t, m1, m, n*rows)
 		}
+		// Again with 1 worker: the pooled workers have solved other
+		// points since, which must not change a result.
+		again, err := l.Map(spec1)
+		if err != nil {
+			t.Fatal(err)
+		}
+		compareMaps(t, m1, again, n*rows)
 	}
 }
 

@@ -5,9 +5,12 @@ import (
 	"encoding/csv"
 	"math"
 	"reflect"
+	"runtime"
 	"slices"
 	"strconv"
 	"testing"
+	"time"
+	"weak"
 
 	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/units"
@@ -227,4 +230,38 @@ func TestCellHasNoPointers(t *testing.T) {
 	if typ.Size() > 120 {
 		t.Errorf("cell is %d bytes, want at most 120", typ.Size())
 	}
+}
+
+// TestWorkerPoolLetsLayoutGo checks that the pool of idle map workers does
+// not keep a layout alive: once the layout is unreachable, the collector
+// frees it (the pooled workers refer to it) and its pool's entry goes.
+// Not parallel: it counts the entries.
+func TestWorkerPoolLetsLayoutGo(t *testing.T) {
+	count := func() int {
+		n := 0
+		workerPools.Range(func(_, _ any) bool { n++; return true })
+		return n
+	}
+	before := count()
+	key := func() weak.Pointer[layout] {
+		l := benchLayout(t, true)
+		if _, err := l.Map(benchMapSpec(8, 2)); err != nil {
+			t.Fatal(err)
+		}
+		if _, ok := workerPools.Load(weak.Make(l.l)); !ok {
+			t.Fatal("the map left no pool of workers for its layout")
+		}
+		return weak.Make(l.l)
+	}()
+	for range 100 {
+		runtime.GC()
+		if _, ok := workerPools.Load(key); !ok && key.Value() == nil {
+			if n := count(); n > before {
+				t.Errorf("%d pools after the layout went, %d before", n, before)
+			}
+			return
+		}
+		time.Sleep(time.Millisecond)
+	}
+	t.Errorf("the layout is still alive (%v) or its pool still listed after 100 collections", key.Value() != nil)
 }
