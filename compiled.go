@@ -110,9 +110,8 @@ type compiledState struct {
 	// ports, every set's sun, the pump): the compiled path computes only
 	// these unless the full State is asked for.
 	keyPorts []int32
-	acc      []float64 // the key ports' sums (portTorques)
-	gears    []int32   // element indices of the gears with a loss (η < 1)
-	lossy    []int32   // element indices of the elements with a loss: lossy gears, sets, the loop
+	gears    []int32 // element indices of the gears with a loss (η < 1)
+	lossy    []int32 // element indices of the elements with a loss: lossy gears, sets, the loop
 }
 
 func (s *Solver) initCompiled() {
@@ -153,11 +152,6 @@ func (s *Solver) initCompiled() {
 	key = append(key, int32(l.elems[l.loops[0]].port0))
 	c.lossy = append(c.lossy, int32(l.loops[0]))
 	c.keyPorts = key
-	c.acc = make([]float64, len(key))
-	m := len(l.outputs) + len(l.ptos) + s.nU
-	for i := range s.cache {
-		s.cache[i].kt = make([]float64, len(key)*m) // sized now: no solve allocates
-	}
 	// Size the curve's storage now (at standstill), so that no solve
 	// allocates.
 	l.elems[l.loops[0]].loop.Curve(0, c.wms, &c.curve)
@@ -440,24 +434,27 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 	m := len(v)
 	t := s.t[:s.l.nPorts]
 	pt := e.pt[:len(t)*m]
-	if ports != nil {
-		// Column by column over the key ports (e.kt): the sums of the
-		// ports are independent, so they advance side by side instead of
-		// waiting on one another's additions; each port's sum is taken in
-		// the order of its row, as below.
-		nk := len(ports)
-		acc := c.acc[:nk]
-		clear(acc)
-		kt := e.kt[:nk*m]
-		for j, vj := range v {
-			col := kt[j*nk : (j+1)*nk]
-			a := acc[:len(col)] // no bounds check in the loop
-			for k, x := range col {
-				a[k] += x * vj
+	if ports != nil && m == 4 {
+		// Four columns (one output and a PTO or two outputs, two units):
+		// each key port's sum written out, in its row's order.
+		v0, v1, v2, v3 := v[0], v[1], v[2], v[3]
+		for _, i := range ports {
+			row := pt[int(i)*4 : int(i)*4+4 : int(i)*4+4]
+			sum := 0 + row[0]*v0 + row[1]*v1 + row[2]*v2 + row[3]*v3
+			if dz != nil {
+				sum += dz[i]
 			}
+			t[i] = sum
 		}
-		for k, i := range ports {
-			sum := acc[k]
+		return
+	}
+	if ports != nil {
+		for _, i := range ports {
+			row := pt[int(i)*m : int(i+1)*m]
+			var sum float64
+			for j, x := range row {
+				sum += x * v[j]
+			}
 			if dz != nil {
 				sum += dz[i]
 			}

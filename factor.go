@@ -76,10 +76,6 @@ type sysEntry struct {
 	// pt holds, port by port, the rows of H then W: T_port = H·b + W·τ
 	// (the compiled path, compiled.go), nPorts × (nExt + units).
 	pt []float64
-	// kt holds the rows of pt of the compiled path's key ports, transposed
-	// (column j of every key port, then column j+1): the key ports'
-	// torques accumulate side by side, each in the order of pt's row.
-	kt []float64
 }
 
 // initCache allocates the cache and the work space of the Woodbury solve.
@@ -201,17 +197,6 @@ func (s *Solver) factor(e *sysEntry, r *rangeDef, p *Point) {
 			}
 			for u := 0; u < s.nU; u++ {
 				e.pt[i*m+e.nExt+u] = e.w[u*n+i]
-			}
-		}
-		if key := s.comp.keyPorts; key != nil {
-			nk := len(key)
-			if len(e.kt) != nk*m {
-				e.kt = make([]float64, nk*m)
-			}
-			for k, i := range key {
-				for j := range m {
-					e.kt[j*nk+k] = e.pt[int(i)*m+j]
-				}
 			}
 		}
 		e.ok = true
