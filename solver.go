@@ -55,6 +55,7 @@ type Solver struct {
 	bindV    float64
 	rangeM   []marginDesc   // per range: its speed limit (initMargins)
 	loopM    [][]marginDesc // per loop: its margins (initMargins)
+	mval     []float64      // a loop's margins' values (margins)
 
 	// The factored torque systems (see factor.go) and the work space of
 	// their solve.

@@ -523,6 +523,7 @@ func (s *Solver) initMargins() {
 		s.rangeM[i] = marginDesc{elem: r.name, quantity: "output speed", bound: boundRangeSpeed, limit: r.maxOut, kind: w}
 	}
 	s.loopM = make([][]marginDesc, len(l.loops))
+	s.mval = make([]float64, 1) // the range's speed limit; a loop's below
 	for j, e := range l.loops {
 		el := &l.elems[e]
 		spec := &el.lspec
@@ -536,6 +537,9 @@ func (s *Solver) initMargins() {
 				marginDesc{elem: el.name, quantity: el.unames[k][2], bound: boundFull, limit: 1, kind: units.Number})
 		}
 		s.loopM[j] = ds
+		if len(ds) > len(s.mval) {
+			s.mval = make([]float64, len(ds))
+		}
 	}
 }
 
@@ -548,64 +552,74 @@ func (s *Solver) margins(st *State, known bool) {
 	l := s.l
 	st.Margins = st.Margins[:0]
 	st.Flags = st.Flags[:0]
-	st.Binding = Margin{}
 	s.bad = nil
 	if !known {
+		st.Binding = Margin{}
 		return
 	}
 	s.room, s.bind = math.Inf(1), nil
 	if r := &l.ranges[st.Range]; r.maxOut > 0 {
-		s.margin(st, &s.rangeM[st.Range], math.Abs(s.outW[0]))
+		v := s.mval[:1]
+		v[0] = math.Abs(s.outW[0])
+		s.take(st, s.rangeM[st.Range:st.Range+1], v)
 	}
 	for j := range l.loops {
 		ds := s.loopM[j]
 		ls := &st.Loops[j]
 		dp := math.Abs(float64(ls.Pressure))
-		s.margin(st, &ds[0], float64(l.elems[l.loops[j]].lspec.Charge)+dp)
-		for k := 1; k < len(ds); k += 4 {
+		v := s.mval[:len(ds)]
+		v[0] = float64(l.elems[l.loops[j]].lspec.Charge) + dp
+		for k := 1; k+3 < len(v); k += 4 {
 			pt := &ls.Pump
 			if k > 1 {
 				pt = &ls.Motors[(k-1)/4-1]
 			}
-			s.margin(st, &ds[k], dp)
-			s.margin(st, &ds[k+1], dp)
-			s.margin(st, &ds[k+2], math.Abs(float64(pt.Speed)))
-			s.margin(st, &ds[k+3], math.Abs(pt.Setting))
+			v[k], v[k+1], v[k+2], v[k+3] = dp, dp, math.Abs(float64(pt.Speed)), math.Abs(pt.Setting)
 		}
+		s.take(st, ds, v)
 	}
-	if s.bind != nil {
-		st.Binding = s.bind.at(s.bindV)
+	b := &st.Binding
+	if d := s.bind; d != nil {
+		// Field by field: a composite literal is built aside and copied.
+		b.Element, b.Quantity, b.Bound, b.Unchecked = d.elem, d.quantity, d.bound, d.unchecked
+		b.Value, b.Limit = measure(s.bindV, d.kind), measure(d.limit, d.kind)
+	} else {
+		*b = Margin{}
 	}
 }
 
-// margin takes margin d at value v into st: listed unless st is Brief,
-// flagged when a crossed rating, the binding one when it has the least
-// room so far (s.room), and kept for limits when it is the first crossed
-// limit. The Margin value is built only where it is kept.
-func (s *Solver) margin(st *State, d *marginDesc, v float64) {
-	if !st.Brief {
-		st.Margins = append(st.Margins, d.at(v))
-	}
-	if d.unchecked {
-		return
-	}
-	left := d.limit - v
-	crossed := left < -1e-12*d.limit // Margin.Crossed
-	if d.rated {
-		if crossed {
-			st.Flags = append(st.Flags, d.at(v))
+// take takes the margins ds at values v into st: each listed unless st is
+// Brief, flagged when a crossed rating, the binding one when it has the
+// least room so far (s.room), and kept for limits when it is the first
+// crossed limit. A Margin value is built only where it is kept.
+func (s *Solver) take(st *State, ds []marginDesc, v []float64) {
+	v = v[:len(ds)]
+	for k := range ds {
+		d := &ds[k]
+		if !st.Brief {
+			st.Margins = append(st.Margins, d.at(v[k]))
 		}
-		return // a rating is a flag, not a limit
-	}
-	r := left
-	if d.limit != 1 { // a setting's limit: left/1 is left, without the division
-		r = left / d.limit
-	}
-	if r < s.room {
-		s.room, s.bind, s.bindV = r, d, v
-	}
-	if s.bad == nil && crossed {
-		s.bad, s.badV = d, v
+		if d.unchecked {
+			continue
+		}
+		left := d.limit - v[k]
+		crossed := left < -1e-12*d.limit // Margin.Crossed
+		if d.rated {
+			if crossed {
+				st.Flags = append(st.Flags, d.at(v[k]))
+			}
+			continue // a rating is a flag, not a limit
+		}
+		r := left
+		if d.limit != 1 { // a setting's limit: left/1 is left, without the division
+			r = left / d.limit
+		}
+		if r < s.room {
+			s.room, s.bind, s.bindV = r, d, v[k]
+		}
+		if s.bad == nil && crossed {
+			s.bad, s.badV = d, v[k]
+		}
 	}
 }
 
