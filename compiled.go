@@ -99,12 +99,13 @@ type compiledState struct {
 	settings []float64
 	b        []float64   // given torques, in the order of the entries' extSrc
 	v        []float64   // b, then the units' torques
-	guessK   [][]float64 // per range: the directions the last point ended with
+	guessK   [][]float64 // per range and quadrant (guessSlot): the directions the last such point ended with
 	guessF   [][]int8
 	guessOK  []bool
 	seenK    []float64 // the directions of the first pass, to catch oscillation
 	seenF    []int8
 	hits     int // points solved on the compiled path (for tests)
+	passes   int // direction sets tried on the compiled path (for tests)
 	// keyPorts are the ports whose torques a point's summary and its
 	// directions read (the input, outputs and PTOs, the lossy gears' two
 	// ports, every set's sun, the pump): the compiled path computes only
@@ -126,8 +127,9 @@ func (s *Solver) initCompiled() {
 	c.tau, c.slope, c.settings = make([]units.Torque, nu), make([]units.Displacement, nu), make([]float64, nu)
 	c.b = make([]float64, len(l.outputs)+len(l.ptos))
 	c.v = make([]float64, len(c.b)+nu)
-	c.guessK, c.guessF, c.guessOK = make([][]float64, len(l.ranges)), make([][]int8, len(l.ranges)), make([]bool, len(l.ranges))
-	for i := range l.ranges {
+	ng := quadrants * len(l.ranges)
+	c.guessK, c.guessF, c.guessOK = make([][]float64, ng), make([][]int8, ng), make([]bool, ng)
+	for i := range ng {
 		c.guessK[i], c.guessF[i] = make([]float64, len(l.gears)), make([]int8, len(l.planets))
 	}
 	c.seenK, c.seenF = make([]float64, len(l.gears)), make([]int8, len(l.planets))
@@ -174,7 +176,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	if !el.loop.Curve(units.AngularVelocity(s.w[el.shafts[0]]), c.wms, &c.curve) {
 		return false
 	}
-	rg := p.Range
+	rg := s.guessSlot(p, s.w[el.shafts[0]]*s.w[el.shafts[1]])
 	if c.guessOK[rg] {
 		copy(s.gearK, c.guessK[rg])
 		copy(s.pflow, c.guessF[rg])
@@ -190,6 +192,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		if pass == maxPasses {
 			return false
 		}
+		c.passes++
 		e = s.entry(r, p)
 		if !e.ok {
 			return false
@@ -351,8 +354,41 @@ func (s *Solver) summaryC(st *State, p *Point, r *rangeDef, iters int, tmax floa
 	return res
 }
 
+// quadrants is the number of first guesses of the directions a range
+// keeps (guessSlot).
+const quadrants = 8
+
+// guessSlot returns where the first guess of p's directions is kept: by
+// range and by three signs, of the output power, of the product wu of the
+// pump's and the first motor's speeds (it changes at a mechanical point,
+// where the hydraulic power turns round) and of the first planetary set's
+// rolling speed ωs − ωc (where its rolling power turns round). The loss
+// directions follow the power's paths, so a point's directions are most
+// often those of the last point of its range with the same three signs;
+// which guess is taken never changes a result, only the passes it takes
+// (the directions read off the solution must hold).
+func (s *Solver) guessSlot(p *Point, wu float64) int {
+	var pout float64
+	for _, o := range p.Outputs {
+		pout += float64(o.Torque) * float64(o.Speed)
+	}
+	k := p.Range * quadrants
+	if pout < 0 {
+		k += 4
+	}
+	if wu < 0 {
+		k += 2
+	}
+	if pl := s.l.planets; len(pl) > 0 {
+		if e := &s.ec[pl[0]]; s.w[e.a] < s.w[e.c] {
+			k++
+		}
+	}
+	return k
+}
+
 // keepGuess keeps the directions of a point solved on the compiled path as
-// the first guess for the next point of range rg.
+// the first guess in slot rg (guessSlot).
 func (s *Solver) keepGuess(rg int) {
 	c := &s.comp
 	copy(c.guessK[rg], s.gearK)
