@@ -226,14 +226,18 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	// A torque below 1e-12 of the largest, non-zero, is no better than the
 	// rounding of the largest: the general path solves such a near-idle
 	// point (exact does, by full LU).
-	var tmax float64
+	tmax, tmin := 0.0, math.Inf(1) // the largest |T| and the smallest non-zero one
 	for _, k := range c.keyPorts {
-		tmax = maxAbs(tmax, s.t[k])
-	}
-	for _, k := range c.keyPorts {
-		if v := s.t[k]; v != 0 && math.Abs(v) < 1e-12*tmax {
-			return false
+		v := math.Abs(s.t[k])
+		if v > tmax || v != v {
+			tmax = v
 		}
+		if v != 0 && v < tmin {
+			tmin = v
+		}
+	}
+	if tmin < 1e-12*tmax {
+		return false
 	}
 	// Accepted: the loop state at the final pressure, then the state.
 	s.dp[0] = dp

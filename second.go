@@ -205,6 +205,11 @@ func (s *Solver) loopOf(j int) *hydrostat.Loop {
 // speed s.outW[0]; flip negates the settings that come from curves.
 func (s *Solver) setPins(p *Point, flip bool) {
 	l := s.l
+	none := len(l.pins) == 0 && len(p.Settings) == 0
+	if none && s.noPins {
+		return // nothing held now, nor at the last call
+	}
+	s.noPins = none
 	for j := range s.pinHeld {
 		for k := range s.pinHeld[j] {
 			s.pinHeld[j][k] = math.NaN()

@@ -56,6 +56,7 @@ type Solver struct {
 	rangeM   []marginDesc   // per range: its speed limit (initMargins)
 	loopM    [][]marginDesc // per loop: its margins (initMargins)
 	mval     []float64      // a loop's margins' values (margins)
+	noPins   bool           // setPins held nothing at its last call
 
 	// The factored torque systems (see factor.go) and the work space of
 	// their solve.
