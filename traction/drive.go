@@ -170,8 +170,9 @@ func (v Vehicle) FixedRatio(m Model, s Surface, op Operation, lead float64) (Dri
 func (p axlePair) fixed(pull units.Force, lead float64) (Drive, error) {
 	k := 1 + lead
 	sf := func(sr float64) float64 { return 1 - (1-sr)/k }
+	front, rear := p.front.at(p.loadF), p.rear.at(p.loadR)
 	total := func(sr float64) float64 {
-		return p.kf()*p.front.net(p.loadF, sf(sr)) + p.nr*p.rear.net(p.loadR, sr)
+		return p.kf()*front.net(sf(sr)) + p.nr*rear.net(sr)
 	}
 	lo := math.Max(MinSlip, 1-k*(1-MinSlip))
 	hi := math.Min(SlipCeiling, 1-k*(1-SlipCeiling))
@@ -268,19 +269,20 @@ func (p axlePair) independent(pull units.Force) (Drive, error) {
 	}
 	a := math.Max(fLo, want-rHi)
 	b := math.Min(fHi, want-rLo)
-	slipAt := func(w Wheel, load units.Force, perWheel, sMax, n0, nMax float64) float64 {
+	cf, cr := p.front.at(p.loadF), p.rear.at(p.loadR)
+	slipAt := func(c *loadNet, perWheel, sMax, n0, nMax float64) float64 {
 		if perWheel <= n0 {
 			return 0
 		}
 		if perWheel >= nMax {
 			return sMax
 		}
-		x, _ := brent(func(x float64) float64 { return w.net(load, x) - perWheel }, 0, sMax, n0-perWheel, nMax-perWheel, slipTol)
+		x, _ := brent(func(x float64) float64 { return c.net(x) - perWheel }, 0, sMax, n0-perWheel, nMax-perWheel, slipTol)
 		return x
 	}
 	slips := func(front float64) (float64, float64) {
-		sf := slipAt(p.front, p.loadF, front/p.kf(), sfMax, nf0, nfMax)
-		sr := slipAt(p.rear, p.loadR, (want-front)/p.nr, srMax, nr0, nrMax)
+		sf := slipAt(&cf, front/p.kf(), sfMax, nf0, nfMax)
+		sr := slipAt(&cr, (want-front)/p.nr, srMax, nr0, nrMax)
 		return sf, sr
 	}
 	// Input power per unit rear travel speed: Σ n·Gross·k/(1 − s), with k

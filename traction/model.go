@@ -179,9 +179,26 @@ func (Brixius) net(t Tyre, s Surface, load units.Force, slip float64) (float64, 
 // brixiusTerms returns the gross traction and motion resistance ratios,
 // GT and MR, of a checked tyre, soil, load and slip.
 func brixiusTerms(t Tyre, s Surface, load units.Force, slip float64) (gt, mr float64) {
+	return brixiusLoad(t, s, load).terms(slip)
+}
+
+// brixiusAtLoad holds the parts of the Brixius equations that depend on
+// the load alone, so a search over slip at one load works them out once:
+// 0.88·(1 − e^(−0.1·Bn)), 1/Bn + 0.04 and √Bn.
+type brixiusAtLoad struct {
+	gt0, mr0, sqrtBn float64
+}
+
+func brixiusLoad(t Tyre, s Surface, load units.Force) brixiusAtLoad {
 	bn := brixiusBn(t, s, load)
-	gt = 0.88*(1-math.Exp(-0.1*bn))*slipRise(7.5, slip) + 0.04
-	mr = 1/bn + 0.04 + 0.5*math.Abs(slip)/math.Sqrt(bn)
+	return brixiusAtLoad{gt0: 0.88 * (1 - math.Exp(-0.1*bn)), mr0: 1/bn + 0.04, sqrtBn: math.Sqrt(bn)}
+}
+
+// terms returns GT and MR at slip, each rounded as the equations written
+// out in one line round them.
+func (b brixiusAtLoad) terms(slip float64) (gt, mr float64) {
+	gt = b.gt0*slipRise(7.5, slip) + 0.04
+	mr = b.mr0 + 0.5*math.Abs(slip)/b.sqrtBn
 	return gt, mr
 }
 

@@ -8,9 +8,9 @@ import (
 )
 
 // TestWheelNetIsPullNet: the net pull the slip searches read (the
-// netModel short cut) is Pull's Net to the bit, and bigNeg where Pull
-// refuses the load or slip, for a tyre on each soil over loads and slips
-// in and out of range.
+// netModel short cut, and loadNet's terms worked out once per load) is
+// Pull's Net to the bit, and bigNeg where Pull refuses the load or slip,
+// for a tyre on each soil over loads and slips in and out of range.
 func TestWheelNetIsPullNet(t *testing.T) {
 	t.Parallel()
 	// Invented sizes (round numbers).
@@ -36,6 +36,10 @@ func TestWheelNetIsPullNet(t *testing.T) {
 				}
 				if got := w.net(units.Force(load), slip); math.Float64bits(got) != math.Float64bits(want) {
 					t.Errorf("%s: net(%g N, slip %g) = %v, want %v", s.Name, load, slip, got, want)
+				}
+				c := w.at(units.Force(load))
+				if got := c.net(slip); math.Float64bits(got) != math.Float64bits(want) {
+					t.Errorf("%s: at(%g N).net(slip %g) = %v, want %v", s.Name, load, slip, got, want)
 				}
 			}
 		}

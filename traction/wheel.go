@@ -79,6 +79,45 @@ func (w Wheel) net(load units.Force, slip float64) float64 {
 	return float64(p.Net)
 }
 
+// A loadNet is a wheel's net pull over slip at one load, as net gives it,
+// with what depends on the load alone worked out once (for a Brixius
+// wheel): the slip searches ask for many slips at one load.
+type loadNet struct {
+	w       Wheel
+	load    units.Force
+	brixius bool // b holds the load's terms (a valid load of a Brixius wheel)
+	refuse  bool // a Brixius wheel refuses the load
+	b       brixiusAtLoad
+}
+
+// at returns the wheel's net pull at load.
+func (w Wheel) at(load units.Force) loadNet {
+	c := loadNet{w: w, load: load}
+	if _, ok := w.model.(Brixius); ok {
+		if !validLoad(load) {
+			c.refuse = true
+		} else {
+			c.brixius, c.b = true, brixiusLoad(w.tyre, w.surface, load)
+		}
+	}
+	return c
+}
+
+// net returns w.net(load, slip).
+func (c *loadNet) net(slip float64) float64 {
+	switch {
+	case c.refuse:
+		return bigNeg
+	case c.brixius:
+		if !validSlip(slip) {
+			return bigNeg
+		}
+		gt, mr := c.b.terms(slip)
+		return float64(units.Force((gt - mr) * float64(c.load)))
+	}
+	return c.w.net(c.load, slip)
+}
+
 func (w Wheel) check(load units.Force) error {
 	if w.model == nil {
 		return rangeErr(ErrInput, "wheel", 0.0, "built with NewWheel")
@@ -100,7 +139,8 @@ func (w Wheel) MaxPull(load units.Force) (Pull, error) {
 }
 
 func (w Wheel) maxNetSlip(load units.Force, lo, hi float64) (float64, float64) {
-	return goldenMax(func(s float64) float64 { return w.net(load, s) }, lo, hi, slipOpt)
+	c := w.at(load)
+	return goldenMax(c.net, lo, hi, slipOpt)
 }
 
 // SlipForPull returns the state at which the wheel gives the net pull
@@ -132,14 +172,15 @@ func (w Wheel) slipForNet(load units.Force, want, lo float64) (float64, error) {
 		}
 		return 0, &PullError{Required: units.Force(want), Limit: units.Force(nMax), Slip: sMax}
 	}
-	n0 := w.net(load, lo)
+	c := w.at(load)
+	n0 := c.net(lo)
 	if want < n0 {
 		if n0-want <= eps {
 			return lo, nil
 		}
 		return 0, &PullError{Required: units.Force(want), Limit: units.Force(n0), Slip: lo}
 	}
-	f := func(s float64) float64 { return w.net(load, s) - want }
+	f := func(s float64) float64 { return c.net(s) - want }
 	s, ok := brent(f, lo, sMax, n0-want, nMax-want, slipTol)
 	if !ok {
 		return 0, ErrNoConvergence
