@@ -459,11 +459,13 @@ func (f *File) outSpeed(v units.Speed) units.AngularVelocity {
 	return units.AngularVelocity(float64(v) * f.Tractor.FinalDrive / float64(f.Tractor.Rear.Tyre.RollingRadius))
 }
 
-// unitState solves range rg at travel speed v (no load) and returns the
+// unitState solves range rg at travel speed v (no load), the output's
+// demand written into out (one, the caller's, reused), and returns the
 // worst unit speed over its limit (with the margin that sets it) and the
 // variator's speed ratio, motor over pump, from the solver's margins.
-func (f *File) unitState(s pointSolver, st *powersplit.State, rg int, w units.AngularVelocity, v units.Speed) (worst float64, m powersplit.Margin, ratio float64, ok bool) {
-	if err := s.Solve(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{Speed: f.outSpeed(v)}}}, st); err != nil {
+func (f *File) unitState(s pointSolver, st *powersplit.State, out []powersplit.OutputDemand, rg int, w units.AngularVelocity, v units.Speed) (worst float64, m powersplit.Margin, ratio float64, ok bool) {
+	out[0] = powersplit.OutputDemand{Speed: f.outSpeed(v)}
+	if err := s.Solve(powersplit.Point{Range: rg, Input: w, Outputs: out}, st); err != nil {
 		return 0, m, 0, false
 	}
 	var pump, motor float64
@@ -493,6 +495,7 @@ func (f *File) unitState(s pointSolver, st *powersplit.State, rg int, w units.An
 // margins at the binding point.
 func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
 	var st powersplit.State
+	out := make([]powersplit.OutputDemand, 1)
 	top := req.TopSpeed
 	if top == 0 {
 		for _, iv := range ivs {
@@ -522,7 +525,7 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, ivs []Interval
 		best, bestRange := math.Inf(1), 0
 		var bestM powersplit.Margin
 		for rg := range l.Ranges() {
-			r, m, _, ok := f.unitState(s, &st, rg, w, v)
+			r, m, _, ok := f.unitState(s, &st, out, rg, w, v)
 			if ok && r < best {
 				best, bestRange, bestM = r, rg, m
 			}
@@ -554,6 +557,7 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, ivs []Interval
 // come closest: a synchronous change needs no jump of the variator.
 func (f *File) shiftCheck(s pointSolver, l powersplit.Layout, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
 	var st powersplit.State
+	out := make([]powersplit.OutputDemand, 1)
 	worst, at := 0.0, ""
 	for i := 0; i+1 < l.Ranges(); i++ {
 		lo, hi := math.Inf(1), math.Inf(-1) // the overlap of both ranges' forward speeds
@@ -574,8 +578,8 @@ func (f *File) shiftCheck(s pointSolver, l powersplit.Layout, names []string, iv
 			const n = 40
 			for k := range n + 1 {
 				v := units.Speed(lo + (hi-lo)*float64(k)/n)
-				_, _, ra, okA := f.unitState(s, &st, i, w, v)
-				_, _, rb, okB := f.unitState(s, &st, i+1, w, v)
+				_, _, ra, okA := f.unitState(s, &st, out, i, w, v)
+				_, _, rb, okB := f.unitState(s, &st, out, i+1, w, v)
 				if !okA || !okB || math.Max(math.Abs(ra), math.Abs(rb)) == 0 {
 					continue
 				}
