@@ -32,21 +32,27 @@ import (
 //
 // Each solve of a direction set starts from Δp = 0, so a point's result
 // depends on the point alone, never on the points solved before it: maps
-// stay identical for any number of workers. The directions the last point
-// of the range ended with are the first guess; the directions read off the
-// solution (as the general path reads them) must agree with those assumed,
-// else the solve is repeated with them.
+// stay identical for any number of workers. The first guess of the
+// directions is those of the last point of the same range with the same
+// signs of output power, unit speeds and rolling speed (guessSlot); the
+// directions read off the solution (as the general path reads them) must
+// agree with those assumed, else the solve is repeated with them. The
+// directions and the summary read only the key ports (the input, outputs
+// and PTOs, the lossy gears, the sets' suns, the pump); every port torque
+// is computed only for a full State.
 //
 // Where no motor setting in range gives the speeds, the schedule holds its
 // nearest settings (hydrostat.Curve does as Loop.At does) and the point
 // ends as on the general path: the state filled as far as it goes and the
-// loop's setting limit as the error. Everywhere else the compiled path
+// loop's setting limit as the error; a point beyond the relief as well is
+// left to the general path, which says which limit it crosses (it may find
+// no balance below the relief at all). Everywhere else the compiled path
 // gives up and the general path solves the point: several loops, a charge
 // pump among the drag sources (its torque follows the loop's leakage, and
 // the general path takes it from the last iterate), held motor settings, a
 // loop the hydrostat cannot see as a Curve or a pump near standstill, a
 // pressure beyond 1.5 times the relief, Newton's method not settling,
-// directions that oscillate, a torque below 1e-12 of the largest, any other
+// directions that oscillate, a key port's torque below 1e-12 of the largest, any other
 // crossed limit, or a power balance not closing. So both paths give the
 // same errors and agree to rounding (TestPropertyCompiledMatchesGeneral,
 // TestMapCompiledMatchesGeneral).
