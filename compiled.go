@@ -324,44 +324,7 @@ func (s *Solver) summaryC(st *State, p *Point, r *rangeDef, iters int, tmax floa
 	lr.HydraulicPower = lr.Pump.Hydraulic
 	hyd := float64(lr.HydraulicPower)
 	pump := (s.t[el.port0] + 0) * s.w[el.shafts[0]]
-	st.DragLoss = 0
-	if len(l.drags) > 0 {
-		st.DragLoss = units.Power(s.fillDrags(st, 1))
-		st.Loss += st.DragLoss
-	}
-	pin, useful := float64(st.InputPower), float64(st.OutputPower+st.PTOPower)
-	switch {
-	case pin > 0 && useful > 0:
-		st.Efficiency = math.Min(1, useful/pin) // ≤ 1 up to rounding
-	case pin < 0 && useful < 0:
-		st.Efficiency = math.Min(1, pin/useful)
-	default:
-		st.Efficiency = 0
-	}
-	st.HydraulicShare, st.PumpShare = 0, 0
-	if pin != 0 {
-		st.PumpShare = pump / pin
-		st.HydraulicShare = hyd / pin
-		if r.reverse {
-			st.HydraulicShare = -hyd / pin
-		}
-	}
-	// The balance as summary judges it, the largest torque taken over the
-	// key ports.
-	var wmax float64
-	for _, v := range s.w[:len(l.shafts)] {
-		wmax = maxAbs(wmax, v)
-	}
-	scale := math.Abs(pin) + math.Abs(useful) + float64(st.Loss) + 1e-3*tmax*wmax
-	res := pin - useful - float64(st.Loss)
-	if scale > 0 {
-		res = math.Abs(res) / scale
-	} else {
-		res = 0
-	}
-	st.Residual = res
-	s.margins(st, true)
-	return res
+	return s.totals(st, r, 1, pump, hyd, tmax)
 }
 
 // quadrants is the number of first guesses of the directions a range

@@ -323,6 +323,24 @@ func (s *Solver) summary(st *State, p Point, r *rangeDef, iters int, torques int
 		}
 		hyd += float64(lr.HydraulicPower)
 	}
+	var tmax float64
+	if torques != 0 {
+		for _, v := range s.t[:l.nPorts] {
+			tmax = maxAbs(tmax, v)
+		}
+	}
+	return s.totals(st, r, torques, pump, hyd, tmax)
+}
+
+// totals finishes a summary: the drag sources' losses, the efficiency, the
+// shares of the input power through the pumps' shafts (pump) and through
+// the loops (hyd), the margins, and the relative power-balance residual,
+// which it returns. The balance is relative to the powers that flow, with
+// a floor of 1e-3 of the largest port torque (tmax) at the largest shaft
+// speed, so that a point where almost no power flows is judged by the
+// rounding of the powers it could carry.
+func (s *Solver) totals(st *State, r *rangeDef, torques int, pump, hyd, tmax float64) float64 {
+	l := s.l
 	st.DragLoss = 0
 	if len(l.drags) > 0 {
 		st.DragLoss = units.Power(s.fillDrags(st, torques))
@@ -345,16 +363,7 @@ func (s *Solver) summary(st *State, p Point, r *rangeDef, iters int, torques int
 			st.HydraulicShare = -hyd / pin
 		}
 	}
-	// The balance is relative to the powers that flow, with a floor of
-	// 1e-3 of the largest port torque at the largest shaft speed, so that
-	// a point where almost no power flows is judged by the rounding of the
-	// powers it could carry.
-	var tmax, wmax float64
-	if torques != 0 {
-		for _, v := range s.t[:l.nPorts] {
-			tmax = maxAbs(tmax, v)
-		}
-	}
+	var wmax float64
 	for _, v := range s.w[:len(l.shafts)] { // every shaft has a port
 		wmax = maxAbs(wmax, v)
 	}
