@@ -291,7 +291,12 @@ type piece struct {
 	dt, v0, v1, grade float64
 }
 
-// Simulate runs the duty cycle with the vehicle under the strategy. Each
+// Simulate runs the duty cycle with the vehicle under the strategy. The
+// strategy is handed a copy of v that remembers the last answer LeastFuel
+// or FixedSpeed gave, so a step that repeats the demand before it (every
+// step of a steady segment does) is answered without a second search; the
+// answer is the same, as the vehicle's parts (tyres, transmission, engine)
+// answer the same question the same way. Each
 // segment starts from its own speeds: only Accelerate changes speed within
 // the account. A segment that cannot be run (bad input, beyond the engine,
 // beyond traction, ...) is reported in its SegmentResult with the reason,
@@ -326,6 +331,9 @@ func Simulate(v *Vehicle, s Strategy, cycle []Segment, opt Options) (Day, error)
 		}
 		s = c
 	}
+	// The strategy gets the vehicle with a memory of its last answer: the
+	// steps of a steady segment repeat one demand (repeats).
+	v = &Vehicle{s: v.s, rep: &repeats{}}
 	day := Day{Segments: make([]SegmentResult, len(cycle))}
 	var clock float64
 	for i, seg := range cycle {

@@ -10,6 +10,7 @@ import (
 
 	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/hydrostat"
+	"github.com/powersplit-dev/powersplit/internal/solvepath"
 	"github.com/powersplit-dev/powersplit/planetary"
 	"github.com/powersplit-dev/powersplit/units"
 	"github.com/powersplit-dev/powersplit/vehicle"
@@ -316,5 +317,71 @@ func TestZeroLayoutDriveSolvesNothing(t *testing.T) {
 	}
 	if _, err := d.Interval(powersplit.Point{}); !errors.Is(err, vehicle.ErrInvalid) {
 		t.Errorf("zero LayoutDrive.Interval = %v, want ErrInvalid", err)
+	}
+}
+
+// fresh is LeastFuel on a vehicle built anew from the one it is handed,
+// which remembers nothing: a simulation under it searches every step.
+type fresh struct{}
+
+func (fresh) Operate(v *vehicle.Vehicle, d vehicle.Demand) (vehicle.Point, error) {
+	w, err := vehicle.New(v.Spec())
+	if err != nil {
+		return vehicle.Point{}, err
+	}
+	return vehicle.LeastFuel{}.Operate(w, d)
+}
+
+// countingDrive counts the points its LayoutDrive solves.
+type countingDrive struct {
+	*vehicle.LayoutDrive
+	n int
+}
+
+func (c *countingDrive) Operate(rng int, engine, out units.AngularVelocity, torque units.Torque) (vehicle.DrivePoint, error) {
+	c.n++
+	return c.LayoutDrive.Operate(rng, engine, out, torque)
+}
+
+// TestSimulateRepeatsAnswers: a simulation answers a step that repeats the
+// demand before it from memory (most steps of the short cycle: the drive
+// solves a small share of the points), and its day equals, to the bit, the
+// day of one that searches every step: on the general and the compiled
+// path of the layout solver, whose points do not depend on the points
+// solved before them.
+func TestSimulateRepeatsAnswers(t *testing.T) {
+	for _, general := range []bool{false, true} {
+		solvepath.General.Store(general)
+		drive, err := vehicle.FromLayout(demoLayout(t))
+		solvepath.General.Store(false)
+		if err != nil {
+			t.Fatal(err)
+		}
+		cd := &countingDrive{LayoutDrive: drive}
+		v, err := vehicle.New(vehicle.Spec{Mass: units.Tonnes(9), Tyres: demoTyres(0.03), Transmission: cd,
+			FinalDrive: 20, Engine: demoEngine(t, true),
+			PTO: vehicle.PTO{Ratios: []float64{3.5, 1.9}, MaxPower: units.Kilowatts(130)}})
+		if err != nil {
+			t.Fatal(err)
+		}
+		got, err := vehicle.Simulate(v, vehicle.LeastFuel{}, demoCycle(), vehicle.Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		remembered := cd.n
+		cd.n = 0
+		want, err := vehicle.Simulate(v, fresh{}, demoCycle(), vehicle.Options{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if err := got.Err(); err != nil {
+			t.Fatalf("general %v: %v", general, err)
+		}
+		if !reflect.DeepEqual(got, want) {
+			t.Errorf("general %v: the day with answers from memory differs from the day searched step by step", general)
+		}
+		if 10*remembered > cd.n {
+			t.Errorf("general %v: %d points solved with answers from memory, %d without: want a tenth or less", general, remembered, cd.n)
+		}
 	}
 }

@@ -1,6 +1,7 @@
 package vehicle
 
 import (
+	"reflect"
 	"slices"
 	"sync"
 
@@ -208,4 +209,57 @@ func (c *flagNames) name(element, quantity string) string {
 		c.known = append(c.known, flagName{element, quantity, n})
 	}
 	return n
+}
+
+// repeats remembers, for the vehicle a simulation hands its strategy, the
+// last demand LeastFuel or FixedSpeed answered on it, with the answer: the
+// steps of a steady segment repeat one demand, and an answer depends only
+// on the vehicle, the strategy and the demand (the parts of a vehicle are
+// built values; a layout solver's point does not depend on the points it
+// solved before). The memory lives as long as the simulation.
+type repeats struct {
+	mu       sync.Mutex
+	ok       bool
+	strategy Strategy // the strategy's value: LeastFuel or FixedSpeed
+	d        Demand
+	p        Point // with slices of its own, handed out as copies
+	err      error
+}
+
+// An answer is a strategy's point for a demand, or its error.
+type answer struct {
+	p   Point
+	err error
+}
+
+// repeat returns the answer strategy s gave v for demand d when d is the
+// last demand it answered there.
+func (v *Vehicle) repeat(s Strategy, d Demand) (answer, bool) {
+	r := v.rep
+	if r == nil || !canCompare(d) {
+		return answer{}, false
+	}
+	r.mu.Lock()
+	defer r.mu.Unlock()
+	if !r.ok || r.strategy != s || r.d != d {
+		return answer{}, false
+	}
+	return answer{own(r.p), r.err}, true
+}
+
+// remember keeps strategy s's answer p, err to demand d on v.
+func (v *Vehicle) remember(s Strategy, d Demand, p Point, err error) {
+	r := v.rep
+	if r == nil || !canCompare(d) {
+		return
+	}
+	r.mu.Lock()
+	defer r.mu.Unlock()
+	r.ok, r.strategy, r.d, r.p, r.err = true, s, d, own(p), err
+}
+
+// canCompare reports whether d can be compared with == (its Ground may
+// hold a value that cannot: then d is never remembered).
+func canCompare(d Demand) bool {
+	return d.Ground == nil || reflect.ValueOf(d.Ground).Comparable()
 }

@@ -49,6 +49,16 @@ func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
 	if v == nil {
 		return Point{}, invalid("vehicle", math.NaN(), "is nil")
 	}
+	if a, ok := v.repeat(s, d); ok {
+		return a.p, a.err
+	}
+	p, err := s.operate(v, d)
+	v.remember(s, d, p, err)
+	return p, err
+}
+
+// operate is Operate without the memory of a simulation's last answer.
+func (s LeastFuel) operate(v *Vehicle, d Demand) (Point, error) {
 	if err := d.Validate(); err != nil {
 		return Point{}, err
 	}
@@ -307,6 +317,16 @@ func (s FixedSpeed) Operate(v *Vehicle, d Demand) (Point, error) {
 	if v == nil {
 		return Point{}, invalid("vehicle", math.NaN(), "is nil")
 	}
+	if a, ok := v.repeat(s, d); ok {
+		return a.p, a.err
+	}
+	p, err := s.operate(v, d)
+	v.remember(s, d, p, err)
+	return p, err
+}
+
+// operate is Operate without the memory of a simulation's last answer.
+func (s FixedSpeed) operate(v *Vehicle, d Demand) (Point, error) {
 	if err := d.Validate(); err != nil {
 		return Point{}, err
 	}

@@ -47,6 +47,9 @@ const DefaultFinalDriveEfficiency = 0.97
 // Tyres and Transmission are.
 type Vehicle struct {
 	s Spec
+	// rep, set on the vehicle a simulation hands its strategy, remembers
+	// the strategy's last answer (repeats).
+	rep *repeats
 }
 
 // New validates the spec and builds the vehicle.
