@@ -74,7 +74,10 @@ func BenchmarkLeastFuelLayout(b *testing.B) {
 // BenchmarkShortCycle simulates the tests' short duty cycle (a start to
 // 8 km/h, a 400 m field pass, a 20 s headland turn, 1 km of road with a
 // trailer over a hill and 2 min of stationary PTO work: 7.4 min of work in
-// 445 one-second steps) with the least-fuel strategy.
+// 445 one-second steps) with the least-fuel strategy. A step that repeats
+// the demand before it is answered from memory (Simulate), so the cycle
+// costs the searches of its distinct demands: the acceleration's steps and
+// one per steady stretch.
 func BenchmarkShortCycle(b *testing.B) {
 	v := demoVehicle(b, true)
 	benchDay(b, v)
