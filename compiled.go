@@ -66,6 +66,7 @@ type elemC struct {
 	port0   int32
 	a, b, c int32   // the shafts of the first three ports, −1 where none
 	eta     float64 // gear: mesh efficiency; planetary: basic efficiency
+	inv     float64 // 1/eta, the factor of a gear driven from its second port
 }
 
 // initElemC fills the solver's compact view of the elements.
@@ -88,6 +89,7 @@ func (s *Solver) initElemC() {
 		if e.kind == PlanetaryKind {
 			c.eta = e.set.BasicEfficiency()
 		}
+		c.inv = 1 / c.eta
 		s.ec[i] = c
 	}
 }
@@ -513,7 +515,7 @@ func (s *Solver) readDirections() bool {
 		case pa > 1e-13*scale:
 			k = e.eta
 		case pb > 1e-13*scale:
-			k = 1 / e.eta
+			k = e.inv
 		}
 		if k != s.gearK[e.index] {
 			s.gearK[e.index] = k
