@@ -363,7 +363,7 @@ func BenchmarkCompiledSteps(b *testing.B) {
 		{"unit-speeds", func() { _ = s.unitSpeeds() }},
 		{"curve", func() { el.loop.Curve(wp, c.wms, &c.curve) }},
 		{"system", func() { s.entry(r, &p) }},
-		{"newton", func() { s.newton(e, &p, nil, math.Inf(1), &evals) }},
+		{"newton", func() { s.newton(e, &p, nil, nil, math.Inf(1), &evals) }},
 		{"unit-torques", func() { c.curve.Torques(st.Loops[0].Pressure, c.settings, c.tau, c.slope) }},
 		{"key-ports", func() { s.portTorques(e, nil, c.keyPorts) }},
 		{"directions", func() { s.readDirections() }},

@@ -26,9 +26,13 @@ import (
 //
 // X the row of the pressure in W and H. The hydrostat gives τ and its exact
 // slope τ′ (hydrostat.Curve), so Newton's method converges quadratically
-// from Δp = 0, where the slope is the ideal one. Drag sources other than
-// charge pumps load the shaft rows with torques known at the point's
-// speeds: z = A_ref⁻¹ of them adds to H_X·b and to every port torque.
+// from Δp = 0, where the slope is the ideal one. Drag sources load the
+// shaft rows with torques known at the point's speeds: z = A_ref⁻¹ of them
+// adds to H_X·b and to every port torque. A charge pump's torque follows
+// the loop's leakage, K·(Q_leak(Δp) + Q_flush) with K = p_charge/(η·ω):
+// its part z_c·Q_leak(Δp) joins F with the leakage's exact slope
+// (hydrostat.Curve.Leakage), so the charge torque is the one at the
+// pressure reached.
 //
 // Each solve of a direction set starts from Δp = 0, so a point's result
 // depends on the point alone, never on the points solved before it: maps
@@ -47,15 +51,14 @@ import (
 // loop's setting limit as the error; a point beyond the relief as well is
 // left to the general path, which says which limit it crosses (it may find
 // no balance below the relief at all). Everywhere else the compiled path
-// gives up and the general path solves the point: several loops, a charge
-// pump among the drag sources (its torque follows the loop's leakage, and
-// the general path takes it from the last iterate), held motor settings, a
-// loop the hydrostat cannot see as a Curve or a pump near standstill, a
-// pressure beyond 1.5 times the relief, Newton's method not settling,
-// directions that oscillate, a key port's torque below 1e-12 of the largest, any other
-// crossed limit, or a power balance not closing. So both paths give the
-// same errors and agree to rounding (TestPropertyCompiledMatchesGeneral,
-// TestMapCompiledMatchesGeneral).
+// gives up and the general path solves the point: several loops, held
+// motor settings, a loop the hydrostat cannot see as a Curve or a pump
+// near standstill, a pressure beyond 1.5 times the relief, Newton's method
+// not settling, directions that oscillate, a key port's torque below
+// 1e-12 of the largest, any other crossed limit, or a power balance not
+// closing. So both paths give the same errors and agree to rounding
+// (TestPropertyCompiledMatchesGeneral, TestMapCompiledMatchesGeneral; with
+// a charge pump to the general path's own lag, ...Drags).
 
 // elemC is what the hot path reads of an element, compact: the element
 // values themselves are large (a loop's spec, a set), and reading a few
@@ -119,14 +122,22 @@ type compiledState struct {
 	// ports, every set's sun, the pump): the compiled path computes only
 	// these unless the full State is asked for.
 	keyPorts []int32
-	gears    []int32 // element indices of the gears with a loss (η < 1)
-	lossy    []int32 // element indices of the elements with a loss: lossy gears, sets, the loop
+	// The charge pumps (indices into the layout's drags): their torques
+	// follow the loop's leakage, T = K·(Q_leak(Δp) + Q_flush) with
+	// K = p_charge/(η·ω), so the shafts' right-hand side is Q_leak·g + g0
+	// and A_ref⁻¹ of it is Q_leak·zc plus a part folded into the drags' z.
+	charge  []int
+	chargeK []float64 // per charge pump: K at the point's speeds
+	g, g0   []float64 // per shaft
+	zc, zt  []float64 // A_ref⁻¹·g; the drags' z with the charge at the final pressure
+	gears   []int32   // element indices of the gears with a loss (η < 1)
+	lossy   []int32   // element indices of the elements with a loss: lossy gears, sets, the loop
 }
 
 func (s *Solver) initCompiled() {
 	l := s.l
 	c := &s.comp
-	c.on = len(l.loops) == 1 && !l.hasCharge
+	c.on = len(l.loops) == 1
 	if !c.on {
 		return
 	}
@@ -141,6 +152,16 @@ func (s *Solver) initCompiled() {
 		c.guessK[i], c.guessF[i] = make([]float64, len(l.gears)), make([]int8, len(l.planets))
 	}
 	c.seenK, c.seenF = make([]float64, len(l.gears)), make([]int8, len(l.planets))
+	for i := range l.drags {
+		if l.drags[i].kind == ChargePumpDrag {
+			c.charge = append(c.charge, i)
+		}
+	}
+	if len(c.charge) > 0 {
+		c.chargeK = make([]float64, len(c.charge))
+		c.g, c.g0 = make([]float64, len(l.shafts)), make([]float64, len(l.shafts))
+		c.zc, c.zt = make([]float64, s.n), make([]float64, s.n)
+	}
 	key := []int32{int32(l.elems[l.input].port0)}
 	for _, i := range l.outputs {
 		key = append(key, int32(l.elems[i].port0))
@@ -192,6 +213,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		s.losslessDirections()
 	}
 	lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge)
+	s.chargeRHS(el)
 	evals := 0
 	var dp float64
 	var e *sysEntry
@@ -212,19 +234,44 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 			return false // back to the first directions: they oscillate
 		}
 		dz = nil
+		var zc []float64
 		if s.dragRHS != nil {
 			// The drag torques load the shaft rows: z = A_ref⁻¹ of them
 			// adds to the pressure's equation and to every port torque.
 			dz = s.dragY
 			clear(dz)
 			copy(dz, s.dragRHS)
+			if c.charge != nil {
+				for i, v := range c.g0 {
+					dz[i] += v
+				}
+				zc = c.zc
+				clear(zc)
+				copy(zc, c.g)
+				e.f.Solve(zc)
+			}
 			e.f.Solve(dz)
 		}
 		var ok bool
 		evals = 0 // the final pass's count: the same whatever the first guess
-		dp, ok = s.newton(e, p, dz, lim, &evals)
+		dp, ok = s.newton(e, p, dz, zc, lim, &evals)
 		if !ok {
 			return false
+		}
+		if zc != nil {
+			// The charge pumps' torques at the pressure reached, in the
+			// drags' z and in their states.
+			q, _, ok := c.curve.Leakage(units.Pressure(dp))
+			if !ok {
+				return false
+			}
+			dz = c.zt
+			for i, v := range s.dragY {
+				dz[i] = v + float64(q)*zc[i]
+			}
+			for k, i := range c.charge {
+				s.dragT[i] = c.chargeK[k] * (float64(q) + float64(s.l.drags[i].pump.Flushing))
+			}
 		}
 		s.portTorques(e, dz, c.keyPorts)
 		if !s.readDirections() {
@@ -362,6 +409,34 @@ func (s *Solver) guessSlot(p *Point, wu float64) int {
 	return k
 }
 
+// chargeRHS sets the charge pumps' coefficients at the point's speeds:
+// K = p_charge/(η·ω) per pump (zero on a standing shaft, as chargeTorques
+// has it) and the shafts' right-hand sides g (per unit leakage) and g0
+// (the flushing flows) of their torques.
+func (s *Solver) chargeRHS(el *element) {
+	c := &s.comp
+	if c.charge == nil {
+		return
+	}
+	clear(c.g)
+	clear(c.g0)
+	for k, i := range c.charge {
+		d := &s.l.drags[i]
+		K := 0.0
+		if w := s.w[d.a]; w != 0 {
+			K = float64(el.lspec.Charge) / d.pump.Efficiency / w
+		}
+		c.chargeK[k] = K
+		f := K * float64(d.pump.Flushing)
+		c.g[d.a] -= K
+		c.g0[d.a] -= f
+		if d.b >= 0 {
+			c.g[d.b] += K
+			c.g0[d.b] += f
+		}
+	}
+}
+
 // keepGuess keeps the directions of a point solved on the compiled path as
 // the first guess in slot rg (guessSlot).
 func (s *Solver) keepGuess(rg int) {
@@ -375,7 +450,7 @@ func (s *Solver) keepGuess(rg int) {
 // newton solves F(Δp) = 0 for the directions of e from Δp = 0 and returns
 // Δp, with the units' torques at it in c.tau; false when it does not
 // settle within 30 steps, leaves ±lim, or the curve cannot decide.
-func (s *Solver) newton(e *sysEntry, p *Point, dz []float64, lim float64, evals *int) (float64, bool) {
+func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, evals *int) (float64, bool) {
 	c := &s.comp
 	n := s.n
 	x := s.l.nPorts // the pressure's row in W and H
@@ -405,6 +480,15 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz []float64, lim float64, evals 
 			return dp, true
 		}
 		f, df := a0, 0.0
+		if zc != nil {
+			// The charge pumps' torques follow the leakage.
+			q, dq, ok := c.curve.Leakage(units.Pressure(dp))
+			if !ok {
+				return 0, false
+			}
+			f += zc[x] * float64(q)
+			df += zc[x] * dq
+		}
 		for u := range c.tau {
 			w := e.w[u*n+x]
 			f += w * float64(c.tau[u])

@@ -212,9 +212,14 @@ func TestMapCompiledMatchesGeneral(t *testing.T) {
 }
 
 // TestPropertyCompiledMatchesGeneralDrags: with drag sources (bearings,
-// churning, open plates, idle PTO; and a charge pump on some layouts,
-// which the compiled path leaves to the general path) both paths give the
-// same error and the same state to 1e-12, the drags included.
+// churning, open plates, idle PTO; and a charge pump on some layouts) both
+// paths give the same error and the same state to 1e-12, the drags
+// included. With a charge pump the agreement is to 5e-9: the general
+// path takes the charge pump's torque from the leakage of its iterate
+// before the last, and it stops once a step is below 1e-9 of the pressure
+// (the next one would be below 1e-12), so its charge torque may lag the
+// pressure it reports by about 1e-9 of itself; the compiled path takes it
+// from the leakage at the pressure it reaches.
 func TestPropertyCompiledMatchesGeneralDrags(t *testing.T) {
 	t.Parallel()
 	compiled, points := 0, 0
@@ -249,13 +254,17 @@ func TestPropertyCompiledMatchesGeneralDrags(t *testing.T) {
 		if ea != nil {
 			return
 		}
-		if d := summaryDiff(&a, &b, 1e-12); d != "" {
+		tol := 1e-12
+		if n.ChargePumps != nil {
+			tol = 5e-9
+		}
+		if d := summaryDiff(&a, &b, tol); d != "" {
 			t.Fatalf("%s: compiled %s", kind, d)
 		}
 		for i := range b.Drags {
 			da, db := a.Drags[i], b.Drags[i]
-			if math.Abs(float64(da.Torque-db.Torque)) > 1e-12*(math.Abs(float64(db.Torque))+1e-9) {
-				t.Fatalf("%s: drag %s torque %v, general %v", kind, db.Name, da.Torque, db.Torque)
+			if math.Abs(float64(da.Torque-db.Torque)) > tol*(math.Abs(float64(db.Torque))+1e-9) {
+				t.Fatalf("%s: drag %s torque %.17g, general %.17g", kind, db.Name, float64(da.Torque), float64(db.Torque))
 			}
 		}
 	})

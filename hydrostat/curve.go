@@ -261,23 +261,7 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 	for i := 1; i < len(settings); i++ {
 		settings[i] = sm
 	}
-	// The slopes of the settings: the pump swings while the motors are
-	// full, else the motors.
-	var dxp, dsm float64
-	switch {
-	case c.limit.hit:
-		// Both settings held at the ends of their ranges.
-	case sm == 1 && c.bp == 0:
-		dxp = (c.ap + c.am + c.bm) * c.invQ
-	case sm == 1:
-		den := c.pumpQ - c.bp*d*sgn(xp)
-		dxp = (c.ap + c.bp*math.Abs(xp) + c.am + c.bm) / den
-	case c.bm == 0:
-		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am) * c.invM
-	default:
-		den := c.motorQ + c.bm*d*sgn(sm)
-		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)) / den
-	}
+	dxp, dsm := c.settingSlopes(d, xp, sm)
 	for i := range c.tau {
 		tc := &c.tau[i]
 		x, dx, q, dq := xp, dxp, d, 1.0
@@ -304,6 +288,51 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 		torques[i], slopes[i] = units.Torque(t), units.Displacement(sl)
 	}
 	return true
+}
+
+// settingSlopes returns the slopes over Δp of the settings sequential gave
+// at d: the pump swings while the motors are full, else the motors; both
+// are held (no slope) at a setting limit.
+func (c *Curve) settingSlopes(d, xp, sm float64) (dxp, dsm float64) {
+	switch {
+	case c.limit.hit:
+		// Both settings held at the ends of their ranges.
+	case sm == 1 && c.bp == 0:
+		dxp = (c.ap + c.am + c.bm) * c.invQ
+	case sm == 1:
+		den := c.pumpQ - c.bp*d*sgn(xp)
+		dxp = (c.ap + c.bp*math.Abs(xp) + c.am + c.bm) / den
+	case c.bm == 0:
+		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am) * c.invM
+	default:
+		den := c.motorQ + c.bm*d*sgn(sm)
+		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)) / den
+	}
+	return dxp, dsm
+}
+
+// Leakage returns the loop's total leakage at pressure difference dp, the
+// flow its charge circuit makes up (LoopState.ChargeFlow, to rounding), and
+// its slope over Δp, with the settings the schedule gives there; ok is
+// false where Torques would report false.
+func (c *Curve) Leakage(dp units.Pressure) (q units.VolumeFlow, slope float64, ok bool) {
+	if !c.ok {
+		return 0, 0, false
+	}
+	d := float64(dp)
+	c.limit.hit = false
+	xp, sm, ok := c.sequential(d)
+	if !ok {
+		return 0, 0, false
+	}
+	// Every unit's leakage is (a + b·|x|)·|Δp|, the motors' at their common
+	// setting.
+	dxp, dsm := c.settingSlopes(d, xp, sm)
+	a := math.Abs(d)
+	k := c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)
+	q = units.VolumeFlow(k * a)
+	slope = sgn(d)*k + a*(c.bp*sgn(xp)*dxp+c.bm*sgn(sm)*dsm)
+	return q, slope, true
 }
 
 // sequential places the Sequential schedule's settings at dp from the

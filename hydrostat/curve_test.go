@@ -107,6 +107,11 @@ func TestCurveMatchesAt(t *testing.T) {
 		if st.Limit.Err == ErrSettingLimit {
 			limited++
 		}
+		// Leakage is the flow the charge circuit makes up, as At gives it.
+		q, qs, okq := c.Leakage(dp)
+		if !okq || math.Abs(float64(q-st.ChargeFlow)) > 1e-12*(float64(st.ChargeFlow)+math.Abs(float64(st.Pump.IdealFlow))) {
+			t.Fatalf("Leakage %v (%v), At's charge flow %v", q, okq, st.ChargeFlow)
+		}
 		// The slope against central differences of At, away from the kinks
 		// at Δp = 0 and at the switch of the schedule's branch.
 		h := 1e-6 * math.Abs(float64(dp))
@@ -116,6 +121,9 @@ func TestCurveMatchesAt(t *testing.T) {
 			return
 		}
 		slopes++
+		if fd := float64(hi.ChargeFlow-lo.ChargeFlow) / (2 * h); math.Abs(qs-fd) > 1e-5*(math.Abs(fd)+1e-12) {
+			t.Fatalf("leakage slope %.10g, central difference %.10g", qs, fd)
+		}
 		for k := range sl {
 			tl, th := float64(lo.Pump.Torque), float64(hi.Pump.Torque)
 			if k > 0 {
