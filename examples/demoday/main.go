@@ -229,7 +229,11 @@ func run(r *demo.Run) error {
 		return err
 	}
 	r.Wrote(path)
-	r.Printf("\nSimulated %s of work in %s.\n", duration(a.Duration), demo.F(elapsed.Seconds(), 1, "s"))
+	took := demo.F(elapsed.Seconds(), 1, "s")
+	if elapsed < time.Second {
+		took = demo.F(float64(elapsed.Microseconds())/1000, 1, "ms")
+	}
+	r.Printf("\nSimulated %s of work in %s.\n", duration(a.Duration), took)
 	return nil
 }
 
