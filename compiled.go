@@ -340,20 +340,11 @@ func (s *Solver) summaryC(st *State, p *Point, r *rangeDef, iters int, tmax floa
 	w, t := s.w[e.a], s.t[e.port0]+0
 	st.InputSpeed, st.InputTorque, st.InputPower = units.AngularVelocity(w), -units.Torque(t), -units.Power(t*w)
 	var out, pto float64
-	// Field by field: a composite literal is built aside and copied.
 	for k, oi := range l.outputs {
-		e := &s.ec[oi]
-		w, t := s.w[e.a], s.t[e.port0]+0
-		fs := &st.Outputs[k]
-		fs.Name, fs.Speed, fs.Torque, fs.Power = l.elems[oi].name, units.AngularVelocity(w), units.Torque(t), units.Power(t*w)
-		out += t * w
+		out += s.flowState(&st.Outputs[k], oi)
 	}
 	for k, pi := range l.ptos {
-		e := &s.ec[pi]
-		w, t := s.w[e.a], s.t[e.port0]+0
-		fs := &st.PTOs[k]
-		fs.Name, fs.Speed, fs.Torque, fs.Power = l.elems[pi].name, units.AngularVelocity(w), units.Torque(t), units.Power(t*w)
-		pto += t * w
+		pto += s.flowState(&st.PTOs[k], pi)
 	}
 	st.OutputPower, st.PTOPower = units.Power(out), units.Power(pto)
 	var loss float64
@@ -374,6 +365,16 @@ func (s *Solver) summaryC(st *State, p *Point, r *rangeDef, iters int, tmax floa
 	hyd := float64(lr.HydraulicPower)
 	pump := (s.t[el.port0] + 0) * s.w[el.shafts[0]]
 	return s.totals(st, r, 1, pump, hyd, tmax)
+}
+
+// flowState writes the state of output or PTO element i into fs, field
+// by field (a composite literal is built aside and copied), and returns
+// its power.
+func (s *Solver) flowState(fs *FlowState, i int) float64 {
+	e := &s.ec[i]
+	w, t := s.w[e.a], s.t[e.port0]+0
+	fs.Name, fs.Speed, fs.Torque, fs.Power = s.l.elems[i].name, units.AngularVelocity(w), units.Torque(t), units.Power(t*w)
+	return t * w
 }
 
 // quadrants is the number of first guesses of the directions a range

@@ -30,7 +30,9 @@ func BenchmarkLeastFuel(b *testing.B) {
 	}
 }
 
-func BenchmarkLayoutAt(b *testing.B) {
+// layoutVehicle is the 9 t benchmark vehicle with the demo layout solved
+// point by point (LayoutDrive).
+func layoutVehicle(b *testing.B) *vehicle.Vehicle {
 	drive, err := vehicle.FromLayout(demoLayout(b))
 	if err != nil {
 		b.Fatal(err)
@@ -40,6 +42,11 @@ func BenchmarkLayoutAt(b *testing.B) {
 	if err != nil {
 		b.Fatal(err)
 	}
+	return v
+}
+
+func BenchmarkLayoutAt(b *testing.B) {
+	v := layoutVehicle(b)
 	d := vehicle.Demand{Speed: units.KMH(8), Draft: units.Kilonewtons(15)}
 	b.ReportAllocs()
 	for b.Loop() {
@@ -53,15 +60,7 @@ func BenchmarkLayoutAt(b *testing.B) {
 // solved point by point by the root package's solver (LayoutDrive): each
 // engine speed and range it asks for solved once, the tyres once.
 func BenchmarkLeastFuelLayout(b *testing.B) {
-	drive, err := vehicle.FromLayout(demoLayout(b))
-	if err != nil {
-		b.Fatal(err)
-	}
-	v, err := vehicle.New(vehicle.Spec{Mass: units.Tonnes(9), Tyres: demoTyres(0.03), Transmission: drive,
-		FinalDrive: 20, Engine: demoEngine(b, true)})
-	if err != nil {
-		b.Fatal(err)
-	}
+	v := layoutVehicle(b)
 	d := vehicle.Demand{Speed: units.KMH(8), Draft: units.Kilonewtons(15)}
 	b.ReportAllocs()
 	for b.Loop() {

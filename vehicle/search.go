@@ -141,13 +141,7 @@ func (b *driveBuf) lossParts(n int) []LossPart {
 	if b == nil {
 		return make([]LossPart, n)
 	}
-	if cap(b.parts)-len(b.parts) < n {
-		// A new block; the points given the old one keep it.
-		b.parts = make([]LossPart, 0, max(2*cap(b.parts), 16*n))
-	}
-	k := len(b.parts)
-	b.parts = b.parts[:k+n]
-	return b.parts[k : k+n : k+n]
+	return carve(&b.parts, n)
 }
 
 // flags returns n flags.
@@ -155,12 +149,19 @@ func (b *driveBuf) flags(n int) []Flag {
 	if b == nil {
 		return make([]Flag, n)
 	}
-	if cap(b.flag)-len(b.flag) < n {
-		b.flag = make([]Flag, 0, max(2*cap(b.flag), 16*n))
+	return carve(&b.flag, n)
+}
+
+// carve returns the next n elements of the block *buf, starting a new
+// block (twice the last, at least 16·n) when it is full; the slices given
+// out of the old block keep it.
+func carve[T any](buf *[]T, n int) []T {
+	if cap(*buf)-len(*buf) < n {
+		*buf = make([]T, 0, max(2*cap(*buf), 16*n))
 	}
-	k := len(b.flag)
-	b.flag = b.flag[:k+n]
-	return b.flag[k : k+n : k+n]
+	k := len(*buf)
+	*buf = (*buf)[:k+n]
+	return (*buf)[k : k+n : k+n]
 }
 
 // reset makes the blocks' room free again once no point given from them
