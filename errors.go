@@ -143,19 +143,17 @@ func (e *LimitError) Error() string {
 	return string(units.AppendLimit(b, e.Quantity, e.Value, e.Bound, e.Limit))
 }
 
-// Unwrap returns the sentinel (ErrInfeasible, and ErrUnreachable when the
-// ratio is out of range) and the hydrostat package's error if there is one.
-func (e *LimitError) Unwrap() []error {
-	errs := make([]error, 0, 3)
-	errs = append(errs, e.Err)
-	if e.Err != ErrInfeasible {
-		errs = append(errs, ErrInfeasible)
-	}
-	if e.Cause != nil {
-		errs = append(errs, e.Cause)
-	}
-	return errs
+// Is reports whether target is the error's sentinel or ErrInfeasible
+// (ErrUnreachable is a kind of infeasible point), so that errors.Is finds
+// them without Unwrap.
+func (e *LimitError) Is(target error) bool {
+	return target != nil && (target == e.Err || target == ErrInfeasible)
 }
+
+// Unwrap returns the hydrostat package's error if there is one (nil
+// otherwise); the sentinels are matched by Is. Neither allocates: a search
+// asks errors.Is of every point it refuses.
+func (e *LimitError) Unwrap() error { return e.Cause }
 
 // ConvergenceError reports a solve that did not close its power balance.
 type ConvergenceError struct {

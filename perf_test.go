@@ -195,3 +195,33 @@ func TestSlabErrorsKept(t *testing.T) {
 		}
 	}
 }
+
+// TestLimitErrorIsAllocatesNothing: errors.Is on a *LimitError finds its
+// sentinels and its cause's, and tells other sentinels apart, without
+// allocating (a search asks it of every point it refuses).
+func TestLimitErrorIsAllocatesNothing(t *testing.T) {
+	var err error = &LimitError{Element: "hydrostat", Quantity: "motor setting", Value: units.Plain(1.2), Limit: units.Plain(1),
+		Err: ErrUnreachable, Cause: &hydrostat.LimitError{Quantity: "motor setting", Err: hydrostat.ErrSettingLimit}}
+	for _, c := range []struct {
+		target error
+		want   bool
+	}{
+		{ErrUnreachable, true}, {ErrInfeasible, true}, {hydrostat.ErrSettingLimit, true},
+		{ErrInput, false}, {ErrSingular, false}, {hydrostat.ErrPressureLimit, false},
+	} {
+		if got := errors.Is(err, c.target); got != c.want {
+			t.Errorf("errors.Is(err, %v) = %v, want %v", c.target, got, c.want)
+		}
+		if a := testing.AllocsPerRun(10, func() { _ = errors.Is(err, c.target) }); a != 0 {
+			t.Errorf("errors.Is(err, %v) allocates %v times", c.target, a)
+		}
+	}
+	var le *LimitError
+	if !errors.As(err, &le) || le.Err != ErrUnreachable {
+		t.Errorf("errors.As: %v", le)
+	}
+	var hl *hydrostat.LimitError
+	if !errors.As(err, &hl) || hl.Err != hydrostat.ErrSettingLimit {
+		t.Errorf("errors.As the cause: %v", hl)
+	}
+}
