@@ -102,21 +102,21 @@ const maxPasses = 4
 
 // compiledState is the compiled path's work space in a Solver.
 type compiledState struct {
-	on       bool // the layout has one loop and no drag sources
-	curve    hydrostat.Curve
-	wms      []units.AngularVelocity
-	tau      []units.Torque
-	slope    []units.Displacement
-	settings []float64
-	b        []float64   // given torques, in the order of the entries' extSrc
-	v        []float64   // b, then the units' torques
-	guessK   [][]float64 // per range and quadrant (guessSlot): the directions the last such point ended with
-	guessF   [][]int8
-	guessOK  []bool
-	seenK    []float64 // the directions of the first pass, to catch oscillation
-	seenF    []int8
-	hits     int // points solved on the compiled path (for tests)
-	passes   int // direction sets tried on the compiled path (for tests)
+	on        bool // the layout has one loop and no drag sources
+	curve     hydrostat.Curve
+	wms       []units.AngularVelocity
+	tau       []units.Torque
+	slope     []units.Displacement
+	settings  []float64
+	b         []float64   // given torques, in the order of the entries' extSrc
+	v         []float64   // b, then the units' torques
+	guessK    [][]float64 // per range and quadrant (guessSlot): the directions the last such point ended with
+	guessF    [][]int8
+	guessOK   []bool
+	losslessK []float64 // the lossless directions (losslessDirections), the first pass's without a guess
+	losslessF []int8
+	hits      int // points solved on the compiled path (for tests)
+	passes    int // direction sets tried on the compiled path (for tests)
 	// keyPorts are the ports whose torques a point's summary and its
 	// directions read (the input, outputs and PTOs, the lossy gears' two
 	// ports, every set's sun, the pump): the compiled path computes only
@@ -151,7 +151,13 @@ func (s *Solver) initCompiled() {
 	for i := range ng {
 		c.guessK[i], c.guessF[i] = make([]float64, len(l.gears)), make([]int8, len(l.planets))
 	}
-	c.seenK, c.seenF = make([]float64, len(l.gears)), make([]int8, len(l.planets))
+	c.losslessK, c.losslessF = make([]float64, len(l.gears)), make([]int8, len(l.planets))
+	for i := range c.losslessK {
+		c.losslessK[i] = 1
+	}
+	for i := range c.losslessF {
+		c.losslessF[i] = -1
+	}
 	for i := range l.drags {
 		if l.drags[i].kind == ChargePumpDrag {
 			c.charge = append(c.charge, i)
@@ -206,18 +212,22 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		return false
 	}
 	rg := s.guessSlot(p, s.w[el.shafts[0]]*s.w[el.shafts[1]])
-	if c.guessOK[rg] {
-		copy(s.gearK, c.guessK[rg])
-		copy(s.pflow, c.guessF[rg])
-	} else {
-		s.losslessDirections()
+	// The first pass's directions, to catch oscillation: the guess, left
+	// as it is until keepGuess, or the lossless ones.
+	firstK, firstF := c.losslessK, c.losslessF
+	guessed := c.guessOK[rg]
+	if guessed {
+		firstK, firstF = c.guessK[rg], c.guessF[rg]
 	}
+	copy(s.gearK, firstK)
+	copy(s.pflow, firstF)
 	lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge)
 	s.chargeRHS(el)
 	evals := 0
 	var dp float64
 	var e *sysEntry
 	var dz []float64
+	kept := false // the directions reached are the guess already kept
 	for pass := 0; ; pass++ {
 		if pass == maxPasses {
 			return false
@@ -227,12 +237,10 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		if !e.ok {
 			return false
 		}
-		if pass == 0 {
-			copy(c.seenK, s.gearK)
-			copy(c.seenF, s.pflow)
-		} else if equalK(c.seenK, s.gearK) && equalF(c.seenF, s.pflow) {
+		if pass > 0 && equalK(firstK, s.gearK) && equalF(firstF, s.pflow) {
 			return false // back to the first directions: they oscillate
 		}
+		kept = pass == 0 && guessed
 		dz = nil
 		var zc []float64
 		if s.dragRHS != nil {
@@ -313,7 +321,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 			s.detail(st, r, 1)
 		}
 		s.compErr = s.loopLimit(el.name, &lr.Limit)
-		s.keepGuess(rg)
+		s.keepGuess(rg, kept)
 		return true
 	}
 	res := s.summaryC(st, p, r, evals, tmax)
@@ -325,7 +333,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		s.detail(st, r, 1)
 	}
 	s.compErr = nil
-	s.keepGuess(rg)
+	s.keepGuess(rg, kept)
 	return true
 }
 
@@ -439,12 +447,15 @@ func (s *Solver) chargeRHS(el *element) {
 }
 
 // keepGuess keeps the directions of a point solved on the compiled path as
-// the first guess in slot rg (guessSlot).
-func (s *Solver) keepGuess(rg int) {
+// the first guess in slot rg (guessSlot), unless they are kept there
+// already.
+func (s *Solver) keepGuess(rg int, kept bool) {
 	c := &s.comp
-	copy(c.guessK[rg], s.gearK)
-	copy(c.guessF[rg], s.pflow)
-	c.guessOK[rg] = true
+	if !kept {
+		copy(c.guessK[rg], s.gearK)
+		copy(c.guessF[rg], s.pflow)
+		c.guessOK[rg] = true
+	}
 	c.hits++
 }
 
