@@ -14,6 +14,7 @@ import (
 	"unicode/utf8"
 	"weak"
 
+	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -177,10 +178,15 @@ type results struct {
 	speeds []float64    // cell k's output speed is speeds[k%len(speeds)]
 }
 
-// A block holds consecutive cells and the errors of those that failed.
+// A block holds consecutive cells and the errors of those that failed:
+// most of them limit errors kept as numbers in the cell and names in the
+// block's table of shapes, rebuilt when read, so that a map does not keep
+// the solver's error values (two per failed cell, with pointers) for the
+// collector to trace; any other error kept as it is.
 type block struct {
-	cells []cell
-	errs  []error // errs[c.aux&^failed] is why failed cell c failed
+	cells  []cell
+	errs   []error      // errs[c.aux&index] is why failed cell c failed, without errShape
+	shapes []limitShape // shapes[c.aux&index] is failed cell c's error, with errShape
 }
 
 // cell returns cell k and its block.
@@ -191,19 +197,26 @@ func (r *results) cell(k int) (*cell, *block) {
 
 // cell is one Cell as results stores it: 120 bytes. The output speed is
 // the result's axis, the binding margin's limit and names are in the
-// result's table.
+// result's table. A failed cell keeps only its range and output torque,
+// and for a limit error of known shape the error's value and limit in
+// inTorque and inPower, its cause's in outPower and loss.
 type cell struct {
 	outTorque, inTorque, inPower, outPower, loss float64
 	eff, share, dp, high, pumpW, motorW, xp, xm  float64
 	bindValue                                    float64
 	rng                                          int32
 	// aux is, for an OK cell, the index (+1) of its binding margin's names
-	// in results.binds (0: none); for a failed cell, failedBit and the index
-	// of its error in its block's errs.
+	// in results.binds (0: none); for a failed cell, failedBit, errShape
+	// for an error kept as numbers, and the index of the error or its shape
+	// in its block.
 	aux uint32
 }
 
-const failedBit = 1 << 31
+const (
+	failedBit = 1 << 31
+	errShape  = 1 << 30
+	index     = errShape - 1
+)
 
 // failed reports whether the cell did not solve.
 func (c *cell) failed() bool { return c.aux&failedBit != 0 }
@@ -224,17 +237,23 @@ func newMarginName(element, quantity, bound string, limit float64, kind units.Ki
 // at builds the Cell of cells[k].
 func (r *results) at(k int) Cell {
 	c, b := r.cell(k)
-	out := Cell{OK: !c.failed(), Range: int(c.rng),
-		OutputSpeed: units.AngularVelocity(r.speeds[k%len(r.speeds)]), OutputTorque: units.Torque(c.outTorque),
+	speed := units.AngularVelocity(r.speeds[k%len(r.speeds)])
+	if c.failed() {
+		out := Cell{Range: int(c.rng), OutputSpeed: speed, OutputTorque: units.Torque(c.outTorque)}
+		if c.aux&errShape != 0 {
+			out.Err = b.shapes[c.aux&index].rebuild(c)
+		} else {
+			out.Err = b.errs[c.aux&index]
+		}
+		return out
+	}
+	out := Cell{OK: true, Range: int(c.rng), OutputSpeed: speed, OutputTorque: units.Torque(c.outTorque),
 		InputTorque: units.Torque(c.inTorque), InputPower: units.Power(c.inPower), OutputPower: units.Power(c.outPower),
 		Loss: units.Power(c.loss), Efficiency: c.eff, HydraulicShare: c.share,
 		Pressure: units.Pressure(c.dp), HighPressure: units.Pressure(c.high),
 		PumpSpeed: units.AngularVelocity(c.pumpW), MotorSpeed: units.AngularVelocity(c.motorW),
 		PumpSetting: c.xp, MotorSetting: c.xm}
-	switch {
-	case c.failed():
-		out.Err = b.errs[c.aux&^failedBit]
-	case c.aux != 0:
+	if c.aux != 0 {
 		n := &r.binds[c.aux-1]
 		out.Binding = Margin{Element: n.element, Quantity: n.quantity, Bound: n.bound, Unchecked: n.unchecked,
 			Value: measure(c.bindValue, n.kind), Limit: measure(math.Float64frombits(n.limit), n.kind)}
@@ -277,8 +296,65 @@ type worker struct {
 	last  uint32       // the index (+1) of the last binding margin found
 	// extra lists binding margins missing from binds (none unless
 	// marginNames misses one of Solver.margins), shared under mu.
-	extra *extraNames
-	errs  []error // the errors of the block being solved
+	extra  *extraNames
+	errs   []error      // the errors of the block being solved, without errShape
+	shapes []limitShape // the shapes of its limit errors
+}
+
+// limitShape is a *LimitError (and its *hydrostat.LimitError cause, if any)
+// without its numbers.
+type limitShape struct {
+	element, quantity, bound string
+	valueKind, limitKind     units.Kind
+	err                      error // ErrInfeasible or ErrUnreachable
+	cause                    bool
+	cQuantity, cBound        string
+	cValueKind, cLimitKind   units.Kind
+	cErr                     error // one of hydrostat's sentinels, or nil
+}
+
+// hydroSentinels are the errors a *hydrostat.LimitError's Err may be for
+// its shape to be kept (sentinels compare by pointer).
+var hydroSentinels = []error{nil, hydrostat.ErrInvalid, hydrostat.ErrLimit, hydrostat.ErrPressureLimit, hydrostat.ErrSpeedLimit,
+	hydrostat.ErrSettingLimit, hydrostat.ErrNoSolution, hydrostat.ErrModel, hydrostat.ErrUndetermined, hydrostat.ErrOutsideMap}
+
+// keep records the error of failed cell c in the worker's block and
+// returns the cell's aux: a *LimitError of the solver's (sentinel Err, no
+// cause or a *hydrostat.LimitError with a sentinel Err) as numbers in c and
+// a shape, any other error as it is.
+func (w *worker) keep(err error, c *cell) uint32 {
+	if le, ok := err.(*LimitError); ok && (le.Err == ErrInfeasible || le.Err == ErrUnreachable) {
+		sh := limitShape{element: le.Element, quantity: le.Quantity, bound: le.Bound,
+			valueKind: le.Value.Kind, limitKind: le.Limit.Kind, err: le.Err}
+		ok := le.Cause == nil
+		if hl, isHydro := le.Cause.(*hydrostat.LimitError); isHydro && slices.Contains(hydroSentinels, hl.Err) {
+			ok, sh.cause = true, true
+			sh.cQuantity, sh.cBound, sh.cValueKind, sh.cLimitKind, sh.cErr = hl.Quantity, hl.Bound, hl.Value.Kind, hl.Limit.Kind, hl.Err
+			c.outPower, c.loss = hl.Value.SI, hl.Limit.SI
+		}
+		if ok {
+			c.inTorque, c.inPower = le.Value.SI, le.Limit.SI
+			i := slices.Index(w.shapes, sh)
+			if i < 0 {
+				i = len(w.shapes)
+				w.shapes = append(w.shapes, sh)
+			}
+			return failedBit | errShape | uint32(i)
+		}
+	}
+	w.errs = append(w.errs, err)
+	return failedBit | uint32(len(w.errs)-1)
+}
+
+// rebuild returns the error of failed cell c of this shape.
+func (sh *limitShape) rebuild(c *cell) error {
+	le := &LimitError{Element: sh.element, Quantity: sh.quantity, Value: measure(c.inTorque, sh.valueKind), Bound: sh.bound,
+		Limit: measure(c.inPower, sh.limitKind), Err: sh.err}
+	if sh.cause {
+		le.Cause = &hydrostat.LimitError{Quantity: sh.cQuantity, Value: measure(c.outPower, sh.cValueKind), Bound: sh.cBound,
+			Limit: measure(c.loss, sh.cLimitKind), Err: sh.cErr}
+	}
+	return le
 }
 
 type extraNames struct {
@@ -339,6 +415,7 @@ func (l Layout) getWorker() *worker {
 func (l Layout) putWorker(w *worker) {
 	w.q.PTO, w.binds, w.extra = nil, nil, nil
 	clear(w.errs)
+	clear(w.shapes)
 	l.workerPool().Put(w)
 }
 
@@ -400,15 +477,15 @@ func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) res
 				}
 				k0, k1 := r*size, min((r+1)*size, n)
 				cs := make([]cell, k1-k0)
-				w.errs = w.errs[:0]
+				w.errs, w.shapes = w.errs[:0], w.shapes[:0]
 				for k := range cs {
 					if err := f(w, k0+k, &cs[k]); err != nil {
-						cs[k].aux = failedBit | uint32(len(w.errs))
-						w.errs = append(w.errs, err)
+						cs[k].aux = w.keep(err, &cs[k])
 					}
 				}
-				res.blocks[r] = block{cells: cs, errs: slices.Clip(slices.Clone(w.errs))}
+				res.blocks[r] = block{cells: cs, errs: slices.Clip(slices.Clone(w.errs)), shapes: slices.Clip(slices.Clone(w.shapes))}
 				clear(w.errs) // drop the references
+				clear(w.shapes)
 				if progress != nil {
 					mu.Lock()
 					done += k1 - k0

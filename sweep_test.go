@@ -21,8 +21,12 @@ import (
 // solver: over random valid layouts (the property generators) and a small
 // map around a random point, with a fixed range or Auto, every cell that
 // Map.At returns equals, bit for bit, what Solve (or Best) gives for that
-// point on a Brief State: the error's text, the range, every number and the
-// binding margin with its names. And the table of margin names fixed
+// point on a Brief State: the error (rebuilt or kept) field by field, the
+// range, every number and the binding margin with its names. One worker,
+// fresh for the new layout, and the reference solver take the cells in the
+// same order: the compiled path's first guess of the loss directions is the
+// last point's, and near a change of direction the guess can decide the
+// last bits of a result. And the table of margin names fixed
 // before the run holds every binding margin met (none added during it) and
 // lists the margins of the full State (all but the rated pressures, which
 // are flags that never bind, and the other ranges' speed limits), in the
@@ -55,7 +59,7 @@ func TestMapCellsMatchSolve(t *testing.T) {
 		}
 		v, tq := c.p.Outputs[0].Speed, c.p.Outputs[0].Torque
 		spec := MapSpec{Range: rg, Input: c.p.Input, SpeedFrom: v / 2, SpeedTo: 3 * v / 2, SpeedSteps: 5,
-			TorqueFrom: -tq, TorqueTo: 2 * tq, TorqueSteps: 4, PTO: c.p.PTO, Workers: 2}
+			TorqueFrom: -tq, TorqueTo: 2 * tq, TorqueSteps: 4, PTO: c.p.PTO, Workers: 1}
 		m, err := c.l.Map(spec)
 		if err != nil {
 			t.Fatalf("Map: %v", err)
@@ -83,6 +87,11 @@ func TestMapCellsMatchSolve(t *testing.T) {
 				cl := m.At(i, j)
 				if cl.OK != (err == nil) || cl.Reason() != (Cell{Err: err}).Reason() || cl.Range != st.Range {
 					t.Fatalf("cell %d,%d: OK %v %q range %d; Solve: %v, range %d", i, j, cl.OK, cl.Reason(), cl.Range, err, st.Range)
+				}
+				// The error, rebuilt from the cell or kept, equals Solve's
+				// field by field, causes included.
+				if !reflect.DeepEqual(cl.Err, err) {
+					t.Fatalf("cell %d,%d: error %#v, Solve %#v", i, j, cl.Err, err)
 				}
 				if !same(float64(cl.OutputSpeed), float64(v)) {
 					t.Fatalf("cell %d,%d: speed %v, want %v", i, j, cl.OutputSpeed, v)
@@ -211,6 +220,25 @@ func refRecord(c Cell, design string, in units.AngularVelocity, names []string) 
 		f(float64(c.InputTorque)), f(c.InputPower.Kilowatts()), f(c.OutputPower.Kilowatts()), f(c.Loss.Kilowatts()),
 		f(100*c.Efficiency), f(100*c.HydraulicShare), f(c.Pressure.Bar()), f(c.HighPressure.Bar()),
 		f(c.PumpSpeed.RPM()), f(c.MotorSpeed.RPM()), f(100*c.PumpSetting), f(100*c.MotorSetting), bind, left, "")
+}
+
+// TestLimitErrorShapes keeps the rebuilding of a failed cell's limit
+// error (limitShape) complete: it copies every field of LimitError and
+// hydrostat.LimitError that exists now; a new field fails this test until
+// limitShape keeps it too.
+func TestLimitErrorShapes(t *testing.T) {
+	t.Parallel()
+	for _, c := range []struct {
+		typ    reflect.Type
+		fields int
+	}{
+		{reflect.TypeFor[LimitError](), 7},           // Element, Quantity, Value, Bound, Limit, Err, Cause
+		{reflect.TypeFor[hydrostat.LimitError](), 5}, // Quantity, Value, Bound, Limit, Err
+	} {
+		if n := c.typ.NumField(); n != c.fields {
+			t.Errorf("%v has %d fields, limitShape rebuilds %d", c.typ, n, c.fields)
+		}
+	}
 }
 
 // TestCellHasNoPointers keeps a map's storage out of the garbage
