@@ -122,6 +122,9 @@ type compiledState struct {
 	// ports, every set's sun, the pump): the compiled path computes only
 	// these unless the full State is asked for.
 	keyPorts []int32
+	wmax     float64 // the point's largest shaft speed
+	tmax     float64 // the largest key-port torque of the last portTorques
+	held     bool    // the last newton held an iterate at ±lim
 	// The charge pumps (indices into the layout's drags): their torques
 	// follow the loop's leakage, T = K·(Q_leak(Δp) + Q_flush) with
 	// K = p_charge/(η·ω), so the shafts' right-hand side is Q_leak·g + g0
@@ -211,81 +214,35 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	if !el.loop.Curve(units.AngularVelocity(s.w[el.shafts[0]]), c.wms, &c.curve) {
 		return false
 	}
-	rg := s.guessSlot(p, s.w[el.shafts[0]]*s.w[el.shafts[1]])
-	// The first pass's directions, to catch oscillation: the guess, left
-	// as it is until keepGuess, or the lossless ones.
-	firstK, firstF := c.losslessK, c.losslessF
-	guessed := c.guessOK[rg]
-	if guessed {
-		firstK, firstF = c.guessK[rg], c.guessF[rg]
+	c.wmax = 0
+	for _, v := range s.w[:len(l.shafts)] {
+		c.wmax = maxAbs(c.wmax, v)
 	}
-	copy(s.gearK, firstK)
-	copy(s.pflow, firstF)
+	rg := s.guessSlot(p, s.w[el.shafts[0]]*s.w[el.shafts[1]])
 	lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge)
 	s.chargeRHS(el)
-	evals := 0
-	var dp float64
-	var e *sysEntry
-	var dz []float64
-	kept := false // the directions reached are the guess already kept
-	for pass := 0; ; pass++ {
-		if pass == maxPasses {
-			return false
-		}
-		c.passes++
-		e = s.entry(r, p)
-		if !e.ok {
-			return false
-		}
-		if pass > 0 && equalK(firstK, s.gearK) && equalF(firstF, s.pflow) {
-			return false // back to the first directions: they oscillate
-		}
-		kept = pass == 0 && guessed
-		dz = nil
-		var zc []float64
-		if s.dragRHS != nil {
-			// The drag torques load the shaft rows: z = A_ref⁻¹ of them
-			// adds to the pressure's equation and to every port torque.
-			dz = s.dragY
-			clear(dz)
-			copy(dz, s.dragRHS)
-			if c.charge != nil {
-				for i, v := range c.g0 {
-					dz[i] += v
-				}
-				zc = c.zc
-				clear(zc)
-				copy(zc, c.g)
-				e.f.Solve(zc)
-			}
-			e.f.Solve(dz)
-		}
-		var ok bool
-		evals = 0 // the final pass's count: the same whatever the first guess
-		dp, ok = s.newton(e, p, dz, zc, lim, &evals)
-		if !ok {
-			return false
-		}
-		if zc != nil {
-			// The charge pumps' torques at the pressure reached, in the
-			// drags' z and in their states.
-			q, _, ok := c.curve.Leakage(units.Pressure(dp))
-			if !ok {
-				return false
-			}
-			dz = c.zt
-			for i, v := range s.dragY {
-				dz[i] = v + float64(q)*zc[i]
-			}
-			for k, i := range c.charge {
-				s.dragT[i] = c.chargeK[k] * (float64(q) + float64(s.l.drags[i].pump.Flushing))
-			}
-		}
-		s.portTorques(e, dz, c.keyPorts)
-		if !s.readDirections() {
-			break
-		}
+	// From the guess of the directions, and where that fails from the
+	// lossless ones: so a point the compiled path solves from the lossless
+	// directions is solved whatever guess the points before left (which
+	// path solves a point must not depend on them, since the two paths
+	// agree only to rounding).
+	var ps settled
+	ok, kept := false, c.guessOK[rg]
+	if kept {
+		ps, ok = s.settle(r, p, el, c.guessK[rg], c.guessF[rg], lim)
 	}
+	if !ok {
+		kept = false
+		ps, ok = s.settle(r, p, el, c.losslessK, c.losslessF, lim)
+	}
+	if !ok || ps.held {
+		// A point whose pressure Newton's method pressed beyond the
+		// relief is the general path's to decide: it may find no balance
+		// below the relief where Newton's method found one at a limit.
+		return false
+	}
+	kept = kept && ps.passes == 1 // the guess held: it is kept already
+	e, dz, dp, evals := ps.e, ps.dz, ps.dp, ps.evals
 	// A torque below 1e-12 of the largest, non-zero, is no better than the
 	// rounding of the largest: the general path solves such a near-idle
 	// point (exact does, by full LU).
@@ -335,6 +292,88 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	s.compErr = nil
 	s.keepGuess(rg, kept)
 	return true
+}
+
+// settled is where settle leaves a point: the factored system of the
+// directions reached, the drags' z (nil without drag sources), the loop
+// pressure, the evaluations of the unit torques of the last pass and the
+// passes taken.
+type settled struct {
+	e      *sysEntry
+	dz     []float64
+	dp     float64
+	evals  int
+	passes int
+	held   bool // Newton's method held an iterate at 1.5 times the relief
+}
+
+// settle solves p from the directions k, f (the guess, or the lossless
+// set), repeating with the directions read off each solution until they
+// hold, and reports whether they did; the key ports' torques are then in
+// s.t and the charge pumps' in s.dragT.
+func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int8, lim float64) (settled, bool) {
+	c := &s.comp
+	copy(s.gearK, k)
+	copy(s.pflow, f)
+	var ps settled
+	for pass := 0; ; pass++ {
+		if pass == maxPasses {
+			return ps, false
+		}
+		c.passes++
+		ps.passes = pass + 1
+		e := s.entry(r, p)
+		if !e.ok {
+			return ps, false
+		}
+		if pass > 0 && equalK(k, s.gearK) && equalF(f, s.pflow) {
+			return ps, false // back to the first directions: they oscillate
+		}
+		var dz, zc []float64
+		if s.dragRHS != nil {
+			// The drag torques load the shaft rows: z = A_ref⁻¹ of them
+			// adds to the pressure's equation and to every port torque.
+			dz = s.dragY
+			clear(dz)
+			copy(dz, s.dragRHS)
+			if c.charge != nil {
+				for i, v := range c.g0 {
+					dz[i] += v
+				}
+				zc = c.zc
+				clear(zc)
+				copy(zc, c.g)
+				e.f.Solve(zc)
+			}
+			e.f.Solve(dz)
+		}
+		evals := 0 // the final pass's count: the same whatever the first guess
+		dp, ok := s.newton(e, p, dz, zc, lim, &evals)
+		if !ok {
+			return ps, false
+		}
+		ps.held = c.held
+		if zc != nil {
+			// The charge pumps' torques at the pressure reached, in the
+			// drags' z and in their states.
+			q, _, ok := c.curve.Leakage(units.Pressure(dp))
+			if !ok {
+				return ps, false
+			}
+			dz = c.zt
+			for i, v := range s.dragY {
+				dz[i] = v + float64(q)*zc[i]
+			}
+			for k, i := range c.charge {
+				s.dragT[i] = c.chargeK[k] * (float64(q) + float64(s.l.drags[i].pump.Flushing))
+			}
+		}
+		s.portTorques(e, dz, c.keyPorts)
+		ps.e, ps.dz, ps.dp, ps.evals = e, dz, dp, evals
+		if !s.readDirections() {
+			return ps, true
+		}
+	}
 }
 
 // summaryC is summary on the compiled path: it reads the key ports only
@@ -461,7 +500,8 @@ func (s *Solver) keepGuess(rg int, kept bool) {
 
 // newton solves F(Δp) = 0 for the directions of e from Δp = 0 and returns
 // Δp, with the units' torques at it in c.tau; false when it does not
-// settle within 30 steps, leaves ±lim, or the curve cannot decide.
+// settle within 30 steps, asks three times in a row for a pressure beyond
+// ±lim, or the curve cannot decide.
 func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, evals *int) (float64, bool) {
 	c := &s.comp
 	n := s.n
@@ -483,6 +523,8 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, ev
 	}
 	dp := 0.0
 	done := false
+	over := 0 // iterates in a row held at ±lim
+	c.held = false
 	for it := 0; it < 30; it++ {
 		*evals++
 		if !c.curve.Torques(units.Pressure(dp), c.settings, c.tau, c.slope) {
@@ -518,8 +560,18 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, ev
 		}
 		dp -= step
 		if math.Abs(dp) > lim {
-			return 0, false
+			// Beyond 1.5 times the relief (an overshoot from Δp = 0 under
+			// directions not yet the point's): hold the iterate there, as
+			// the general path does, and give up when Newton keeps asking
+			// for more.
+			if over++; over == 3 {
+				return 0, false
+			}
+			dp = math.Copysign(lim, dp)
+			c.held = true
+			continue
 		}
+		over = 0
 		// Quadratic convergence: after a step below 1e-7 of the pressure
 		// the next would be below 1e-14 of it; the torques are taken at
 		// the pressure the step reached.
@@ -529,8 +581,8 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, ev
 }
 
 // portTorques sets the port torques T = H·b + W·τ (+ z of the drag
-// torques) into s.t: of the ports listed, or of every port when ports is
-// nil.
+// torques) into s.t: of the ports listed (the largest of them, in
+// magnitude, into c.tmax), or of every port when ports is nil.
 func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 	c := &s.comp
 	v := c.v[:e.nExt+len(c.tau)]
@@ -545,6 +597,7 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 		// Four columns (one output and a PTO or two outputs, two units):
 		// each key port's sum written out, in its row's order.
 		v0, v1, v2, v3 := v[0], v[1], v[2], v[3]
+		var tmax float64
 		for _, i := range ports {
 			row := pt[int(i)*4 : int(i)*4+4 : int(i)*4+4]
 			sum := 0 + row[0]*v0 + row[1]*v1 + row[2]*v2 + row[3]*v3
@@ -552,10 +605,13 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 				sum += dz[i]
 			}
 			t[i] = sum
+			tmax = maxAbs(tmax, sum)
 		}
+		c.tmax = tmax
 		return
 	}
 	if ports != nil {
+		var tmax float64
 		for _, i := range ports {
 			row := pt[int(i)*m : int(i+1)*m]
 			var sum float64
@@ -566,7 +622,9 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 				sum += dz[i]
 			}
 			t[i] = sum
+			tmax = maxAbs(tmax, sum)
 		}
+		c.tmax = tmax
 		return
 	}
 	for i := range t {
@@ -599,15 +657,23 @@ func (s *Solver) losslessDirections() {
 // reports whether any changed.
 func (s *Solver) readDirections() bool {
 	l := s.l
+	// The rounding of the point's torques: 1e-12 of the largest key-port
+	// torque. A torque below it is nil (an idle range gear, an idle set):
+	// read off it, a direction would follow the rounding of the factored
+	// system, which differs from one set of directions to the next, and so
+	// with the points solved before.
+	floor := 1e-12 * s.comp.tmax
 	changed := false
 	for _, gi := range s.comp.gears {
 		e := &s.ec[gi]
 		pa := s.t[e.port0] * s.w[e.a]
 		pb := s.t[e.port0+1] * s.w[e.b]
 		scale := math.Abs(pa) + math.Abs(pb)
-		k := s.gearK[e.index]
+		// A gear without torque (an idle range gear) is taken as lossless,
+		// as a fresh general solve starts it, whatever the guess said.
+		k := 1.0
 		switch {
-		case scale == 0:
+		case scale == 0 || math.Abs(s.t[e.port0]) <= floor && math.Abs(s.t[e.port0+1]) <= floor:
 		case pa > 1e-13*scale:
 			k = e.eta
 		case pb > 1e-13*scale:
@@ -620,7 +686,7 @@ func (s *Solver) readDirections() bool {
 	}
 	for _, pi := range l.planets {
 		e := &s.ec[pi]
-		f := s.planetFlow(e)
+		f := s.planetFlow(e, floor, true)
 		if f != s.pflow[e.index] {
 			s.pflow[e.index] = f
 			changed = true
@@ -630,8 +696,13 @@ func (s *Solver) readDirections() bool {
 }
 
 // planetFlow returns the direction of the rolling power of set e read off
-// the solver's torques and speeds (−1: turning as a block, lossless).
-func (s *Solver) planetFlow(e *elemC) int8 {
+// the solver's torques and speeds (−1: turning as a block, lossless). A
+// rolling power within rounding keeps the direction the set has, −1 read
+// as the sun driving; with canon set, such a power (or a sun torque below
+// floor) reads as the sun driving whatever the set had, as a fresh general
+// solve reads it from its lossless start (the compiled path: its result
+// must not follow a guess).
+func (s *Solver) planetFlow(e *elemC, floor float64, canon bool) int8 {
 	ws, wr, wc := s.w[e.a], s.w[e.b], s.w[e.c]
 	rel := ws - wc
 	wmax := maxAbs(maxAbs(math.Abs(ws), wr), wc)
@@ -641,6 +712,8 @@ func (s *Solver) planetFlow(e *elemC) int8 {
 	switch {
 	case math.Abs(rel) <= planetary.BlockTolerance*wmax:
 		f = -1
+	case canon && (math.Abs(s.t[e.port0]) <= floor || math.Abs(roll) <= 1e-13*scale):
+		f = 0
 	case roll > 1e-13*scale:
 		f = 0
 	case roll < -1e-13*scale:

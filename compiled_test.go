@@ -1,11 +1,13 @@
 package powersplit
 
 import (
+	"errors"
 	"math"
 	"testing"
 
 	"pgregory.net/rapid"
 
+	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -51,7 +53,7 @@ func checkCompiled(t *rapid.T) bool {
 	var a, b State
 	ea, eb := fast.Solve(c.p, &a), gen.Solve(c.p, &b)
 	took := fast.comp.hits > hits
-	if !sameError(ea, eb) {
+	if !sameError(ea, eb) && !foundBalance(ea, eb, &a, c.l) {
 		t.Fatalf("%s: compiled: %v; general: %v", c.kind, ea, eb)
 	}
 	if ea != nil {
@@ -75,6 +77,44 @@ func checkCompiled(t *rapid.T) bool {
 		t.Fatalf("%s: Brief compiled %v: %s", c.kind, err, summaryDiff(&br, &a, 0))
 	}
 	return took
+}
+
+// foundBalance reports whether the compiled path's error ea is a setting
+// limit at a torque balance below the relief where the general path's eb
+// says it found no balance below the relief: the one place the two may
+// differ. The general path looks for the balance by bracketing the loop
+// pressure on a grid and can miss one where the schedule holds its
+// settings at a limit; the compiled path's Newton steps on the same
+// torques find it. It is accepted only if the hydrostat itself confirms
+// the compiled loop state: Loop.At at the compiled pressure and unit
+// speeds reports the same setting limit with the same unit torques
+// (1e-9), below the relief.
+func foundBalance(ea, eb error, a *State, l Layout) bool {
+	var lb *LimitError
+	if !errors.Is(ea, hydrostat.ErrSettingLimit) || !errors.As(eb, &lb) || lb.Quantity != "high-line pressure for a torque balance" {
+		return false
+	}
+	el := &l.l.elems[l.l.loops[0]]
+	lr := &a.Loops[0]
+	if len(a.Loops) != 1 || !(lr.High < el.lspec.Relief) {
+		return false
+	}
+	wms := make([]units.AngularVelocity, len(lr.Motors))
+	for k := range wms {
+		wms[k] = lr.Motors[k].Speed
+	}
+	var at hydrostat.LoopState
+	if err := el.loop.At(lr.Pump.Speed, wms, lr.Pressure, &at); !errors.Is(err, hydrostat.ErrSettingLimit) {
+		return false
+	}
+	close := func(x, y units.Torque) bool {
+		return math.Abs(float64(x-y)) <= 1e-9*(math.Abs(float64(y))+1)
+	}
+	ok := close(at.Pump.Torque, lr.Pump.Torque)
+	for k := range at.Motors {
+		ok = ok && close(at.Motors[k].Torque, lr.Motors[k].Torque)
+	}
+	return ok
 }
 
 // FuzzCompiledMatchesGeneral is TestPropertyCompiledMatchesGeneral as a
@@ -248,7 +288,7 @@ func TestPropertyCompiledMatchesGeneralDrags(t *testing.T) {
 		if fast.comp.hits > 0 {
 			compiled++
 		}
-		if !sameError(ea, eb) {
+		if !sameError(ea, eb) && !foundBalance(ea, eb, &a, l) {
 			t.Fatalf("%s: compiled: %v; general: %v", kind, ea, eb)
 		}
 		if ea != nil {
@@ -265,6 +305,57 @@ func TestPropertyCompiledMatchesGeneralDrags(t *testing.T) {
 			da, db := a.Drags[i], b.Drags[i]
 			if math.Abs(float64(da.Torque-db.Torque)) > tol*(math.Abs(float64(db.Torque))+1e-9) {
 				t.Fatalf("%s: drag %s torque %.17g, general %.17g", kind, db.Name, float64(da.Torque), float64(db.Torque))
+			}
+		}
+	})
+}
+
+// TestPropertyCompiledHistoryFree: a point's result does not depend on the
+// points a solver solved before it (the first guess of the directions
+// differs, the result may not): twenty points of a layout around a drawn
+// one, solved forwards by one solver and backwards by another, give the
+// same bits, errors included. Maps rely on it for results identical with
+// any number of workers, the vehicle's day for answering a repeated
+// demand from memory.
+func TestPropertyCompiledHistoryFree(t *testing.T) {
+	t.Parallel()
+	rapid.Check(t, func(t *rapid.T) {
+		c := rapid.Custom(genCase).Draw(t, "layout and point")
+		v, tq := c.p.Outputs[0].Speed, c.p.Outputs[0].Torque
+		var pts []Point
+		for i := range 4 {
+			for j := range 5 {
+				p := c.p
+				p.Outputs = make([]OutputDemand, len(c.p.Outputs))
+				for k := range p.Outputs {
+					p.Outputs[k].Speed = v/2 + units.AngularVelocity(float64(j)/4)*v
+				}
+				p.Outputs[0].Torque = -tq + 3*tq*units.Torque(float64(i)/3)
+				pts = append(pts, p)
+			}
+		}
+		type res struct {
+			err  string
+			bits [4]uint64
+		}
+		get := func(s *Solver, p Point, st *State) res {
+			var r res
+			if err := s.Solve(p, st); err != nil {
+				r.err = err.Error()
+			}
+			r.bits = [4]uint64{math.Float64bits(float64(st.InputTorque)), math.Float64bits(float64(st.Loss)),
+				math.Float64bits(st.HydraulicShare), math.Float64bits(float64(st.Loops[0].Pressure))}
+			return r
+		}
+		a, b := NewSolver(c.l), NewSolver(c.l)
+		sa, sb := State{Brief: true}, State{Brief: true}
+		fwd := make([]res, len(pts))
+		for i, p := range pts {
+			fwd[i] = get(a, p, &sa)
+		}
+		for i := len(pts) - 1; i >= 0; i-- {
+			if r := get(b, pts[i], &sb); r != fwd[i] {
+				t.Fatalf("%s point %d: forwards %+v, backwards %+v", c.kind, i, fwd[i], r)
 			}
 		}
 	})

@@ -1129,7 +1129,7 @@ func (s *Solver) directions(it int) bool {
 	}
 	for _, pi := range l.planets {
 		e := &l.elems[pi]
-		f := s.planetFlow(&s.ec[pi])
+		f := s.planetFlow(&s.ec[pi], 0, false)
 		if f != s.pflow[e.index] {
 			if s.pflip[e.index] < maxFlips {
 				s.pflow[e.index] = f

@@ -310,10 +310,22 @@ func (s *Solver) summary(st *State, p Point, r *rangeDef, iters int, torques int
 		lr := &st.Loops[j]
 		src := &s.loopA[j]
 		m, set := lr.Motors, lr.Settings
-		copy(m, src.Motors)
-		copy(set, src.Settings)
-		lr.LoopState = *src
-		lr.Motors, lr.Settings = m, set
+		if torques == 0 {
+			// Nothing solved yet (a limit found from the speeds alone): no
+			// loop state but the units' speeds, never an earlier point's.
+			clear(m)
+			clear(set)
+			lr.LoopState = hydrostat.LoopState{Motors: m, Settings: set}
+			lr.Pump.Speed = units.AngularVelocity(s.w[el.shafts[0]])
+			for k := range m {
+				m[k].Speed = units.AngularVelocity(s.w[el.shafts[k+1]])
+			}
+		} else {
+			copy(m, src.Motors)
+			copy(set, src.Settings)
+			lr.LoopState = *src
+			lr.Motors, lr.Settings = m, set
+		}
 		lr.Name = el.name
 		lr.Ratio = s.w[el.shafts[1]] / s.w[el.shafts[0]]
 		lr.HydraulicPower = 0
