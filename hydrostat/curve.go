@@ -1,6 +1,7 @@
 package hydrostat
 
 import (
+	"fmt"
 	"math"
 
 	"github.com/powersplit-dev/powersplit/units"
@@ -53,6 +54,7 @@ type Curve struct {
 	ap, bp     float64       // pump leakage a + b·|x| per |Δp|
 	am, bm     float64       // Σ over the motors
 	tau        []curveTorque // per unit, pump first
+	fixed      bool          // every unit's torque is fixed (curveTorque.fixed): Fill from the terms
 	limit      setLimit      // the setting limit of the last Torques, if hit
 }
 
@@ -63,6 +65,7 @@ type curveTorque struct {
 	dmax   float64 // the unit's maximum displacement
 	fixed  bool    // τ = t0 + t1·|Δp| (lossless, or Wilson with its torque at full displacement)
 	t0, t1 float64
+	la, lb float64 // the unit's leakage a + b·|x| per |Δp| at its speed
 }
 
 // curvePlan is what a Curve needs of a loop that does not change with the
@@ -200,6 +203,7 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 		return false
 	}
 	var mq, am, bm float64
+	fixed := u0.fixed
 	for i, ws := range motorSpeeds {
 		w := float64(ws)
 		if !finite(w) {
@@ -215,11 +219,15 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 		bm += b
 		c.wms[i] = ws
 		up.torque(&c.tau[i+1], w)
+		c.tau[i+1].la, c.tau[i+1].lb = a, b
+		fixed = fixed && up.fixed
 	}
 	c.pumpQ, c.motorQ = u0.dmax*wp, mq
 	c.invQ, c.invM = 1/c.pumpQ, 1/mq
 	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
 	u0.torque(&c.tau[0], wp)
+	c.tau[0].la, c.tau[0].lb = ap, bp
+	c.fixed = fixed
 	c.ok = true
 	return true
 }
@@ -418,13 +426,54 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 	if c.limit.hit {
 		st.Limit = c.limit.value()
 	}
-	if err := l.fill(units.AngularVelocity(c.wp), c.wms, dp, st); err != nil {
+	var err error
+	if c.fixed {
+		err = c.fill(float64(dp), st)
+	} else {
+		err = l.fill(units.AngularVelocity(c.wp), c.wms, dp, st)
+	}
+	if err != nil {
 		return err
 	}
 	if st.Limit.Err == nil {
 		l.crossed(st)
 	}
 	return st.Limit.Err
+}
+
+// fill is Loop.fill for a Curve whose units' torques are fixed: each unit's
+// leakage and loss torque from the terms the Curve keeps at its speed, as
+// the loss model gives them to rounding, not from the model again.
+func (c *Curve) fill(dp float64, st *LoopState) error {
+	l := c.l
+	for _, x := range st.Settings {
+		if !finite(x) {
+			return fmt.Errorf("%w: schedule gave setting %v", ErrModel, x)
+		}
+	}
+	st.Pressure = units.Pressure(dp)
+	st.Low = l.spec.Charge
+	st.High = l.spec.Charge + units.Pressure(math.Abs(dp))
+	a := math.Abs(dp)
+	for i := range c.tau {
+		tc := &c.tau[i]
+		u, p, q := &l.spec.Pump, &st.Pump, dp
+		if i > 0 {
+			u, p, q = &l.spec.Motors[i-1], &st.Motors[i-1], -dp
+		}
+		x := st.Settings[i]
+		if math.Abs(x) > 1 {
+			return &LimitError{Quantity: "setting", Value: units.Plain(x), Bound: "full displacement", Limit: units.Plain(math.Copysign(1, x)), Err: ErrSettingLimit}
+		}
+		qi, ti, mode := u.ideal(x, tc.w, q)
+		leak := (tc.la + tc.lb*math.Abs(x)) * a
+		tau := tc.t0 + tc.t1*a
+		if err := u.point(p, x, tc.w, q, qi, ti, mode, leak, tau); err != nil {
+			return err
+		}
+	}
+	st.sum()
+	return nil
 }
 
 // torqueSlope returns the torque of u at setting x, speed w and pressure

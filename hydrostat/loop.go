@@ -410,6 +410,12 @@ func (l *Loop) fill(wp units.AngularVelocity, wms []units.AngularVelocity, dp un
 			return err
 		}
 	}
+	st.sum()
+	return nil
+}
+
+// sum sums the loop's powers, loss and leakage from its units' points.
+func (st *LoopState) sum() {
 	var in, out, loss, leak float64
 	add := func(p *Point) {
 		if m := float64(p.Mechanical); m > 0 {
@@ -430,7 +436,6 @@ func (l *Loop) fill(wp units.AngularVelocity, wms []units.AngularVelocity, dp un
 	if in > 0 {
 		st.Efficiency = clamp01(out / in) // out ≥ 0, in > 0: never NaN
 	}
-	return nil
 }
 
 // LoopInput is the operating point for Loop.Solve.

@@ -405,18 +405,7 @@ func (u *Unit) eval(x, w, dp float64, f fluid, p *Point) error {
 	if math.Abs(x) > 1 {
 		return &LimitError{Quantity: "setting", Value: units.Plain(x), Bound: "full displacement", Limit: units.Plain(math.Copysign(1, x)), Err: ErrSettingLimit}
 	}
-	qi := x * u.dmax * w
-	ti := dp * x * u.dmax
-	// The mode is the sign of the ideal power Δp·x·ω; a product that
-	// underflows to zero counts as Idle so the efficiencies stay defined.
-	mode := Idle
-	if qi != 0 && ti != 0 {
-		if sgn(dp)*sgn(x)*sgn(w) > 0 {
-			mode = Pumping
-		} else {
-			mode = Motoring
-		}
-	}
+	qi, ti, mode := u.ideal(x, w, dp)
 	var leak, tau float64
 	if wm := u.wil; wm != nil {
 		// The common model without the interface call and the Condition.
@@ -425,9 +414,6 @@ func (u *Unit) eval(x, w, dp float64, f fluid, p *Point) error {
 			return err
 		}
 		leak, tau = float64(ls.Leakage), float64(ls.Torque)
-		if !(leak >= 0) || !(tau >= 0) || math.IsInf(leak, 0) || math.IsInf(tau, 0) {
-			return fmt.Errorf("%w: leakage %v, loss torque %v", ErrModel, units.VolumeFlow(leak), units.Torque(tau))
-		}
 	} else if u.spec.Loss != nil {
 		ls, err := u.spec.Loss.Losses(Condition{
 			Setting: x, MaxDisplacement: units.Displacement(u.dmax), Speed: units.AngularVelocity(w),
@@ -439,9 +425,34 @@ func (u *Unit) eval(x, w, dp float64, f fluid, p *Point) error {
 			return err
 		}
 		leak, tau = float64(ls.Leakage), float64(ls.Torque)
-		if !(leak >= 0) || !(tau >= 0) || math.IsInf(leak, 0) || math.IsInf(tau, 0) {
-			return fmt.Errorf("%w: leakage %v, loss torque %v", ErrModel, units.VolumeFlow(leak), units.Torque(tau))
+	}
+	return u.point(p, x, w, dp, qi, ti, mode, leak, tau)
+}
+
+// ideal returns the ideal flow x·D·ω and torque Δp·x·D of u and its mode,
+// the sign of the ideal power Δp·x·ω; a product that underflows to zero
+// counts as Idle so the efficiencies stay defined.
+func (u *Unit) ideal(x, w, dp float64) (qi, ti float64, mode Mode) {
+	qi = x * u.dmax * w
+	ti = dp * x * u.dmax
+	mode = Idle
+	if qi != 0 && ti != 0 {
+		if sgn(dp)*sgn(x)*sgn(w) > 0 {
+			mode = Pumping
+		} else {
+			mode = Motoring
 		}
+	}
+	return qi, ti, mode
+}
+
+// point writes u's operating point into p from its setting x, speed w,
+// pressure dp, ideal flow and torque, mode, leakage and loss torque, and
+// refuses a loss model's negative or infinite leakage or torque and a
+// result that overflows.
+func (u *Unit) point(p *Point, x, w, dp, qi, ti float64, mode Mode, leak, tau float64) error {
+	if !(leak >= 0) || !(tau >= 0) || math.IsInf(leak, 0) || math.IsInf(tau, 0) {
+		return fmt.Errorf("%w: leakage %v, loss torque %v", ErrModel, units.VolumeFlow(leak), units.Torque(tau))
 	}
 	q := qi - sgn(dp)*leak
 	t := ti + sgn(w)*tau
