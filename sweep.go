@@ -389,23 +389,41 @@ func (w *worker) bindIndex(m *Margin) uint32 {
 	return uint32(len(w.binds) + k + 1)
 }
 
-// workerPools keeps the idle workers of sweeps and maps per layout, each
-// with its Solver and State: a Solver takes 150 µs and 270 kB to build for
-// the benchmark layout, as long as solving 200 of its points, and a sweep of
-// a few points was mostly that. A worker's results do not depend on the
-// points it solved before. The key is a weak pointer and the entry goes when
-// its layout is collected, which the pooled workers (they refer to it) do
-// not hold up for long: the collector empties a sync.Pool within two
-// cycles.
+// workerPools keeps the idle workers of small sweeps and maps (at most
+// poolCells cells) per layout, each with its Solver and State: a Solver
+// takes 150 µs and 270 kB to build for the benchmark layout, as long as
+// solving 200 of its points, and a sweep of a few points was mostly that.
+// A worker's results do not depend on the points it solved before. The key
+// is a weak pointer and the entry goes when its layout is collected, which
+// the pooled workers (they refer to it) do not hold up for long: the
+// collector empties a sync.Pool within two cycles.
+//
+// A large run builds its workers afresh, each on the goroutine that uses
+// it, where the Solver costs about 1 % of the run: in BenchmarkMapSpeedup a
+// 200 × 200 map on 2 cores ran about 10 % slower on pooled workers than on
+// fresh ones (medians of 120 rounds each, 439 and 398 ns a point), though
+// faster in BenchmarkMapVsGeneral (348 and 380). The likely cause, not
+// verified: solvers built one after the other on one core (as the 1-core
+// maps build them) share cache lines between their small slices.
 var workerPools sync.Map // weak.Pointer[layout] → *sync.Pool of *worker
 
-// getWorker returns an idle worker of l's pool or a new one. Each worker is
-// its own allocation, so that one worker's writes to its State never share
-// a cache line with another's.
-func (l Layout) getWorker() *worker {
+// poolCells is the largest run whose workers come from the pool.
+const poolCells = 8192
+
+// getWorker returns an idle worker of l's pool (when pooled) or a new one.
+// Each worker is its own allocation, so that one worker's writes to its
+// State never share a cache line with another's.
+func (l Layout) getWorker(pooled bool) *worker {
+	if !pooled {
+		return l.newWorker()
+	}
 	if w, _ := l.workerPool().Get().(*worker); w != nil {
 		return w
 	}
+	return l.newWorker()
+}
+
+func (l Layout) newWorker() *worker {
 	w := &worker{s: NewSolver(l)}
 	w.st = State{Brief: !w.s.general} // a cell needs the summary only
 	return w
@@ -456,6 +474,7 @@ func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) res
 		workers = runtime.GOMAXPROCS(0)
 	}
 	workers = max(1, min(workers, nblocks))
+	pooled := n <= poolCells
 	res := results{n: n, size: size, blocks: make([]block, nblocks), binds: marginNames(l.l)}
 	extra := &extraNames{}
 	var next atomic.Int64
@@ -464,8 +483,10 @@ func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) res
 	var wg sync.WaitGroup
 	for range workers {
 		wg.Go(func() {
-			w := l.getWorker()
-			defer l.putWorker(w)
+			w := l.getWorker(pooled)
+			if pooled {
+				defer l.putWorker(w)
+			}
 			outs := w.q.Outputs
 			w.q = p
 			w.q.Outputs = append(outs[:0], p.Outputs...)
