@@ -34,13 +34,17 @@ import (
 // (hydrostat.Curve.Leakage), so the charge torque is the one at the
 // pressure reached.
 //
-// Each solve of a direction set starts from Δp = 0, so a point's result
-// depends on the point alone, never on the points solved before it: maps
-// stay identical for any number of workers. The first guess of the
-// directions is those of the last point of the same range with the same
-// signs of output power, unit speeds and rolling speed (guessSlot); the
-// directions read off the solution (as the general path reads them) must
-// agree with those assumed, else the solve is repeated with them. The
+// The first guess of the directions is those of the last point of the
+// same range with the same signs of output power, unit speeds and rolling
+// speed (guessSlot); the directions read off the solution (as the general
+// path reads them) must agree with those assumed, else the solve is
+// repeated with them (settle). A point's result depends on the point
+// alone, never on the points solved before it, so maps stay identical for
+// any number of workers and a repeated point gives the same bits
+// (TestPropertyCompiledHistoryFree): each solve of a direction set starts
+// from Δp = 0; a gear or set whose torque is rounding (below 1e-12 of the
+// point's largest) reads as the lossless start reads it, whatever the
+// guess; and a guess that fails is followed by the lossless start. The
 // directions and the summary read only the key ports (the input, outputs
 // and PTOs, the lossy gears, the sets' suns, the pump); every port torque
 // is computed only for a full State.
@@ -53,10 +57,10 @@ import (
 // no balance below the relief at all). Everywhere else the compiled path
 // gives up and the general path solves the point: several loops, held
 // motor settings, a loop the hydrostat cannot see as a Curve or a pump
-// near standstill, a pressure beyond 1.5 times the relief, Newton's method
-// not settling, directions that oscillate, a key port's torque below
-// 1e-12 of the largest, any other crossed limit, or a power balance not
-// closing. So both paths give the same errors and agree to rounding
+// near standstill, a Newton iterate held at 1.5 times the relief,
+// Newton's method not settling, directions that oscillate, a key port's
+// torque below 1e-12 of the largest, any other crossed limit, or a power
+// balance not closing. So both paths give the same errors and agree to rounding
 // (TestPropertyCompiledMatchesGeneral, TestMapCompiledMatchesGeneral; with
 // a charge pump to the general path's own lag, ...Drags).
 
