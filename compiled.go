@@ -127,7 +127,8 @@ type compiledState struct {
 	// these unless the full State is asked for.
 	keyPorts []int32
 	wmax     float64 // the point's largest shaft speed
-	tmax     float64 // the largest key-port torque of the last portTorques
+	tmax     float64 // the largest key-port |torque| of the last portTorques
+	tmin     float64 // and the smallest non-zero one
 	held     bool    // the last newton held an iterate at ±lim
 	// The charge pumps (indices into the layout's drags): their torques
 	// follow the loop's leakage, T = K·(Q_leak(Δp) + Q_flush) with
@@ -250,16 +251,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	// A torque below 1e-12 of the largest, non-zero, is no better than the
 	// rounding of the largest: the general path solves such a near-idle
 	// point (exact does, by full LU).
-	tmax, tmin := 0.0, math.Inf(1) // the largest |T| and the smallest non-zero one
-	for _, k := range c.keyPorts {
-		v := math.Abs(s.t[k])
-		if v > tmax || v != v {
-			tmax = v
-		}
-		if v != 0 && v < tmin {
-			tmin = v
-		}
-	}
+	tmax, tmin := c.tmax, c.tmin // of the key ports, from the last pass
 	if tmin < 1e-12*tmax {
 		return false
 	}
@@ -415,7 +407,7 @@ func (s *Solver) summaryC(st *State, p *Point, r *rangeDef, iters int, tmax floa
 	lr.HydraulicPower = lr.Pump.Hydraulic
 	hyd := float64(lr.HydraulicPower)
 	pump := (s.t[el.port0] + 0) * s.w[el.shafts[0]]
-	return s.totals(st, r, 1, pump, hyd, tmax)
+	return s.totals(st, r, 1, pump, hyd, tmax, s.comp.wmax)
 }
 
 // flowState writes the state of output or PTO element i into fs, field
@@ -585,8 +577,9 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, ev
 }
 
 // portTorques sets the port torques T = H·b + W·τ (+ z of the drag
-// torques) into s.t: of the ports listed (the largest of them, in
-// magnitude, into c.tmax), or of every port when ports is nil.
+// torques) into s.t: of the ports listed (the largest of them in
+// magnitude into c.tmax, the smallest non-zero one into c.tmin), or of
+// every port when ports is nil.
 func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 	c := &s.comp
 	v := c.v[:e.nExt+len(c.tau)]
@@ -601,7 +594,7 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 		// Four columns (one output and a PTO or two outputs, two units):
 		// each key port's sum written out, in its row's order.
 		v0, v1, v2, v3 := v[0], v[1], v[2], v[3]
-		var tmax float64
+		tmax, tmin := 0.0, math.Inf(1)
 		for _, i := range ports {
 			row := pt[int(i)*4 : int(i)*4+4 : int(i)*4+4]
 			sum := 0 + row[0]*v0 + row[1]*v1 + row[2]*v2 + row[3]*v3
@@ -609,13 +602,13 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 				sum += dz[i]
 			}
 			t[i] = sum
-			tmax = maxAbs(tmax, sum)
+			tmax, tmin = extremes(tmax, tmin, sum)
 		}
-		c.tmax = tmax
+		c.tmax, c.tmin = tmax, tmin
 		return
 	}
 	if ports != nil {
-		var tmax float64
+		tmax, tmin := 0.0, math.Inf(1)
 		for _, i := range ports {
 			row := pt[int(i)*m : int(i+1)*m]
 			var sum float64
@@ -626,9 +619,9 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 				sum += dz[i]
 			}
 			t[i] = sum
-			tmax = maxAbs(tmax, sum)
+			tmax, tmin = extremes(tmax, tmin, sum)
 		}
-		c.tmax = tmax
+		c.tmax, c.tmin = tmax, tmin
 		return
 	}
 	for i := range t {
@@ -644,6 +637,19 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 			t[i] += dz[i]
 		}
 	}
+}
+
+// extremes returns max(tmax, |v|) (NaN once v is NaN) and the smallest
+// non-zero |v| so far.
+func extremes(tmax, tmin, v float64) (float64, float64) {
+	a := math.Abs(v)
+	if a > tmax || a != a {
+		tmax = a
+	}
+	if a != 0 && a < tmin {
+		tmin = a
+	}
+	return tmax, tmin
 }
 
 // losslessDirections sets the directions of the general path's first pass.

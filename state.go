@@ -341,7 +341,11 @@ func (s *Solver) summary(st *State, p Point, r *rangeDef, iters int, torques int
 			tmax = maxAbs(tmax, v)
 		}
 	}
-	return s.totals(st, r, torques, pump, hyd, tmax)
+	var wmax float64
+	for _, v := range s.w[:len(l.shafts)] { // every shaft has a port
+		wmax = maxAbs(wmax, v)
+	}
+	return s.totals(st, r, torques, pump, hyd, tmax, wmax)
 }
 
 // totals finishes a summary: the drag sources' losses, the efficiency, the
@@ -350,8 +354,8 @@ func (s *Solver) summary(st *State, p Point, r *rangeDef, iters int, torques int
 // which it returns. The balance is relative to the powers that flow, with
 // a floor of 1e-3 of the largest port torque (tmax) at the largest shaft
 // speed, so that a point where almost no power flows is judged by the
-// rounding of the powers it could carry.
-func (s *Solver) totals(st *State, r *rangeDef, torques int, pump, hyd, tmax float64) float64 {
+// rounding of the powers it could carry; wmax is the largest shaft speed.
+func (s *Solver) totals(st *State, r *rangeDef, torques int, pump, hyd, tmax, wmax float64) float64 {
 	l := s.l
 	st.DragLoss = 0
 	if len(l.drags) > 0 {
@@ -374,10 +378,6 @@ func (s *Solver) totals(st *State, r *rangeDef, torques int, pump, hyd, tmax flo
 		if r.reverse {
 			st.HydraulicShare = -hyd / pin
 		}
-	}
-	var wmax float64
-	for _, v := range s.w[:len(l.shafts)] { // every shaft has a port
-		wmax = maxAbs(wmax, v)
 	}
 	scale := math.Abs(pin) + math.Abs(useful) + float64(st.Loss) + 1e-3*tmax*wmax
 	res := pin - useful - float64(st.Loss)
