@@ -590,30 +590,24 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 	m := len(v)
 	t := s.t[:s.l.nPorts]
 	pt := e.pt[:len(t)*m]
-	if ports != nil && m == 4 {
-		// Four columns (one output and a PTO or two outputs, two units):
-		// each key port's sum written out, in its row's order.
-		v0, v1, v2, v3 := v[0], v[1], v[2], v[3]
-		tmax, tmin := 0.0, math.Inf(1)
-		for _, i := range ports {
-			row := pt[int(i)*4 : int(i)*4+4 : int(i)*4+4]
-			sum := 0 + row[0]*v0 + row[1]*v1 + row[2]*v2 + row[3]*v3
-			if dz != nil {
-				sum += dz[i]
-			}
-			t[i] = sum
-			tmax, tmin = extremes(tmax, tmin, sum)
-		}
-		c.tmax, c.tmin = tmax, tmin
-		return
-	}
 	if ports != nil {
+		// Four columns (one output and a PTO or two outputs, two units:
+		// the common layout): each sum written out, in its row's order,
+		// with the four values held.
+		var v0, v1, v2, v3 float64
+		if m == 4 {
+			v0, v1, v2, v3 = v[0], v[1], v[2], v[3]
+		}
 		tmax, tmin := 0.0, math.Inf(1)
 		for _, i := range ports {
-			row := pt[int(i)*m : int(i+1)*m]
 			var sum float64
-			for j, x := range row {
-				sum += x * v[j]
+			if m == 4 {
+				row := pt[int(i)*4 : int(i)*4+4 : int(i)*4+4]
+				sum = 0 + row[0]*v0 + row[1]*v1 + row[2]*v2 + row[3]*v3
+			} else {
+				for j, x := range pt[int(i)*m : int(i+1)*m] {
+					sum += x * v[j]
+				}
 			}
 			if dz != nil {
 				sum += dz[i]

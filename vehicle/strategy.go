@@ -44,17 +44,24 @@ type LeastFuel struct {
 	Tolerance float64 // relative speed tolerance of the refinement; default 1e-7
 }
 
-// Operate implements Strategy.
-func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
+// remembered answers demand d of strategy s by op, or from the memory of
+// s's last answer that a simulation's vehicle keeps (Simulate), and
+// remembers the answer there.
+func remembered(v *Vehicle, s Strategy, d Demand, op func(*Vehicle, Demand) (Point, error)) (Point, error) {
 	if v == nil {
 		return Point{}, invalid("vehicle", math.NaN(), "is nil")
 	}
 	if a, ok := v.repeat(s, d); ok {
 		return a.p, a.err
 	}
-	p, err := s.operate(v, d)
+	p, err := op(v, d)
 	v.remember(s, d, p, err)
 	return p, err
+}
+
+// Operate implements Strategy.
+func (s LeastFuel) Operate(v *Vehicle, d Demand) (Point, error) {
+	return remembered(v, s, d, s.operate)
 }
 
 // operate is Operate without the memory of a simulation's last answer.
@@ -314,15 +321,7 @@ type FixedSpeed struct {
 
 // Operate implements Strategy.
 func (s FixedSpeed) Operate(v *Vehicle, d Demand) (Point, error) {
-	if v == nil {
-		return Point{}, invalid("vehicle", math.NaN(), "is nil")
-	}
-	if a, ok := v.repeat(s, d); ok {
-		return a.p, a.err
-	}
-	p, err := s.operate(v, d)
-	v.remember(s, d, p, err)
-	return p, err
+	return remembered(v, s, d, s.operate)
 }
 
 // operate is Operate without the memory of a simulation's last answer.
