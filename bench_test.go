@@ -335,8 +335,8 @@ func TestSolveAllocatesNothingOverPoints(t *testing.T) {
 // checks, the held settings, the shaft speeds, the units' speed limits,
 // the loop's Curve at those speeds, the factored system of the range and
 // directions, Newton's method on the loop pressure (every evaluation),
-// one evaluation of the unit torques alone, the key ports' torques, the
-// reading of the directions, the loop state at the final pressure, the
+// one evaluation of the unit torques alone, the key ports' torques with
+// the reading of the directions, the loop state at the final pressure, the
 // sizing of the State, the summary (margins included) and the margins
 // alone. On one core the steps add up to about three quarters of the
 // solve; the rest is the calls between them, the copies of the first
@@ -365,8 +365,7 @@ func BenchmarkCompiledSteps(b *testing.B) {
 		{"system", func() { s.entry(r, &p) }},
 		{"newton", func() { s.newton(e, &p, nil, nil, math.Inf(1), &evals) }},
 		{"unit-torques", func() { c.curve.Torques(st.Loops[0].Pressure, c.settings, c.tau, c.slope) }},
-		{"key-ports", func() { s.portTorques(e, nil, c.keyPorts) }},
-		{"directions", func() { s.readDirections() }},
+		{"key-pass", func() { s.keyPass(e, nil) }},
 		{"loop-state", func() { _ = c.curve.Fill(st.Loops[0].Pressure, c.settings, &st.Loops[0].LoopState) }},
 		{"size", func() { st.size(s.l) }},
 		{"summary", func() { s.summaryC(&st, &p, r, st.Iterations, 1) }},

@@ -122,13 +122,14 @@ type compiledState struct {
 	hits      int // points solved on the compiled path (for tests)
 	passes    int // direction sets tried on the compiled path (for tests)
 	// keyPorts are the ports whose torques a point's summary and its
-	// directions read (the input, outputs and PTOs, the lossy gears' two
-	// ports, every set's sun, the pump): the compiled path computes only
-	// these unless the full State is asked for.
+	// directions read (the input, outputs and PTOs, the pump, the lossy
+	// gears' first ports, every set's sun: keyPass): the compiled path
+	// computes only these unless the full State is asked for.
 	keyPorts []int32
+	nGear    int
 	wmax     float64 // the point's largest shaft speed
-	tmax     float64 // the largest key-port |torque| of the last portTorques
-	tmin     float64 // and the smallest non-zero one
+	tmax     float64 // the largest key-port |torque| of the last keyPass
+	near     bool    // a key port's torque of the last keyPass is rounding: non-zero, below 1e-12·tmax
 	held     bool    // the last newton held an iterate at ±lim
 	// The charge pumps (indices into the layout's drags): their torques
 	// follow the loop's leakage, T = K·(Q_leak(Δp) + Q_flush) with
@@ -139,7 +140,6 @@ type compiledState struct {
 	g, g0   []float64 // per shaft
 	zc, zt  []float64 // A_ref⁻¹·g; the drags' z with the charge at the final pressure
 	gears   []int32   // element indices of the gears with a loss (η < 1)
-	lossy   []int32   // element indices of the elements with a loss: lossy gears, sets, the loop
 }
 
 func (s *Solver) initCompiled() {
@@ -176,6 +176,9 @@ func (s *Solver) initCompiled() {
 		c.g, c.g0 = make([]float64, len(l.shafts)), make([]float64, len(l.shafts))
 		c.zc, c.zt = make([]float64, s.n), make([]float64, s.n)
 	}
+	// The key ports in the order keyPass reads them: the input, the
+	// outputs and PTOs, the pump, the lossy gears' first ports, the sets'
+	// suns.
 	key := []int32{int32(l.elems[l.input].port0)}
 	for _, i := range l.outputs {
 		key = append(key, int32(l.elems[i].port0))
@@ -183,20 +186,24 @@ func (s *Solver) initCompiled() {
 	for _, i := range l.ptos {
 		key = append(key, int32(l.elems[i].port0))
 	}
+	key = append(key, int32(l.elems[l.loops[0]].port0))
 	for _, gi := range l.gears {
 		if e := &s.ec[gi]; e.eta != 1 {
-			key = append(key, e.port0, e.port0+1)
+			key = append(key, e.port0)
 			c.gears = append(c.gears, int32(gi))
-			c.lossy = append(c.lossy, int32(gi))
 		}
 	}
 	for _, pi := range l.planets {
 		key = append(key, s.ec[pi].port0)
-		c.lossy = append(c.lossy, int32(pi))
 	}
-	key = append(key, int32(l.elems[l.loops[0]].port0))
-	c.lossy = append(c.lossy, int32(l.loops[0]))
 	c.keyPorts = key
+	c.nGear = len(c.gears)
+	if len(c.b)+nu <= 4 {
+		// keyPass reads the key ports' rows four wide, zero-padded.
+		for i := range s.cache {
+			s.cache[i].kp = make([]float64, 4*len(key))
+		}
+	}
 	// Size the curve's storage now (at standstill), so that no solve
 	// allocates.
 	l.elems[l.loops[0]].loop.Curve(0, c.wms, &c.curve)
@@ -251,8 +258,8 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	// A torque below 1e-12 of the largest, non-zero, is no better than the
 	// rounding of the largest: the general path solves such a near-idle
 	// point (exact does, by full LU).
-	tmax, tmin := c.tmax, c.tmin // of the key ports, from the last pass
-	if tmin < 1e-12*tmax {
+	tmax := c.tmax // of the key ports, from the last pass
+	if c.near {
 		return false
 	}
 	// Accepted: the loop state at the final pressure, then the state.
@@ -364,9 +371,8 @@ func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int
 				s.dragT[i] = c.chargeK[k] * (float64(q) + float64(s.l.drags[i].pump.Flushing))
 			}
 		}
-		s.portTorques(e, dz, c.keyPorts)
 		ps.e, ps.dz, ps.dp, ps.evals = e, dz, dp, evals
-		if !s.readDirections() {
+		if !s.keyPass(e, dz) {
 			return ps, true
 		}
 	}
@@ -390,13 +396,7 @@ func (s *Solver) summaryC(st *State, p *Point, r *rangeDef, iters int, tmax floa
 		pto += s.flowState(&st.PTOs[k], pi)
 	}
 	st.OutputPower, st.PTOPower = units.Power(out), units.Power(pto)
-	var loss float64
-	for _, i := range s.comp.lossy {
-		if s.ec[i].kind != LoopKind {
-			v, _ := s.elemLoss(int(i), 1)
-			loss += v
-		}
-	}
+	loss := s.keyLoss()
 	lr := &st.Loops[0]
 	el := &l.elems[l.loops[0]]
 	hl := pos(float64(lr.Loss))
@@ -577,9 +577,8 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, ev
 }
 
 // portTorques sets the port torques T = H·b + W·τ (+ z of the drag
-// torques) into s.t: of the ports listed (the largest of them in
-// magnitude into c.tmax, the smallest non-zero one into c.tmin), or of
-// every port when ports is nil.
+// torques) into s.t: of the ports listed, or of every port when ports is
+// nil.
 func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 	c := &s.comp
 	v := c.v[:e.nExt+len(c.tau)]
@@ -591,31 +590,16 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 	t := s.t[:s.l.nPorts]
 	pt := e.pt[:len(t)*m]
 	if ports != nil {
-		// Four columns (one output and a PTO or two outputs, two units:
-		// the common layout): each sum written out, in its row's order,
-		// with the four values held.
-		var v0, v1, v2, v3 float64
-		if m == 4 {
-			v0, v1, v2, v3 = v[0], v[1], v[2], v[3]
-		}
-		tmax, tmin := 0.0, math.Inf(1)
 		for _, i := range ports {
 			var sum float64
-			if m == 4 {
-				row := pt[int(i)*4 : int(i)*4+4 : int(i)*4+4]
-				sum = 0 + row[0]*v0 + row[1]*v1 + row[2]*v2 + row[3]*v3
-			} else {
-				for j, x := range pt[int(i)*m : int(i+1)*m] {
-					sum += x * v[j]
-				}
+			for j, x := range pt[int(i)*m : int(i+1)*m] {
+				sum += x * v[j]
 			}
 			if dz != nil {
 				sum += dz[i]
 			}
 			t[i] = sum
-			tmax, tmin = extremes(tmax, tmin, sum)
 		}
-		c.tmax, c.tmin = tmax, tmin
 		return
 	}
 	for i := range t {
@@ -633,19 +617,6 @@ func (s *Solver) portTorques(e *sysEntry, dz []float64, ports []int32) {
 	}
 }
 
-// extremes returns max(tmax, |v|) (NaN once v is NaN) and the smallest
-// non-zero |v| so far.
-func extremes(tmax, tmin, v float64) (float64, float64) {
-	a := math.Abs(v)
-	if a > tmax || a != a {
-		tmax = a
-	}
-	if a != 0 && a < tmin {
-		tmin = a
-	}
-	return tmax, tmin
-}
-
 // losslessDirections sets the directions of the general path's first pass.
 func (s *Solver) losslessDirections() {
 	for i := range s.gearK {
@@ -656,47 +627,123 @@ func (s *Solver) losslessDirections() {
 	}
 }
 
-// readDirections sets the gear and planetary loss directions from the
-// torques and speeds in s.t and s.w, by the rules of directions, and
-// reports whether any changed.
-func (s *Solver) readDirections() bool {
-	l := s.l
+// keyPass sets the key ports' torques T = H·b + W·τ (+ z of the drag
+// torques) into s.t, their largest magnitude into c.tmax and whether any
+// is rounding (non-zero, below 1e-12 of the largest) into c.near, then
+// reads the gear and planetary loss directions off them by the rules of
+// directions, and reports whether any changed.
+//
+// A gear's second port is not computed: with the direction k of the
+// system solved, its equation gives the power there as P_b = −k·P_a, so
+// the power enters at the first port where P_a > 0 (k = η), at the second
+// where P_a < 0 (k = 1/η), as directions reads both ports to rounding.
+func (s *Solver) keyPass(e *sysEntry, dz []float64) bool {
+	c := &s.comp
+	t := s.t
+	if kp := e.kp; kp != nil {
+		// At most four columns (one output and a PTO, or two outputs, a
+		// pump and a motor: the common layout), the rows zero-padded.
+		var v0, v1, v2, v3 float64
+		ne := e.nExt
+		v := [4]float64{}
+		copy(v[:], c.b[:ne])
+		for u, tq := range c.tau {
+			v[ne+u] = float64(tq)
+		}
+		v0, v1, v2, v3 = v[0], v[1], v[2], v[3]
+		kp = kp[:4*len(c.keyPorts)]
+		for k, i := range c.keyPorts {
+			row := kp[4*k : 4*k+4 : 4*k+4]
+			t[i] = 0 + row[0]*v0 + row[1]*v1 + row[2]*v2 + row[3]*v3
+		}
+	} else {
+		s.portTorques(e, nil, c.keyPorts)
+	}
+	if dz != nil {
+		for _, i := range c.keyPorts {
+			t[i] += dz[i]
+		}
+	}
+	tmax := 0.0
+	for _, i := range c.keyPorts {
+		tmax = maxAbs(tmax, t[i])
+	}
 	// The rounding of the point's torques: 1e-12 of the largest key-port
 	// torque. A torque below it is nil (an idle range gear, an idle set):
 	// read off it, a direction would follow the rounding of the factored
 	// system, which differs from one set of directions to the next, and so
 	// with the points solved before.
-	floor := 1e-12 * s.comp.tmax
+	floor := 1e-12 * tmax
+	near := false
+	for _, i := range c.keyPorts {
+		if a := math.Abs(t[i]); a <= floor && a != 0 {
+			near = true
+		}
+	}
+	c.tmax, c.near = tmax, near
 	changed := false
-	for _, gi := range s.comp.gears {
-		e := &s.ec[gi]
-		pa := s.t[e.port0] * s.w[e.a]
-		pb := s.t[e.port0+1] * s.w[e.b]
-		scale := math.Abs(pa) + math.Abs(pb)
+	for _, gi := range c.gears {
+		g := &s.ec[gi]
+		ta := t[g.port0]
+		pa := ta * s.w[g.a]
 		// A gear without torque (an idle range gear) is taken as lossless,
 		// as a fresh general solve starts it, whatever the guess said.
 		k := 1.0
 		switch {
-		case scale == 0 || math.Abs(s.t[e.port0]) <= floor && math.Abs(s.t[e.port0+1]) <= floor:
-		case pa > 1e-13*scale:
-			k = e.eta
-		case pb > 1e-13*scale:
-			k = e.inv
+		case math.Abs(ta) <= floor && math.Abs(pa*s.gearK[g.index]) <= floor*math.Abs(s.w[g.b]):
+		case pa > 0:
+			k = g.eta
+		case pa < 0:
+			k = g.inv
 		}
-		if k != s.gearK[e.index] {
-			s.gearK[e.index] = k
+		if k != s.gearK[g.index] {
+			s.gearK[g.index] = k
 			changed = true
 		}
 	}
-	for _, pi := range l.planets {
-		e := &s.ec[pi]
-		f := s.planetFlow(e, floor, true)
-		if f != s.pflow[e.index] {
-			s.pflow[e.index] = f
+	for _, pi := range s.l.planets {
+		ps := &s.ec[pi]
+		if f := s.planetFlow(ps, floor, true); f != s.pflow[ps.index] {
+			s.pflow[ps.index] = f
 			changed = true
 		}
 	}
 	return changed
+}
+
+// keyLoss returns the loss of the lossy gears and the sets at the key
+// ports' torques and the directions keyPass left: (1 − η) times the power
+// entering a gear, P_a or, entering at its second port, −P_a/η; a set's as
+// elemLoss has it.
+func (s *Solver) keyLoss() float64 {
+	var loss float64
+	for _, gi := range s.comp.gears {
+		g := &s.ec[gi]
+		pa := s.t[g.port0] * s.w[g.a]
+		switch k := s.gearK[g.index]; {
+		case k < 1:
+			loss += pos((1 - g.eta) * pa)
+		case k > 1:
+			loss += pos((1 - g.eta) * (-g.inv * pa))
+		}
+	}
+	for _, pi := range s.l.planets {
+		v, _ := s.elemLoss(pi, 1)
+		loss += v
+	}
+	return loss
+}
+
+// keyRows copies the key ports' rows of e.pt into e.kp, four wide.
+func (s *Solver) keyRows(e *sysEntry) {
+	if e.kp == nil {
+		return
+	}
+	m := e.nExt + s.nU
+	clear(e.kp)
+	for k, i := range s.comp.keyPorts {
+		copy(e.kp[4*k:4*k+4], e.pt[int(i)*m:int(i+1)*m])
+	}
 }
 
 // planetFlow returns the direction of the rolling power of set e read off

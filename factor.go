@@ -76,6 +76,9 @@ type sysEntry struct {
 	// pt holds, port by port, the rows of H then W: T_port = H·b + W·τ
 	// (the compiled path, compiled.go), nPorts × (nExt + units).
 	pt []float64
+	// kp holds the compiled path's key ports' rows of pt, four wide and
+	// zero-padded (keyPass), where the range has at most four columns.
+	kp []float64
 }
 
 // initCache allocates the cache and the work space of the Woodbury solve.
@@ -199,6 +202,7 @@ func (s *Solver) factor(e *sysEntry, r *rangeDef, p *Point) {
 				e.pt[i*m+e.nExt+u] = e.w[u*n+i]
 			}
 		}
+		s.keyRows(e)
 		e.ok = true
 		return
 	}
