@@ -60,7 +60,8 @@ func BenchmarkLoopAtOverCentre(b *testing.B) {
 
 // BenchmarkCurve times what a layout solver's compiled path asks of a loop
 // per point: preparing the Curve at the shaft speeds, one evaluation of the
-// unit torques and their slopes, and the final Fill of the loop state; for
+// unit torques and their slopes, of the leakage and its slope, and the
+// final Fill of the loop state; for
 // the classic Wilson model (torque at full displacement, the common case)
 // and for the model with every term (torque displacement following the
 // setting, hydrodynamic and compressibility terms).
@@ -100,6 +101,17 @@ func BenchmarkCurve(b *testing.B) {
 				c.Torques(units.Bar(180), set, tq, sl)
 			}
 		})
+		b.Run(lc.name+"/leakage", func(b *testing.B) {
+			b.ReportAllocs()
+			for b.Loop() {
+				_, _, _ = c.Leakage(units.Bar(180))
+			}
+		})
+		// Fill at the settings Torques gives (run on its own, the torques
+		// benchmark above would leave them zero: an idle loop).
+		if !c.Torques(units.Bar(180), set, tq, sl) || set[0] == 0 {
+			b.Fatal("no torques")
+		}
 		b.Run(lc.name+"/fill", func(b *testing.B) {
 			b.ReportAllocs()
 			for b.Loop() {

@@ -55,6 +55,7 @@ type Curve struct {
 	am, bm     float64       // Σ over the motors
 	tau        []curveTorque // per unit, pump first
 	fixed      bool          // every unit's torque is fixed (curveTorque.fixed): Fill from the terms
+	over       bool          // a unit's speed is above its rated maximum (Fill asks Loop.crossed which)
 	limit      setLimit      // the setting limit of the last Torques, if hit
 }
 
@@ -66,6 +67,8 @@ type curveTorque struct {
 	fixed  bool    // τ = t0 + t1·|Δp| (lossless, or Wilson with its torque at full displacement)
 	t0, t1 float64
 	la, lb float64 // the unit's leakage a + b·|x| per |Δp| at its speed
+	rated  float64 // the unit's continuous rated pressure, +Inf where not rated
+	low    float64 // the lowest setting of the unit's swing (Swing.lowest)
 }
 
 // curvePlan is what a Curve needs of a loop that does not change with the
@@ -75,6 +78,7 @@ type curveTorque struct {
 type curvePlan struct {
 	ok    bool
 	smin  float64 // the schedule's motor floor
+	peak  float64 // the lowest peak pressure of the units, +Inf where none is rated
 	units []unitPlan
 }
 
@@ -91,6 +95,9 @@ type unitPlan struct {
 	hr, d53  float64 // hydrodynamic term, when hr > 0
 	t1       float64
 	lossless bool
+	wmax     float64 // the rated maximum speed, +Inf where not rated
+	rated    float64 // the continuous rated pressure, +Inf where not rated
+	low      float64 // the lowest setting of the swing
 }
 
 // planCurve works out l's curvePlan (see Loop.Curve for the loops a Curve
@@ -109,13 +116,24 @@ func (l *Loop) planCurve() curvePlan {
 		return curvePlan{}
 	}
 	f := &l.fl
-	pl := curvePlan{ok: true, smin: smin, units: make([]unitPlan, n+1)}
+	pl := curvePlan{ok: true, smin: smin, peak: math.Inf(1), units: make([]unitPlan, n+1)}
 	for i := range pl.units {
 		u := &l.spec.Pump
 		if i > 0 {
 			u = &l.spec.Motors[i-1]
 		}
-		up := unitPlan{dmax: u.dmax}
+		up := unitPlan{dmax: u.dmax, wmax: math.Inf(1), rated: math.Inf(1), low: u.spec.Swing.lowest()}
+		// The rated limits as Unit.crossed and Unit.point read them: a
+		// zero limit is not rated.
+		if ms := float64(u.spec.MaxSpeed); ms > 0 {
+			up.wmax = ms
+		}
+		if r := float64(u.spec.RatedPressure); r > 0 {
+			up.rated = r
+		}
+		if pk := float64(u.spec.PeakPressure); pk > 0 {
+			pl.peak = math.Min(pl.peak, pk)
+		}
 		m := u.wil
 		if m == nil {
 			// Lossless: no leakage, no loss torque.
@@ -165,6 +183,7 @@ func (up *unitPlan) leak(w float64) (a, b float64, ok bool) {
 // w (in place: a returned struct costs a copy through memory).
 func (up *unitPlan) torque(ct *curveTorque, w float64) {
 	ct.w, ct.sw, ct.dmax, ct.fixed = w, sgn(w), up.dmax, up.fixed
+	ct.rated, ct.low = up.rated, up.low
 	ct.t0, ct.t1 = 0, 0
 	if up.fixed && !up.lossless {
 		t0 := up.va*math.Abs(w) + up.cb
@@ -204,6 +223,7 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	}
 	var mq, am, bm float64
 	fixed := u0.fixed
+	over := math.Abs(wp) > u0.wmax
 	for i, ws := range motorSpeeds {
 		w := float64(ws)
 		if !finite(w) {
@@ -221,13 +241,14 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 		up.torque(&c.tau[i+1], w)
 		c.tau[i+1].la, c.tau[i+1].lb = a, b
 		fixed = fixed && up.fixed
+		over = over || math.Abs(w) > up.wmax
 	}
 	c.pumpQ, c.motorQ = u0.dmax*wp, mq
 	c.invQ, c.invM = 1/c.pumpQ, 1/mq
 	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
 	u0.torque(&c.tau[0], wp)
 	c.tau[0].la, c.tau[0].lb = ap, bp
-	c.fixed = fixed
+	c.fixed, c.over = fixed, over
 	c.ok = true
 	return true
 }
@@ -426,6 +447,15 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 	if c.limit.hit {
 		st.Limit = c.limit.value()
 	}
+	if c.fixed {
+		if check, ok := c.fillFast(float64(dp), st); ok {
+			// Loop.crossed finds a limit only where one of these holds.
+			if st.Limit.Err == nil && (check || st.High > l.spec.Relief || c.over || math.Abs(float64(dp)) > l.plan.peak) {
+				l.crossed(st)
+			}
+			return st.Limit.Err
+		}
+	}
 	var err error
 	if c.fixed {
 		err = c.fill(float64(dp), st)
@@ -439,6 +469,96 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 		l.crossed(st)
 	}
 	return st.Limit.Err
+}
+
+// fillFast is fill where every setting is within full displacement and
+// every result is finite, in one pass and the same arithmetic (Unit.ideal,
+// Unit.point, LoopState.sum): it reports false, st half written, where
+// that is not so, and fill then gives the error. check is true where a
+// setting lies below its unit's swing, a limit Loop.crossed reports.
+func (c *Curve) fillFast(dp float64, st *LoopState) (check, ok bool) {
+	tau := c.tau
+	set := st.Settings[:len(tau)]
+	motors := st.Motors[:len(tau)-1]
+	a := math.Abs(dp)
+	st.Pressure = units.Pressure(dp)
+	st.Low = c.l.spec.Charge
+	st.High = c.l.spec.Charge + units.Pressure(a)
+	// in, out, loss and leak as LoopState.sum adds them, pump first; fin
+	// sums every value point would refuse if it were not finite (a NaN or
+	// an infinity makes it one).
+	var in, out, loss, leak, fin float64
+	below := false
+	for i := range tau {
+		tc := &tau[i]
+		x := set[i]
+		if !(math.Abs(x) <= 1) {
+			return false, false
+		}
+		p, q := &st.Pump, dp
+		if i > 0 {
+			p, q = &motors[i-1], -dp
+		}
+		w := tc.w
+		below = below || x < tc.low
+		// Unit.ideal: the sign of Δp·x·ω is that of Δp·qi when neither
+		// qi nor ti is zero.
+		qi := x * tc.dmax * w
+		ti := q * x * tc.dmax
+		mode := Idle
+		if qi != 0 && ti != 0 {
+			mode = Motoring
+			if (qi > 0) == (q > 0) {
+				mode = Pumping
+			}
+		}
+		lk := (tc.la + tc.lb*math.Abs(x)) * a
+		tq := tc.t0 + tc.t1*a
+		// Unit.point.
+		qf := qi - sgn(q)*lk
+		t := ti + tc.sw*tq
+		mech, hyd := t*w, q*qf
+		ls := math.Abs(w)*tq + a*lk
+		p.Setting, p.Speed, p.Pressure = x, units.AngularVelocity(w), units.Pressure(q)
+		p.IdealFlow, p.Flow, p.Leakage = units.VolumeFlow(qi), units.VolumeFlow(qf), units.VolumeFlow(lk)
+		p.IdealTorque, p.Torque, p.LossTorque = units.Torque(ti), units.Torque(t), units.Torque(tq)
+		p.Mode = mode
+		p.Mechanical, p.Hydraulic, p.Loss = units.Power(mech), units.Power(hyd), units.Power(ls)
+		switch mode {
+		case Pumping:
+			p.Volumetric = clamp01(qf / qi)
+			p.HydroMechanical = clamp01(ti / t)
+		case Motoring:
+			p.Volumetric = clamp01(qi / qf)
+			p.HydroMechanical = clamp01(t / ti)
+		default:
+			p.Volumetric, p.HydroMechanical = 1, 1
+		}
+		p.Overall = p.Volumetric * p.HydroMechanical
+		p.AboveRated = a > tc.rated
+		if !(lk >= 0) || !(tq >= 0) {
+			return false, false
+		}
+		fin += lk + tq + mech + hyd + ls
+		// LoopState.sum.
+		if mech > 0 {
+			in += mech
+		} else {
+			out -= mech
+		}
+		loss += ls
+		leak += lk
+	}
+	if !finite(fin) {
+		return false, false
+	}
+	st.Input, st.Output, st.Loss = units.Power(in), units.Power(out), units.Power(loss)
+	st.Leakage, st.ChargeFlow = units.VolumeFlow(leak), units.VolumeFlow(leak)
+	st.Efficiency = 1
+	if in > 0 {
+		st.Efficiency = clamp01(out / in)
+	}
+	return below, true
 }
 
 // fill is Loop.fill for a Curve whose units' torques are fixed: each unit's

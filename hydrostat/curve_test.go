@@ -1,7 +1,9 @@
 package hydrostat
 
 import (
+	"fmt"
 	"math"
+	"reflect"
 	"testing"
 
 	"pgregory.net/rapid"
@@ -160,4 +162,175 @@ func TestCurveRefuses(t *testing.T) {
 			t.Errorf("%T: a Curve", sched)
 		}
 	}
+}
+
+// fillGeneral is Curve.Fill by the unit-by-unit arithmetic alone (Curve.fill
+// or Loop.fill, then Loop.crossed), without the one-pass fillFast: the
+// reference TestCurveFillFast holds Fill to.
+func fillGeneral(c *Curve, dp units.Pressure, settings []float64, st *LoopState) error {
+	l := c.l
+	st.size(len(l.spec.Motors))
+	st.Limit = LimitError{}
+	copy(st.Settings, settings)
+	if c.limit.hit {
+		st.Limit = c.limit.value()
+	}
+	var err error
+	if c.fixed {
+		err = c.fill(float64(dp), st)
+	} else {
+		err = l.fill(units.AngularVelocity(c.wp), c.wms, dp, st)
+	}
+	if err != nil {
+		return err
+	}
+	if st.Limit.Err == nil {
+		l.crossed(st)
+	}
+	return st.Limit.Err
+}
+
+// sameBits reports where two values of the same type differ in any bit of
+// a float (so −0 and 0 differ), naming the field; "" when they agree.
+func sameBits(path string, a, b reflect.Value) string {
+	switch a.Kind() {
+	case reflect.Float64:
+		if math.Float64bits(a.Float()) != math.Float64bits(b.Float()) {
+			return fmt.Sprintf("%s: %v, want %v", path, a.Float(), b.Float())
+		}
+	case reflect.Struct:
+		for i := range a.NumField() {
+			if d := sameBits(path+"."+a.Type().Field(i).Name, a.Field(i), b.Field(i)); d != "" {
+				return d
+			}
+		}
+	case reflect.Slice:
+		if a.Len() != b.Len() {
+			return fmt.Sprintf("%s: length %d, want %d", path, a.Len(), b.Len())
+		}
+		for i := range a.Len() {
+			if d := sameBits(fmt.Sprintf("%s[%d]", path, i), a.Index(i), b.Index(i)); d != "" {
+				return d
+			}
+		}
+	case reflect.Interface:
+		if a.Interface() != b.Interface() {
+			return fmt.Sprintf("%s: %v, want %v", path, a.Interface(), b.Interface())
+		}
+	default:
+		if !a.Equal(b) {
+			return fmt.Sprintf("%s: %v, want %v", path, a, b)
+		}
+	}
+	return ""
+}
+
+// TestCurveFillFast: over random loops of lossless units and Wilson units
+// with their torque at full displacement (the Curves Fill fills in one
+// pass), with random ratings and swings, Fill writes the state of the
+// unit-by-unit arithmetic bit for bit and reports the same error and limit:
+// at the settings Torques gives and at settings drawn anywhere (beyond full
+// displacement, below a unit's swing, not finite), at pressures up to
+// beyond the relief and the peak pressures.
+func TestCurveFillFast(t *testing.T) {
+	t.Parallel()
+	compared, errs := 0, 0
+	limits := map[string]int{}
+	defer func() {
+		t.Logf("%d states compared, %d errors; limits %v", compared, errs, limits)
+		if compared == 0 || errs == 0 || len(limits) < 4 {
+			t.Error("too few states, errors or kinds of limit compared")
+		}
+	}()
+	rapid.Check(t, func(t *rapid.T) {
+		m := Wilson{
+			Slip: rapid.Float64Range(0, 3e-9).Draw(t, "slip"), Viscous: rapid.Float64Range(0, 2e5).Draw(t, "viscous"),
+			Friction: rapid.Float64Range(0, 0.03).Draw(t, "friction"), Hydrodynamic: rapid.Float64Range(0, 5).Draw(t, "churning"),
+			ConstantPressure: units.Bar(rapid.Float64Range(0, 3).Draw(t, "constant bar")),
+			ConstantTorque:   units.NewtonMetres(rapid.SampledFrom([]float64{0, 2.5}).Draw(t, "constant N·m")),
+			Compressibility:  rapid.Bool().Draw(t, "compressibility"), DeadVolume: rapid.Float64Range(0, 1).Draw(t, "dead volume"),
+			LeakageSetting: rapid.Float64Range(0, 1).Draw(t, "leakage share"),
+		}
+		swingToZero := rapid.Bool().Draw(t, "motors swing to zero")
+		unit := func(label string, motor bool) Unit {
+			s := UnitSpec{MaxDisplacement: units.CCPerRev(rapid.Float64Range(40, 160).Draw(t, label+" cc"))}
+			if rapid.Bool().Draw(t, label+" lossy") {
+				s.Loss = m
+			}
+			if rapid.Bool().Draw(t, label+" speed rated") {
+				s.MaxSpeed = units.RPM(rapid.Float64Range(1000, 4000).Draw(t, label+" max rpm"))
+			}
+			if rapid.Bool().Draw(t, label+" pressure rated") {
+				s.RatedPressure = units.Bar(rapid.Float64Range(150, 420).Draw(t, label+" rated bar"))
+				s.PeakPressure = s.RatedPressure + units.Bar(rapid.Float64Range(0, 100).Draw(t, label+" peak over rated bar"))
+			}
+			if motor && swingToZero {
+				s.Swing = SwingToZero
+			}
+			u, err := NewUnit(s)
+			if err != nil {
+				t.Fatal(err)
+			}
+			return u
+		}
+		nm := rapid.IntRange(1, 3).Draw(t, "motors")
+		motors := make([]Unit, nm)
+		for i := range motors {
+			motors[i] = unit("motor", true)
+		}
+		ls := LoopSpec{Pump: unit("pump", false), Motors: motors, Oil: VG46,
+			Temperature: units.Celsius(rapid.Float64Range(30, 90).Draw(t, "oil °C")), Charge: units.Bar(20),
+			Relief: units.Bar(rapid.Float64Range(100, 150).Draw(t, "relief bar"))}
+		if swingToZero {
+			ls.Schedule = Sequential{MinMotorSetting: rapid.Float64Range(0.05, 0.5).Draw(t, "motor floor")}
+		}
+		l, err := NewLoop(ls)
+		if err != nil {
+			t.Fatal(err)
+		}
+		wp := units.RPM(rapid.Float64Range(-4000, 4000).Draw(t, "pump rpm"))
+		wms := make([]units.AngularVelocity, nm)
+		for i := range wms {
+			wms[i] = units.RPM(rapid.Float64Range(-4500, 4500).Draw(t, "motor rpm"))
+		}
+		var c Curve
+		if !l.Curve(wp, wms, &c) || !c.fixed {
+			t.Fatal("a Sequential loop of fixed-torque units is no Curve of fixed torques")
+		}
+		dp := units.Bar(rapid.Float64Range(-600, 600).Draw(t, "Δp bar"))
+		set := make([]float64, nm+1)
+		tq := make([]units.Torque, nm+1)
+		sl := make([]units.Displacement, nm+1)
+		if !c.Torques(dp, set, tq, sl) || rapid.Bool().Draw(t, "settings drawn") {
+			c.limit.hit = false
+			for i := range set {
+				set[i] = rapid.SampledFrom([]float64{0, 1, -1, 0.5, -0.5, 0.2, -0.2}).Draw(t, "setting")
+			}
+			if rapid.IntRange(0, 3).Draw(t, "a setting out of range") == 0 {
+				set[rapid.IntRange(0, nm).Draw(t, "which")] = rapid.SampledFrom([]float64{1.5, -1.5, math.NaN(), math.Inf(1)}).Draw(t, "bad setting")
+			}
+		}
+		if rapid.IntRange(0, 20).Draw(t, "pressure not finite") == 0 {
+			dp = units.Pressure(math.NaN())
+		}
+		var got, want LoopState
+		eg := c.Fill(dp, set, &got)
+		ew := fillGeneral(&c, dp, set, &want)
+		if (eg == nil) != (ew == nil) || (eg != nil && eg.Error() != ew.Error()) {
+			t.Fatalf("Fill: %v, the unit-by-unit arithmetic: %v", eg, ew)
+		}
+		if ew != nil && !isBareLimit(ew) {
+			// ErrModel, ErrInvalid or a setting beyond full displacement
+			// (a *LimitError): the state is unspecified.
+			errs++
+			return
+		}
+		if d := sameBits("LoopState", reflect.ValueOf(got), reflect.ValueOf(want)); d != "" {
+			t.Fatalf("Fill's %s", d)
+		}
+		compared++
+		if want.Limit.Err != nil {
+			limits[want.Limit.Quantity]++
+		}
+	})
 }
