@@ -1,6 +1,7 @@
 package hydrostat
 
 import (
+	"errors"
 	"fmt"
 	"math"
 	"reflect"
@@ -228,18 +229,20 @@ func sameBits(path string, a, b reflect.Value) string {
 // TestCurveFillFast: over random loops of lossless units and Wilson units
 // with their torque at full displacement (the Curves Fill fills in one
 // pass), with random ratings and swings, Fill writes the state of the
-// unit-by-unit arithmetic bit for bit and reports the same error and limit:
-// at the settings Torques gives and at settings drawn anywhere (beyond full
-// displacement, below a unit's swing, not finite), at pressures up to
-// beyond the relief and the peak pressures.
+// unit-by-unit arithmetic bit for bit and reports the same error and limit
+// (relief, unit speed, setting): at the settings Torques gives and at
+// settings drawn anywhere (beyond full displacement, below a unit's swing,
+// not finite), at pressures up to beyond the relief. (A peak pressure is
+// never crossed first: NewLoop refuses a relief above one.)
 func TestCurveFillFast(t *testing.T) {
 	t.Parallel()
 	compared, errs := 0, 0
 	limits := map[string]int{}
 	defer func() {
 		t.Logf("%d states compared, %d errors; limits %v", compared, errs, limits)
-		if compared == 0 || errs == 0 || len(limits) < 4 {
-			t.Error("too few states, errors or kinds of limit compared")
+		// (Every kind of limit is checked by name in TestCurveFillLimits.)
+		if compared == 0 || !testing.Short() && (errs == 0 || len(limits) == 0) {
+			t.Error("too few states, errors or limits compared")
 		}
 	}()
 	rapid.Check(t, func(t *rapid.T) {
@@ -252,13 +255,20 @@ func TestCurveFillFast(t *testing.T) {
 			LeakageSetting: rapid.Float64Range(0, 1).Draw(t, "leakage share"),
 		}
 		swingToZero := rapid.Bool().Draw(t, "motors swing to zero")
-		unit := func(label string, motor bool) Unit {
+		nm := rapid.IntRange(1, 3).Draw(t, "motors")
+		wp := units.RPM(rapid.Float64Range(-4000, 4000).Draw(t, "pump rpm"))
+		wms := make([]units.AngularVelocity, nm)
+		for i := range wms {
+			wms[i] = units.RPM(rapid.Float64Range(-4500, 4500).Draw(t, "motor rpm"))
+		}
+		// A rated speed around the unit's, so some are crossed.
+		unit := func(label string, motor bool, w units.AngularVelocity) Unit {
 			s := UnitSpec{MaxDisplacement: units.CCPerRev(rapid.Float64Range(40, 160).Draw(t, label+" cc"))}
 			if rapid.Bool().Draw(t, label+" lossy") {
 				s.Loss = m
 			}
 			if rapid.Bool().Draw(t, label+" speed rated") {
-				s.MaxSpeed = units.RPM(rapid.Float64Range(1000, 4000).Draw(t, label+" max rpm"))
+				s.MaxSpeed = units.RPM(100) + units.AngularVelocity(math.Abs(float64(w))*rapid.Float64Range(0.5, 2).Draw(t, label+" max speed share"))
 			}
 			if rapid.Bool().Draw(t, label+" pressure rated") {
 				s.RatedPressure = units.Bar(rapid.Float64Range(150, 420).Draw(t, label+" rated bar"))
@@ -273,12 +283,11 @@ func TestCurveFillFast(t *testing.T) {
 			}
 			return u
 		}
-		nm := rapid.IntRange(1, 3).Draw(t, "motors")
 		motors := make([]Unit, nm)
 		for i := range motors {
-			motors[i] = unit("motor", true)
+			motors[i] = unit("motor", true, wms[i])
 		}
-		ls := LoopSpec{Pump: unit("pump", false), Motors: motors, Oil: VG46,
+		ls := LoopSpec{Pump: unit("pump", false, wp), Motors: motors, Oil: VG46,
 			Temperature: units.Celsius(rapid.Float64Range(30, 90).Draw(t, "oil °C")), Charge: units.Bar(20),
 			Relief: units.Bar(rapid.Float64Range(100, 150).Draw(t, "relief bar"))}
 		if swingToZero {
@@ -288,16 +297,12 @@ func TestCurveFillFast(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		wp := units.RPM(rapid.Float64Range(-4000, 4000).Draw(t, "pump rpm"))
-		wms := make([]units.AngularVelocity, nm)
-		for i := range wms {
-			wms[i] = units.RPM(rapid.Float64Range(-4500, 4500).Draw(t, "motor rpm"))
-		}
 		var c Curve
 		if !l.Curve(wp, wms, &c) || !c.fixed {
 			t.Fatal("a Sequential loop of fixed-torque units is no Curve of fixed torques")
 		}
-		dp := units.Bar(rapid.Float64Range(-600, 600).Draw(t, "Δp bar"))
+		// Up to beyond the relief.
+		dp := units.Pressure(rapid.Float64Range(-1.5, 1.5).Draw(t, "Δp share of the relief")) * ls.Relief
 		set := make([]float64, nm+1)
 		tq := make([]units.Torque, nm+1)
 		sl := make([]units.Displacement, nm+1)
@@ -330,7 +335,84 @@ func TestCurveFillFast(t *testing.T) {
 		}
 		compared++
 		if want.Limit.Err != nil {
-			limits[want.Limit.Quantity]++
+			limits[want.Limit.Err.Error()]++
 		}
 	})
+}
+
+// TestCurveFillLimits: Fill reports each limit a loop of fixed-torque units
+// can cross, as the unit-by-unit arithmetic and Loop.At do, with the state
+// the same bit for bit. Hand-made cases: a classic loop (pump 100 cm³/rev
+// rated 3000 rpm, two motors 80 cm³/rev rated 3500 rpm swinging to zero
+// above a floor of 0.2, relief 420 bar).
+func TestCurveFillLimits(t *testing.T) {
+	t.Parallel()
+	m := Wilson{Slip: 1e-9, Viscous: 2e5, Friction: 0.01, ConstantPressure: units.Bar(1)}
+	pump := mustUnit(t, UnitSpec{MaxDisplacement: units.CCPerRev(100), MaxSpeed: units.RPM(3000), RatedPressure: units.Bar(380),
+		PeakPressure: units.Bar(450), Loss: m})
+	motor := mustUnit(t, UnitSpec{MaxDisplacement: units.CCPerRev(80), MaxSpeed: units.RPM(3500), RatedPressure: units.Bar(380),
+		PeakPressure: units.Bar(450), Loss: m, Swing: SwingToZero})
+	l, err := NewLoop(LoopSpec{Pump: pump, Motors: []Unit{motor, motor}, Oil: VG46, Temperature: units.Celsius(60),
+		Charge: units.Bar(20), Relief: units.Bar(420), Schedule: Sequential{MinMotorSetting: 0.2}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	for _, tc := range []struct {
+		name     string
+		wp, w1   float64 // rpm
+		bar      float64
+		settings []float64 // nil: Torques'
+		want     error     // Fill's error
+		quantity string    // of st.Limit
+	}{
+		{"none", 2000, 1500, 250, nil, nil, ""},
+		{"relief", 2000, 1500, 410, nil, ErrPressureLimit, "high-line pressure"},
+		{"relief, Δp negative", 2000, 1500, -410, nil, ErrPressureLimit, "high-line pressure"},
+		{"pump speed", 3100, 1500, 250, nil, ErrSpeedLimit, "pump speed"},
+		{"second motor speed", 2000, 1500, 250, []float64{0.5, 1, 1}, ErrSpeedLimit, "motor 2 speed"},
+		{"setting limit", 500, 2000, 250, nil, ErrSettingLimit, "motor setting"},
+		{"below the swing", 2000, 1500, 250, []float64{0.5, 1, -0.3}, ErrSettingLimit, "motor setting"},
+		{"beyond full displacement", 2000, 1500, 250, []float64{1.2, 1, 1}, ErrSettingLimit, ""},
+		{"setting not finite", 2000, 1500, 250, []float64{0.5, math.NaN(), 1}, ErrModel, ""},
+	} {
+		w2 := tc.w1
+		if tc.name == "second motor speed" {
+			w2 = 3600
+		}
+		wms := []units.AngularVelocity{units.RPM(tc.w1), units.RPM(w2)}
+		var c Curve
+		if !l.Curve(units.RPM(tc.wp), wms, &c) || !c.fixed {
+			t.Fatalf("%s: no Curve of fixed torques", tc.name)
+		}
+		dp := units.Bar(tc.bar)
+		set := make([]float64, 3)
+		if tc.settings != nil {
+			copy(set, tc.settings)
+		} else if !c.Torques(dp, set, make([]units.Torque, 3), make([]units.Displacement, 3)) {
+			t.Fatalf("%s: Torques gave up", tc.name)
+		}
+		var got, want LoopState
+		eg := c.Fill(dp, set, &got)
+		ew := fillGeneral(&c, dp, set, &want)
+		if !errors.Is(eg, tc.want) || (eg == nil) != (ew == nil) || (eg != nil && eg.Error() != ew.Error()) {
+			t.Fatalf("%s: Fill = %v, want %v (the unit-by-unit arithmetic: %v)", tc.name, eg, tc.want, ew)
+		}
+		if eg != nil && !isBareLimit(eg) {
+			continue // the state is unspecified
+		}
+		if got.Limit.Quantity != tc.quantity {
+			t.Errorf("%s: Fill's limit %q, want %q", tc.name, got.Limit.Quantity, tc.quantity)
+		}
+		if d := sameBits("LoopState", reflect.ValueOf(got), reflect.ValueOf(want)); d != "" {
+			t.Errorf("%s: Fill's %s", tc.name, d)
+		}
+		if tc.settings == nil {
+			// With the schedule's settings, Fill is At.
+			var at LoopState
+			ea := l.At(units.RPM(tc.wp), wms, dp, &at)
+			if le, ok := errors.AsType[*LimitError](ea); (ea == nil) != (eg == nil) || ok && (le.Err != eg || le.Quantity != got.Limit.Quantity) {
+				t.Errorf("%s: Fill %v (%s), At %v", tc.name, eg, got.Limit.Quantity, ea)
+			}
+		}
+	}
 }
