@@ -74,6 +74,9 @@ type elemC struct {
 	a, b, c int32   // the shafts of the first three ports, −1 where none
 	eta     float64 // gear: mesh efficiency; planetary: basic efficiency
 	inv     float64 // 1/eta, the factor of a gear driven from its second port
+	// invRatio is a gear's 1/r, r its ratio in the gear's equation
+	// r·T_b + k·T_a = 0.
+	invRatio float64
 }
 
 // initElemC fills the solver's compact view of the elements.
@@ -97,6 +100,9 @@ func (s *Solver) initElemC() {
 			c.eta = e.set.BasicEfficiency()
 		}
 		c.inv = 1 / c.eta
+		if e.kind == GearKind {
+			c.invRatio = 1 / e.ratio
+		}
 		s.ec[i] = c
 	}
 }
@@ -126,10 +132,11 @@ type compiledState struct {
 	// gears' first ports, every set's sun: keyPass): the compiled path
 	// computes only these unless the full State is asked for.
 	keyPorts []int32
-	nGear    int
+	nFlow    int     // the input, the outputs, the PTOs and the pump: the key ports before the gears
 	wmax     float64 // the point's largest shaft speed
 	tmax     float64 // the largest key-port |torque| of the last keyPass
 	near     bool    // a key port's torque of the last keyPass is rounding: non-zero, below 1e-12·tmax
+	loss     float64 // the lossy gears' and the sets' loss at the last keyPass
 	held     bool    // the last newton held an iterate at ±lim
 	// The charge pumps (indices into the layout's drags): their torques
 	// follow the loop's leakage, T = K·(Q_leak(Δp) + Q_flush) with
@@ -197,7 +204,7 @@ func (s *Solver) initCompiled() {
 		key = append(key, s.ec[pi].port0)
 	}
 	c.keyPorts = key
-	c.nGear = len(c.gears)
+	c.nFlow = 2 + len(l.outputs) + len(l.ptos)
 	if len(c.b)+nu <= 4 {
 		// keyPass reads the key ports' rows four wide, zero-padded.
 		for i := range s.cache {
@@ -396,7 +403,7 @@ func (s *Solver) summaryC(st *State, p *Point, r *rangeDef, iters int, tmax floa
 		pto += s.flowState(&st.PTOs[k], pi)
 	}
 	st.OutputPower, st.PTOPower = units.Power(out), units.Power(pto)
-	loss := s.keyLoss()
+	loss := s.comp.loss
 	lr := &st.Loops[0]
 	el := &l.elems[l.loops[0]]
 	hl := pos(float64(lr.Loss))
@@ -628,45 +635,46 @@ func (s *Solver) losslessDirections() {
 }
 
 // keyPass sets the key ports' torques T = H·b + W·τ (+ z of the drag
-// torques) into s.t, their largest magnitude into c.tmax and whether any
-// is rounding (non-zero, below 1e-12 of the largest) into c.near, then
-// reads the gear and planetary loss directions off them by the rules of
-// directions, and reports whether any changed.
+// torques) into s.t and their largest magnitude into c.tmax, reads the
+// gear and planetary loss directions off them by the rules of directions,
+// and reports whether any changed; c.near then says whether a key port's
+// torque is rounding (non-zero, below 1e-12 of the largest) and
+// c.loss holds the loss of the gears and sets at these torques and
+// directions (the point's, once none changed).
 //
-// A gear's second port is not computed: with the direction k of the
-// system solved, its equation gives the power there as P_b = −k·P_a, so
-// the power enters at the first port where P_a > 0 (k = η), at the second
-// where P_a < 0 (k = 1/η), as directions reads both ports to rounding.
+// A gear's second port is not a row of its own: with the direction k of
+// the system solved, the gear's equation r·T_b + k·T_a = 0 gives its
+// torque; the directions are then read off both ports' powers as
+// directions reads them, and the loss is (1 − η) times the power entering.
 func (s *Solver) keyPass(e *sysEntry, dz []float64) bool {
 	c := &s.comp
 	t := s.t
+	tmax := 0.0
 	if kp := e.kp; kp != nil {
 		// At most four columns (one output and a PTO, or two outputs, a
 		// pump and a motor: the common layout), the rows zero-padded.
-		var v0, v1, v2, v3 float64
+		var v [4]float64
 		ne := e.nExt
-		v := [4]float64{}
 		copy(v[:], c.b[:ne])
 		for u, tq := range c.tau {
 			v[ne+u] = float64(tq)
 		}
-		v0, v1, v2, v3 = v[0], v[1], v[2], v[3]
+		v0, v1, v2, v3 := v[0], v[1], v[2], v[3]
 		kp = kp[:4*len(c.keyPorts)]
 		for k, i := range c.keyPorts {
 			row := kp[4*k : 4*k+4 : 4*k+4]
-			t[i] = 0 + row[0]*v0 + row[1]*v1 + row[2]*v2 + row[3]*v3
+			sum := 0 + row[0]*v0 + row[1]*v1 + row[2]*v2 + row[3]*v3
+			if dz != nil {
+				sum += dz[i]
+			}
+			t[i] = sum
+			tmax = maxAbs(tmax, sum)
 		}
 	} else {
-		s.portTorques(e, nil, c.keyPorts)
-	}
-	if dz != nil {
+		s.portTorques(e, dz, c.keyPorts)
 		for _, i := range c.keyPorts {
-			t[i] += dz[i]
+			tmax = maxAbs(tmax, t[i])
 		}
-	}
-	tmax := 0.0
-	for _, i := range c.keyPorts {
-		tmax = maxAbs(tmax, t[i])
 	}
 	// The rounding of the point's torques: 1e-12 of the largest key-port
 	// torque. A torque below it is nil (an idle range gear, an idle set):
@@ -674,27 +682,35 @@ func (s *Solver) keyPass(e *sysEntry, dz []float64) bool {
 	// system, which differs from one set of directions to the next, and so
 	// with the points solved before.
 	floor := 1e-12 * tmax
-	near := false
-	for _, i := range c.keyPorts {
+	near, changed := false, false
+	for _, i := range c.keyPorts[:c.nFlow] {
 		if a := math.Abs(t[i]); a <= floor && a != 0 {
 			near = true
 		}
 	}
-	c.tmax, c.near = tmax, near
-	changed := false
+	var loss float64
 	for _, gi := range c.gears {
 		g := &s.ec[gi]
 		ta := t[g.port0]
-		pa := ta * s.w[g.a]
+		tb := -s.gearK[g.index] * ta * g.invRatio // the gear's equation r·Tb + k·Ta = 0
+		pa, pb := ta*s.w[g.a], tb*s.w[g.b]
+		scale := math.Abs(pa) + math.Abs(pb)
+		if a := math.Abs(ta); a <= floor && a != 0 {
+			near = true
+		}
 		// A gear without torque (an idle range gear) is taken as lossless,
-		// as a fresh general solve starts it, whatever the guess said.
+		// as a fresh general solve starts it, whatever the guess said; so
+		// is one whose powers at the two ports are rounding of the same
+		// sign (shafts standing to rounding).
 		k := 1.0
 		switch {
-		case math.Abs(ta) <= floor && math.Abs(pa*s.gearK[g.index]) <= floor*math.Abs(s.w[g.b]):
-		case pa > 0:
+		case scale == 0 || math.Abs(ta) <= floor && math.Abs(tb) <= floor:
+		case pa > 1e-13*scale:
 			k = g.eta
-		case pa < 0:
+			loss += (1 - g.eta) * pa
+		case pb > 1e-13*scale:
 			k = g.inv
+			loss += (1 - g.eta) * pb
 		}
 		if k != s.gearK[g.index] {
 			s.gearK[g.index] = k
@@ -703,35 +719,24 @@ func (s *Solver) keyPass(e *sysEntry, dz []float64) bool {
 	}
 	for _, pi := range s.l.planets {
 		ps := &s.ec[pi]
-		if f := s.planetFlow(ps, floor, true); f != s.pflow[ps.index] {
+		ts := t[ps.port0]
+		if a := math.Abs(ts); a <= floor && a != 0 {
+			near = true
+		}
+		f := s.planetFlow(ps, floor, true)
+		if f != s.pflow[ps.index] {
 			s.pflow[ps.index] = f
 			changed = true
 		}
-	}
-	return changed
-}
-
-// keyLoss returns the loss of the lossy gears and the sets at the key
-// ports' torques and the directions keyPass left: (1 − η) times the power
-// entering a gear, P_a or, entering at its second port, −P_a/η; a set's as
-// elemLoss has it.
-func (s *Solver) keyLoss() float64 {
-	var loss float64
-	for _, gi := range s.comp.gears {
-		g := &s.ec[gi]
-		pa := s.t[g.port0] * s.w[g.a]
-		switch k := s.gearK[g.index]; {
-		case k < 1:
-			loss += pos((1 - g.eta) * pa)
-		case k > 1:
-			loss += pos((1 - g.eta) * (-g.inv * pa))
+		switch roll := ts * (s.w[ps.a] - s.w[ps.c]); f {
+		case 0:
+			loss += pos(roll * (1 - ps.eta))
+		case 1:
+			loss += pos(roll * (1 - ps.inv))
 		}
 	}
-	for _, pi := range s.l.planets {
-		v, _ := s.elemLoss(pi, 1)
-		loss += v
-	}
-	return loss
+	c.tmax, c.near, c.loss = tmax, near, loss
+	return changed
 }
 
 // keyRows copies the key ports' rows of e.pt into e.kp, four wide.
