@@ -38,6 +38,12 @@ func summaryDiff(a, b *State, tol float64) string {
 		}
 	}
 	pscale += 1e-3 * tscale * wscale
+	// A power is as exact as the largest power flowing through the network
+	// is: where power circulates through a loop, the input power is a
+	// small difference of large ones.
+	for _, lr := range b.Loops {
+		pscale += math.Abs(float64(lr.HydraulicPower))
+	}
 	var d string
 	cmpf := func(name string, x, y, scale float64) {
 		if d != "" {
@@ -58,16 +64,20 @@ func summaryDiff(a, b *State, tol float64) string {
 	}
 	cmpf("input speed", float64(a.InputSpeed), float64(b.InputSpeed), 0)
 	cmpf("input torque", float64(a.InputTorque), float64(b.InputTorque), tscale)
-	cmpf("input power", float64(a.InputPower), float64(b.InputPower), pscale)
+	// The input torque is the difference of torques as large as tscale, so
+	// the input power is known to tscale·ω_in: where little power enters
+	// against the torques the network carries, that bounds it.
+	pinScale := pscale + tscale*math.Abs(float64(b.InputSpeed))
+	cmpf("input power", float64(a.InputPower), float64(b.InputPower), pinScale)
 	cmpf("output power", float64(a.OutputPower), float64(b.OutputPower), pscale)
 	cmpf("PTO power", float64(a.PTOPower), float64(b.PTOPower), pscale)
 	cmpf("loss", float64(a.Loss), float64(b.Loss), pscale)
 	cmpf("hydrostat loss", float64(a.HydrostatLoss), float64(b.HydrostatLoss), pscale)
-	// A ratio of powers is as exact as the powers are relative to the input
-	// power: pscale/|P_in| where little power enters.
+	// A ratio of powers over the input power is as exact as the input power
+	// is relative to itself: pinScale/|P_in| where little power enters.
 	ratio := 1.0
 	if pin := math.Abs(float64(b.InputPower)); pin > 0 {
-		ratio = math.Max(1, pscale/pin)
+		ratio = math.Max(1, pinScale/pin)
 	}
 	cmpf("efficiency", a.Efficiency, b.Efficiency, ratio)
 	cmpf("hydraulic share", a.HydraulicShare, b.HydraulicShare, ratio)
