@@ -55,6 +55,9 @@ type Curve struct {
 	am, bm     float64       // Σ over the motors
 	tau        []curveTorque // per unit, pump first
 	fixed      bool          // every unit's torque is fixed (curveTorque.fixed): Fill from the terms
+	swing      bool          // no leakage grows with the pump's setting (bp zero): pumpSwings serves
+	quick      bool          // swing and fixed: torquesQuick serves
+	dxp        float64       // with bp zero, ∂x/∂Δp of the pump while it swings (settingSlopes)
 	over       bool          // a unit's speed is above its rated maximum (Fill asks Loop.crossed which)
 	limit      setLimit      // the setting limit of the last Torques, if hit
 }
@@ -249,6 +252,9 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	u0.torque(&c.tau[0], wp)
 	c.tau[0].la, c.tau[0].lb = ap, bp
 	c.fixed, c.over = fixed, over
+	c.swing = bp == 0
+	c.quick = c.swing && fixed
+	c.dxp = (ap + am + bm) * c.invQ
 	c.ok = true
 	return true
 }
@@ -282,6 +288,12 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 	}
 	d := float64(dp)
 	c.limit.hit = false
+	if c.quick {
+		if xp, ok := c.pumpSwings(d); ok {
+			c.torquesQuick(d, xp, settings, torques, slopes)
+			return true
+		}
+	}
 	xp, sm, ok := c.sequential(d)
 	if !ok {
 		return false
@@ -319,6 +331,47 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 	return true
 }
 
+// pumpSwings is sequential where the pump swings in range (the motors
+// full) for a Curve whose leakage does not grow with the pump's setting
+// (c.bp zero): the pump's setting and true there, false where sequential
+// has to decide. The same arithmetic as sequential's.
+func (c *Curve) pumpSwings(dp float64) (xp float64, ok bool) {
+	a, sig := math.Abs(dp), sgn(dp)
+	ap, bp, am, bm := c.ap*a, c.bp*a, c.am*a, c.bm*a
+	q := c.pumpQ
+	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(math.Abs(c.motorQ)+ap+am+bm) {
+		return 0, false
+	}
+	k := -sig*ap - c.motorQ - sig*(am+bm)
+	xp = -k * c.invQ
+	return xp, math.Abs(xp) <= 1
+}
+
+// torquesQuick is Torques where the pump swings at xp with the motors full
+// and every unit's torque is fixed: the same arithmetic, the pump's
+// setting slope the one the Curve keeps.
+func (c *Curve) torquesQuick(d, xp float64, settings []float64, torques []units.Torque, slopes []units.Displacement) {
+	settings[0] = xp
+	for i := 1; i < len(settings); i++ {
+		settings[i] = 1
+	}
+	tau := c.tau
+	torques, slopes = torques[:len(tau)], slopes[:len(tau)]
+	// The pump: x = xp, q = Δp.
+	tc := &tau[0]
+	dm := tc.dmax
+	torques[0] = units.Torque(d*xp*dm + tc.sw*(tc.t0+tc.t1*math.Abs(d)))
+	slopes[0] = units.Displacement(1*xp*dm + d*dm*c.dxp + tc.sw*tc.t1*sgn(d)*1)
+	// The motors: x = 1 held, q = −Δp.
+	q := -d
+	for i := 1; i < len(tau); i++ {
+		tc := &tau[i]
+		dm := tc.dmax
+		torques[i] = units.Torque(q*1*dm + tc.sw*(tc.t0+tc.t1*math.Abs(q)))
+		slopes[i] = units.Displacement(-1*1*dm + q*dm*0 + tc.sw*tc.t1*sgn(q)*-1)
+	}
+}
+
 // settingSlopes returns the slopes over Δp of the settings sequential gave
 // at d: the pump swings while the motors are full, else the motors; both
 // are held (no slope) at a setting limit.
@@ -350,6 +403,15 @@ func (c *Curve) Leakage(dp units.Pressure) (q units.VolumeFlow, slope float64, o
 	}
 	d := float64(dp)
 	c.limit.hit = false
+	if c.swing {
+		if xp, ok := c.pumpSwings(d); ok {
+			// settingSlopes' pump branch (the motors full, held), as below.
+			sm, dxp, dsm := 1.0, c.dxp, 0.0
+			a := math.Abs(d)
+			k := c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)
+			return units.VolumeFlow(k * a), sgn(d)*k + a*(c.bp*sgn(xp)*dxp+c.bm*sgn(sm)*dsm), true
+		}
+	}
 	xp, sm, ok := c.sequential(d)
 	if !ok {
 		return 0, 0, false

@@ -416,3 +416,92 @@ func TestCurveFillLimits(t *testing.T) {
 		}
 	}
 }
+
+// TestCurveQuick: over random loops of lossless and Wilson units (every
+// coefficient drawn), speeds and pressures, Torques and Leakage give the
+// same numbers bit for bit whether they take the short way for a pump that
+// swings (torquesQuick, pumpSwings) or sequential and settingSlopes.
+func TestCurveQuick(t *testing.T) {
+	t.Parallel()
+	quick := 0
+	defer func() {
+		t.Logf("%d points took the short way", quick)
+		if quick == 0 && !testing.Short() {
+			t.Error("no point took the short way")
+		}
+	}()
+	rapid.Check(t, func(t *rapid.T) {
+		m := Wilson{
+			Slip: rapid.Float64Range(0, 3e-9).Draw(t, "slip"), Viscous: rapid.Float64Range(0, 2e5).Draw(t, "viscous"),
+			Friction: rapid.Float64Range(0, 0.03).Draw(t, "friction"), Hydrodynamic: rapid.Float64Range(0, 5).Draw(t, "churning"),
+			ConstantPressure: units.Bar(rapid.Float64Range(0, 3).Draw(t, "constant bar")),
+			ConstantTorque:   units.NewtonMetres(rapid.SampledFrom([]float64{0, 2.5}).Draw(t, "constant N·m")),
+			Compressibility:  rapid.Bool().Draw(t, "compressibility"), DeadVolume: rapid.Float64Range(0, 1).Draw(t, "dead volume"),
+			LeakageSetting: rapid.SampledFrom([]float64{0, 0, 0, 0.5}).Draw(t, "leakage share"),
+			TorqueSetting:  rapid.SampledFrom([]float64{0, 0, 0, 0.5}).Draw(t, "torque share"),
+		}
+		unit := func(label string) Unit {
+			s := UnitSpec{MaxDisplacement: units.CCPerRev(rapid.Float64Range(40, 160).Draw(t, label+" cc"))}
+			if rapid.Bool().Draw(t, label+" lossy") {
+				s.Loss = m
+			}
+			u, err := NewUnit(s)
+			if err != nil {
+				t.Fatal(err)
+			}
+			return u
+		}
+		nm := rapid.IntRange(1, 3).Draw(t, "motors")
+		motors := make([]Unit, nm)
+		for i := range motors {
+			motors[i] = unit("motor")
+		}
+		l, err := NewLoop(LoopSpec{Pump: unit("pump"), Motors: motors, Oil: VG46,
+			Temperature: units.Celsius(rapid.Float64Range(30, 90).Draw(t, "oil °C")), Charge: units.Bar(20), Relief: units.Bar(450)})
+		if err != nil {
+			t.Fatal(err)
+		}
+		wp := units.RPM(rapid.Float64Range(-3000, 3000).Draw(t, "pump rpm"))
+		wms := make([]units.AngularVelocity, nm)
+		for i := range wms {
+			wms[i] = units.RPM(rapid.Float64Range(-1500, 1500).Draw(t, "motor rpm"))
+		}
+		var c Curve
+		if !l.Curve(wp, wms, &c) {
+			t.Fatal("no Curve")
+		}
+		slow := c
+		slow.quick, slow.swing = false, false
+		dp := units.Bar(rapid.Float64Range(-450, 450).Draw(t, "Δp bar"))
+		if rapid.IntRange(0, 20).Draw(t, "pressure not finite") == 0 {
+			dp = units.Pressure(rapid.SampledFrom([]float64{math.NaN(), math.Inf(1), math.Inf(-1)}).Draw(t, "pressure"))
+		}
+		n := nm + 1
+		set, tq, sl := make([]float64, n), make([]units.Torque, n), make([]units.Displacement, n)
+		set2, tq2, sl2 := make([]float64, n), make([]units.Torque, n), make([]units.Displacement, n)
+		ok := c.Torques(dp, set, tq, sl)
+		ok2 := slow.Torques(dp, set2, tq2, sl2)
+		if ok != ok2 || c.limit != slow.limit {
+			t.Fatalf("Torques %v (limit %+v), by sequential %v (%+v)", ok, c.limit, ok2, slow.limit)
+		}
+		if ok {
+			for _, d := range []string{
+				sameBits("settings", reflect.ValueOf(set), reflect.ValueOf(set2)),
+				sameBits("torques", reflect.ValueOf(tq), reflect.ValueOf(tq2)),
+				sameBits("slopes", reflect.ValueOf(sl), reflect.ValueOf(sl2)),
+			} {
+				if d != "" {
+					t.Fatalf("Torques' %s", d)
+				}
+			}
+			if c.quick && c.limit == (setLimit{}) && set[1] == 1 && math.Abs(set[0]) <= 1 {
+				quick++
+			}
+		}
+		q, qs, okq := c.Leakage(dp)
+		q2, qs2, okq2 := slow.Leakage(dp)
+		if okq != okq2 || math.Float64bits(float64(q)) != math.Float64bits(float64(q2)) || math.Float64bits(qs) != math.Float64bits(qs2) {
+			t.Fatalf("Leakage %v, %v, %v; by sequential %v, %v, %v", q, qs, okq, q2, qs2, okq2)
+		}
+	})
+}
