@@ -123,6 +123,11 @@ type compiledState struct {
 	guessK    [][]float64 // per range and quadrant (guessSlot): the directions the last such point ended with
 	guessF    [][]int8
 	guessOK   []bool
+	// guessE is, per slot, the factored system of the guess's directions
+	// and the generation it had (sysEntry.gen): the first pass finds it
+	// there while the cache still holds it.
+	guessE []*sysEntry
+	guessG []uint64
 	losslessK []float64 // the lossless directions (losslessDirections), the first pass's without a guess
 	losslessF []int8
 	hits      int // points solved on the compiled path (for tests)
@@ -163,6 +168,7 @@ func (s *Solver) initCompiled() {
 	c.v = make([]float64, len(c.b)+nu)
 	ng := quadrants * len(l.ranges)
 	c.guessK, c.guessF, c.guessOK = make([][]float64, ng), make([][]int8, ng), make([]bool, ng)
+	c.guessE, c.guessG = make([]*sysEntry, ng), make([]uint64, ng)
 	for i := range ng {
 		c.guessK[i], c.guessF[i] = make([]float64, len(l.gears)), make([]int8, len(l.planets))
 	}
@@ -248,11 +254,15 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	var ps settled
 	ok, kept := false, c.guessOK[rg]
 	if kept {
-		ps, ok = s.settle(r, p, el, c.guessK[rg], c.guessF[rg], lim)
+		var hint *sysEntry
+		if e := c.guessE[rg]; e != nil && e.gen == c.guessG[rg] {
+			hint = e
+		}
+		ps, ok = s.settle(r, p, el, c.guessK[rg], c.guessF[rg], hint, lim)
 	}
 	if !ok {
 		kept = false
-		ps, ok = s.settle(r, p, el, c.losslessK, c.losslessF, lim)
+		ps, ok = s.settle(r, p, el, c.losslessK, c.losslessF, nil, lim)
 	}
 	if !ok || ps.held {
 		// A point whose pressure Newton's method pressed beyond the
@@ -288,7 +298,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 			s.detail(st, r, 1)
 		}
 		s.compErr = s.loopLimit(el.name, &lr.Limit)
-		s.keepGuess(rg, kept)
+		s.keepGuess(rg, kept, e)
 		return true
 	}
 	res := s.summaryC(st, p, r, evals, tmax)
@@ -300,7 +310,7 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		s.detail(st, r, 1)
 	}
 	s.compErr = nil
-	s.keepGuess(rg, kept)
+	s.keepGuess(rg, kept, e)
 	return true
 }
 
@@ -320,8 +330,9 @@ type settled struct {
 // settle solves p from the directions k, f (the guess, or the lossless
 // set), repeating with the directions read off each solution until they
 // hold, and reports whether they did; the key ports' torques are then in
-// s.t and the charge pumps' in s.dragT.
-func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int8, lim float64) (settled, bool) {
+// s.t and the charge pumps' in s.dragT. hint, when not nil, is the
+// factored system of k and f in range r.
+func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int8, hint *sysEntry, lim float64) (settled, bool) {
 	c := &s.comp
 	copy(s.gearK, k)
 	copy(s.pflow, f)
@@ -332,7 +343,10 @@ func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int
 		}
 		c.passes++
 		ps.passes = pass + 1
-		e := s.entry(r, p)
+		e := hint
+		if pass > 0 || e == nil {
+			e = s.entry(r, p)
+		}
 		if !e.ok {
 			return ps, false
 		}
@@ -488,16 +502,17 @@ func (s *Solver) chargeRHS(el *element) {
 	}
 }
 
-// keepGuess keeps the directions of a point solved on the compiled path as
-// the first guess in slot rg (guessSlot), unless they are kept there
-// already.
-func (s *Solver) keepGuess(rg int, kept bool) {
+// keepGuess keeps the directions of a point solved on the compiled path,
+// and e, their factored system, as the first guess in slot rg
+// (guessSlot), unless they are kept there already.
+func (s *Solver) keepGuess(rg int, kept bool, e *sysEntry) {
 	c := &s.comp
 	if !kept {
 		copy(c.guessK[rg], s.gearK)
 		copy(c.guessF[rg], s.pflow)
 		c.guessOK[rg] = true
 	}
+	c.guessE[rg], c.guessG[rg] = e, e.gen
 	c.hits++
 }
 

@@ -59,6 +59,7 @@ var refMotor = [...]float64{1, -1, 0.37}
 // sysEntry is one factored reference system.
 type sysEntry struct {
 	used, ok bool
+	gen      uint64 // counts the systems this entry has held
 	r        *rangeDef
 	gearK    []float64
 	pflow    []int8
@@ -131,6 +132,7 @@ func (s *Solver) entry(r *rangeDef, p *Point) *sysEntry {
 	e := &s.cache[s.nextEntry]
 	s.nextEntry = (s.nextEntry + 1) % len(s.cache)
 	e.used, e.ok, e.r = true, false, r
+	e.gen++
 	copy(e.gearK, s.gearK)
 	copy(e.pflow, s.pflow)
 	s.factor(e, r, p)
