@@ -112,22 +112,22 @@ const maxPasses = 4
 
 // compiledState is the compiled path's work space in a Solver.
 type compiledState struct {
-	on        bool // the layout has one loop and no drag sources
-	curve     hydrostat.Curve
-	wms       []units.AngularVelocity
-	tau       []units.Torque
-	slope     []units.Displacement
-	settings  []float64
-	b         []float64   // given torques, in the order of the entries' extSrc
-	v         []float64   // b, then the units' torques
-	guessK    [][]float64 // per range and quadrant (guessSlot): the directions the last such point ended with
-	guessF    [][]int8
-	guessOK   []bool
+	on       bool // the layout has one loop and no drag sources
+	curve    hydrostat.Curve
+	wms      []units.AngularVelocity
+	tau      []units.Torque
+	slope    []units.Displacement
+	settings []float64
+	b        []float64   // given torques, in the order of the entries' extSrc
+	v        []float64   // b, then the units' torques
+	guessK   [][]float64 // per range and quadrant (guessSlot): the directions the last such point ended with
+	guessF   [][]int8
+	guessOK  []bool
 	// guessE is, per slot, the factored system of the guess's directions
 	// and the generation it had (sysEntry.gen): the first pass finds it
 	// there while the cache still holds it.
-	guessE []*sysEntry
-	guessG []uint64
+	guessE    []*sysEntry
+	guessG    []uint64
 	losslessK []float64 // the lossless directions (losslessDirections), the first pass's without a guess
 	losslessF []int8
 	hits      int // points solved on the compiled path (for tests)

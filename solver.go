@@ -50,9 +50,6 @@ type Solver struct {
 	scratch  State
 	bad      *marginDesc // the first infeasible margin of the last fill (margins), at badV
 	badV     float64
-	room     float64     // the binding margin's room so far, relative (margins)
-	bind     *marginDesc // the binding margin so far, at bindV
-	bindV    float64
 	rangeM   []marginDesc   // per range: its speed limit (initMargins)
 	loopM    [][]marginDesc // per loop: its margins (initMargins)
 	mval     []float64      // a loop's margins' values (margins)

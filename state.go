@@ -522,8 +522,9 @@ type marginDesc struct {
 	elem, quantity, bound string
 	limit                 float64
 	kind                  units.Kind
-	unchecked             bool // the limit is not rated: listed, never checked
-	rated                 bool // a rated pressure: crossing it is a flag, not a limit
+	inv                   float64 // 1/limit: the room left relative to the limit is (limit − v)·inv
+	unchecked             bool    // the limit is not rated: listed, never checked
+	rated                 bool    // a rated pressure: crossing it is a flag, not a limit
 }
 
 // at returns the margin of d at value v.
@@ -541,7 +542,7 @@ func (s *Solver) initMargins() {
 	s.rangeM = make([]marginDesc, len(l.ranges))
 	for i := range l.ranges {
 		r := &l.ranges[i]
-		s.rangeM[i] = marginDesc{elem: r.name, quantity: "output speed", bound: boundRangeSpeed, limit: r.maxOut, kind: w}
+		s.rangeM[i] = marginDesc{elem: r.name, quantity: "output speed", bound: boundRangeSpeed, limit: r.maxOut, kind: w, inv: 1 / r.maxOut}
 	}
 	s.loopM = make([][]marginDesc, len(l.loops))
 	s.mval = make([]float64, 1) // the range's speed limit; a loop's below
@@ -558,6 +559,9 @@ func (s *Solver) initMargins() {
 				marginDesc{elem: el.name, quantity: el.unames[k][2], bound: boundFull, limit: 1, kind: units.Number})
 		}
 		s.loopM[j] = ds
+		for k := range ds {
+			ds[k].inv = 1 / ds[k].limit
+		}
 		if len(ds) > len(s.mval) {
 			s.mval = make([]float64, len(ds))
 		}
@@ -578,11 +582,12 @@ func (s *Solver) margins(st *State, known bool) {
 		st.Binding = Margin{}
 		return
 	}
-	s.room, s.bind = math.Inf(1), nil
+	var k mtake
+	k.room = math.Inf(1)
 	if r := &l.ranges[st.Range]; r.maxOut > 0 {
 		v := s.mval[:1]
 		v[0] = math.Abs(s.outW[0])
-		s.take(st, s.rangeM[st.Range:st.Range+1], v)
+		k.take(st, s.rangeM[st.Range:st.Range+1], v)
 	}
 	for j := range l.loops {
 		ds := s.loopM[j]
@@ -597,51 +602,59 @@ func (s *Solver) margins(st *State, known bool) {
 			}
 			v[k], v[k+1], v[k+2], v[k+3] = dp, dp, math.Abs(float64(pt.Speed)), math.Abs(pt.Setting)
 		}
-		s.take(st, ds, v)
+		k.take(st, ds, v)
 	}
+	s.bad, s.badV = k.bad, k.badV
 	b := &st.Binding
-	if d := s.bind; d != nil {
+	if d := k.bind; d != nil {
 		// Field by field: a composite literal is built aside and copied.
 		b.Element, b.Quantity, b.Bound, b.Unchecked = d.elem, d.quantity, d.bound, d.unchecked
-		b.Value, b.Limit = measure(s.bindV, d.kind), measure(d.limit, d.kind)
+		b.Value, b.Limit = measure(k.bindV, d.kind), measure(d.limit, d.kind)
 	} else {
 		*b = Margin{}
 	}
 }
 
+// mtake is what margins keeps while it takes the margins of a point: the
+// binding margin so far with its relative room, and the first crossed
+// limit.
+type mtake struct {
+	room        float64
+	bind, bad   *marginDesc
+	bindV, badV float64
+}
+
 // take takes the margins ds at values v into st: each listed unless st is
 // Brief, flagged when a crossed rating, the binding one when it has the
-// least room so far (s.room), and kept for limits when it is the first
-// crossed limit. A Margin value is built only where it is kept.
-func (s *Solver) take(st *State, ds []marginDesc, v []float64) {
+// least room so far, and kept for limits when it is the first crossed
+// limit. A Margin value is built only where it is kept.
+func (k *mtake) take(st *State, ds []marginDesc, v []float64) {
 	v = v[:len(ds)]
-	for k := range ds {
-		d := &ds[k]
+	room, bind, bindV := k.room, k.bind, k.bindV
+	for i := range ds {
+		d := &ds[i]
 		if !st.Brief {
-			st.Margins = append(st.Margins, d.at(v[k]))
+			st.Margins = append(st.Margins, d.at(v[i]))
 		}
 		if d.unchecked {
 			continue
 		}
-		left := d.limit - v[k]
+		left := d.limit - v[i]
 		crossed := left < -1e-12*d.limit // Margin.Crossed
 		if d.rated {
 			if crossed {
-				st.Flags = append(st.Flags, d.at(v[k]))
+				st.Flags = append(st.Flags, d.at(v[i]))
 			}
 			continue // a rating is a flag, not a limit
 		}
-		r := left
-		if d.limit != 1 { // a setting's limit: left/1 is left, without the division
-			r = left / d.limit
+		if r := left * d.inv; r < room {
+			room, bind, bindV = r, d, v[i]
 		}
-		if r < s.room {
-			s.room, s.bind, s.bindV = r, d, v[k]
-		}
-		if s.bad == nil && crossed {
-			s.bad, s.badV = d, v[k]
+		if crossed && k.bad == nil {
+			k.bad, k.badV = d, v[i]
 		}
 	}
+	k.room, k.bind, k.bindV = room, bind, bindV
 }
 
 // measure is units.Of for a known kind, without its type switch.
