@@ -57,8 +57,6 @@ type Curve struct {
 	fixed      bool          // every unit's torque is fixed (curveTorque.fixed): Fill from the terms
 	swing      bool          // no leakage grows with the pump's setting (bp zero): pumpSwings serves
 	quick      bool          // swing and fixed: torquesQuick serves
-	dxp        float64       // with bp zero, ∂x/∂Δp of the pump while it swings (settingSlopes)
-	over       bool          // a unit's speed is above its rated maximum (Fill asks Loop.crossed which)
 	limit      setLimit      // the setting limit of the last Torques, if hit
 }
 
@@ -70,8 +68,6 @@ type curveTorque struct {
 	fixed  bool    // τ = t0 + t1·|Δp| (lossless, or Wilson with its torque at full displacement)
 	t0, t1 float64
 	la, lb float64 // the unit's leakage a + b·|x| per |Δp| at its speed
-	rated  float64 // the unit's continuous rated pressure, +Inf where not rated
-	low    float64 // the lowest setting of the unit's swing (Swing.lowest)
 }
 
 // curvePlan is what a Curve needs of a loop that does not change with the
@@ -186,15 +182,13 @@ func (up *unitPlan) leak(w float64) (a, b float64, ok bool) {
 // w (in place: a returned struct costs a copy through memory).
 func (up *unitPlan) torque(ct *curveTorque, w float64) {
 	ct.w, ct.sw, ct.dmax, ct.fixed = w, sgn(w), up.dmax, up.fixed
-	ct.rated, ct.low = up.rated, up.low
-	ct.t0, ct.t1 = 0, 0
-	if up.fixed && !up.lossless {
-		t0 := up.va*math.Abs(w) + up.cb
-		if up.hr > 0 {
-			t0 += up.hr * w * w * up.d53
-		}
-		ct.t0, ct.t1 = t0, up.t1
+	// A lossless unit's terms, and those of a unit whose torque is not
+	// fixed, are zero in its plan: t0 = 0·|ω| + 0 = 0 at a finite speed.
+	t0 := up.va*math.Abs(w) + up.cb
+	if up.hr > 0 {
+		t0 += up.hr * w * w * up.d53
 	}
+	ct.t0, ct.t1 = t0, up.t1
 }
 
 // Curve prepares c for the loop at the given shaft speeds and reports
@@ -226,7 +220,6 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	}
 	var mq, am, bm float64
 	fixed := u0.fixed
-	over := math.Abs(wp) > u0.wmax
 	for i, ws := range motorSpeeds {
 		w := float64(ws)
 		if !finite(w) {
@@ -244,17 +237,15 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 		up.torque(&c.tau[i+1], w)
 		c.tau[i+1].la, c.tau[i+1].lb = a, b
 		fixed = fixed && up.fixed
-		over = over || math.Abs(w) > up.wmax
 	}
 	c.pumpQ, c.motorQ = u0.dmax*wp, mq
 	c.invQ, c.invM = 1/c.pumpQ, 1/mq
 	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
 	u0.torque(&c.tau[0], wp)
 	c.tau[0].la, c.tau[0].lb = ap, bp
-	c.fixed, c.over = fixed, over
+	c.fixed = fixed
 	c.swing = bp == 0
 	c.quick = c.swing && fixed
-	c.dxp = (ap + am + bm) * c.invQ
 	c.ok = true
 	return true
 }
@@ -348,8 +339,7 @@ func (c *Curve) pumpSwings(dp float64) (xp float64, ok bool) {
 }
 
 // torquesQuick is Torques where the pump swings at xp with the motors full
-// and every unit's torque is fixed: the same arithmetic, the pump's
-// setting slope the one the Curve keeps.
+// and every unit's torque is fixed: the same arithmetic.
 func (c *Curve) torquesQuick(d, xp float64, settings []float64, torques []units.Torque, slopes []units.Displacement) {
 	settings[0] = xp
 	for i := 1; i < len(settings); i++ {
@@ -361,7 +351,8 @@ func (c *Curve) torquesQuick(d, xp float64, settings []float64, torques []units.
 	tc := &tau[0]
 	dm := tc.dmax
 	torques[0] = units.Torque(d*xp*dm + tc.sw*(tc.t0+tc.t1*math.Abs(d)))
-	slopes[0] = units.Displacement(1*xp*dm + d*dm*c.dxp + tc.sw*tc.t1*sgn(d)*1)
+	dxp := (c.ap + c.am + c.bm) * c.invQ // settingSlopes' with bp zero
+	slopes[0] = units.Displacement(1*xp*dm + d*dm*dxp + tc.sw*tc.t1*sgn(d)*1)
 	// The motors: x = 1 held, q = −Δp.
 	q := -d
 	for i := 1; i < len(tau); i++ {
@@ -406,7 +397,7 @@ func (c *Curve) Leakage(dp units.Pressure) (q units.VolumeFlow, slope float64, o
 	if c.swing {
 		if xp, ok := c.pumpSwings(d); ok {
 			// settingSlopes' pump branch (the motors full, held), as below.
-			sm, dxp, dsm := 1.0, c.dxp, 0.0
+			sm, dxp, dsm := 1.0, (c.ap+c.am+c.bm)*c.invQ, 0.0
 			a := math.Abs(d)
 			k := c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)
 			return units.VolumeFlow(k * a), sgn(d)*k + a*(c.bp*sgn(xp)*dxp+c.bm*sgn(sm)*dsm), true
@@ -511,8 +502,9 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 	}
 	if c.fixed {
 		if check, ok := c.fillFast(float64(dp), st); ok {
-			// Loop.crossed finds a limit only where one of these holds.
-			if st.Limit.Err == nil && (check || st.High > l.spec.Relief || c.over || math.Abs(float64(dp)) > l.plan.peak) {
+			// Loop.crossed finds a limit only where one of these holds (a
+			// peak pressure: the lowest of the units').
+			if st.Limit.Err == nil && (check || st.High > l.spec.Relief || math.Abs(float64(dp)) > l.plan.peak) {
 				l.crossed(st)
 			}
 			return st.Limit.Err
@@ -537,9 +529,11 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 // every result is finite, in one pass and the same arithmetic (Unit.ideal,
 // Unit.point, LoopState.sum): it reports false, st half written, where
 // that is not so, and fill then gives the error. check is true where a
-// setting lies below its unit's swing, a limit Loop.crossed reports.
+// setting lies below its unit's swing or a unit turns faster than rated,
+// limits Loop.crossed reports.
 func (c *Curve) fillFast(dp float64, st *LoopState) (check, ok bool) {
 	tau := c.tau
+	plan := c.l.plan.units[:len(tau)]
 	set := st.Settings[:len(tau)]
 	motors := st.Motors[:len(tau)-1]
 	a := math.Abs(dp)
@@ -550,7 +544,6 @@ func (c *Curve) fillFast(dp float64, st *LoopState) (check, ok bool) {
 	// sums every value point would refuse if it were not finite (a NaN or
 	// an infinity makes it one).
 	var in, out, loss, leak, fin float64
-	below := false
 	for i := range tau {
 		tc := &tau[i]
 		x := set[i]
@@ -561,8 +554,9 @@ func (c *Curve) fillFast(dp float64, st *LoopState) (check, ok bool) {
 		if i > 0 {
 			p, q = &motors[i-1], -dp
 		}
+		up := &plan[i]
 		w := tc.w
-		below = below || x < tc.low
+		check = check || x < up.low || math.Abs(w) > up.wmax
 		// Unit.ideal: the sign of Δp·x·ω is that of Δp·qi when neither
 		// qi nor ti is zero.
 		qi := x * tc.dmax * w
@@ -597,7 +591,7 @@ func (c *Curve) fillFast(dp float64, st *LoopState) (check, ok bool) {
 			p.Volumetric, p.HydroMechanical = 1, 1
 		}
 		p.Overall = p.Volumetric * p.HydroMechanical
-		p.AboveRated = a > tc.rated
+		p.AboveRated = a > up.rated
 		if !(lk >= 0) || !(tq >= 0) {
 			return false, false
 		}
@@ -620,7 +614,7 @@ func (c *Curve) fillFast(dp float64, st *LoopState) (check, ok bool) {
 	if in > 0 {
 		st.Efficiency = clamp01(out / in)
 	}
-	return below, true
+	return check, true
 }
 
 // fill is Loop.fill for a Curve whose units' torques are fixed: each unit's
