@@ -494,14 +494,21 @@ func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 // (the limit itself in st.Limit).
 func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error {
 	l := c.l
-	st.size(len(l.spec.Motors))
+	if n := len(c.tau) - 1; len(st.Motors) != n || len(st.Settings) != n+1 {
+		st.size(n)
+	}
 	st.Limit = LimitError{}
-	copy(st.Settings, settings)
 	if c.limit.hit {
 		st.Limit = c.limit.value()
 	}
 	if c.fixed {
-		if check, ok := c.fillFast(float64(dp), st); ok {
+		src := settings
+		if len(src) < len(st.Settings) {
+			// copy's semantics: the rest of st.Settings is kept.
+			copy(st.Settings, src)
+			src = st.Settings
+		}
+		if check, ok := c.fillFast(float64(dp), src, st); ok {
 			// Loop.crossed finds a limit only where one of these holds (a
 			// peak pressure: the lowest of the units').
 			if st.Limit.Err == nil && (check || st.High > l.spec.Relief || math.Abs(float64(dp)) > l.plan.peak) {
@@ -510,6 +517,7 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 			return st.Limit.Err
 		}
 	}
+	copy(st.Settings, settings)
 	var err error
 	if c.fixed {
 		err = c.fill(float64(dp), st)
@@ -525,15 +533,17 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 	return st.Limit.Err
 }
 
-// fillFast is fill where every setting is within full displacement and
-// every result is finite, in one pass and the same arithmetic (Unit.ideal,
-// Unit.point, LoopState.sum): it reports false, st half written, where
-// that is not so, and fill then gives the error. check is true where a
+// fillFast is fill, after copying settings into st.Settings, where every
+// setting is within full displacement and every result is finite, in one
+// pass and the same arithmetic (Unit.ideal, Unit.point, LoopState.sum): it
+// reports false, st half written, where that is not so, and fill then
+// gives the error. check is true where a
 // setting lies below its unit's swing or a unit turns faster than rated,
 // limits Loop.crossed reports.
-func (c *Curve) fillFast(dp float64, st *LoopState) (check, ok bool) {
+func (c *Curve) fillFast(dp float64, settings []float64, st *LoopState) (check, ok bool) {
 	tau := c.tau
 	plan := c.l.plan.units[:len(tau)]
+	src := settings[:len(tau)]
 	set := st.Settings[:len(tau)]
 	motors := st.Motors[:len(tau)-1]
 	a := math.Abs(dp)
@@ -546,7 +556,8 @@ func (c *Curve) fillFast(dp float64, st *LoopState) (check, ok bool) {
 	var in, out, loss, leak, fin float64
 	for i := range tau {
 		tc := &tau[i]
-		x := set[i]
+		x := src[i]
+		set[i] = x // copy(st.Settings, settings)
 		if !(math.Abs(x) <= 1) {
 			return false, false
 		}
@@ -580,17 +591,14 @@ func (c *Curve) fillFast(dp float64, st *LoopState) (check, ok bool) {
 		p.IdealTorque, p.Torque, p.LossTorque = units.Torque(ti), units.Torque(t), units.Torque(tq)
 		p.Mode = mode
 		p.Mechanical, p.Hydraulic, p.Loss = units.Power(mech), units.Power(hyd), units.Power(ls)
+		ev, eh := 1.0, 1.0
 		switch mode {
 		case Pumping:
-			p.Volumetric = clamp01(qf / qi)
-			p.HydroMechanical = clamp01(ti / t)
+			ev, eh = clamp01(qf/qi), clamp01(ti/t)
 		case Motoring:
-			p.Volumetric = clamp01(qi / qf)
-			p.HydroMechanical = clamp01(t / ti)
-		default:
-			p.Volumetric, p.HydroMechanical = 1, 1
+			ev, eh = clamp01(qi/qf), clamp01(t/ti)
 		}
-		p.Overall = p.Volumetric * p.HydroMechanical
+		p.Volumetric, p.HydroMechanical, p.Overall = ev, eh, ev*eh
 		p.AboveRated = a > up.rated
 		if !(lk >= 0) || !(tq >= 0) {
 			return false, false
