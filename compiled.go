@@ -169,8 +169,9 @@ func (s *Solver) initCompiled() {
 	ng := quadrants * len(l.ranges)
 	c.guessK, c.guessF, c.guessOK = make([][]float64, ng), make([][]int8, ng), make([]bool, ng)
 	c.guessE, c.guessG = make([]*sysEntry, ng), make([]uint64, ng)
+	gk, gf := slab[float64](make([]float64, ng*len(l.gears))), slab[int8](make([]int8, ng*len(l.planets)))
 	for i := range ng {
-		c.guessK[i], c.guessF[i] = make([]float64, len(l.gears)), make([]int8, len(l.planets))
+		c.guessK[i], c.guessF[i] = gk.take(len(l.gears)), gf.take(len(l.planets))
 	}
 	c.losslessK, c.losslessF = make([]float64, len(l.gears)), make([]int8, len(l.planets))
 	for i := range c.losslessK {
@@ -213,8 +214,9 @@ func (s *Solver) initCompiled() {
 	c.nFlow = 2 + len(l.outputs) + len(l.ptos)
 	if len(c.b)+nu <= 4 {
 		// keyPass reads the key ports' rows four wide, zero-padded.
+		kp := slab[float64](make([]float64, len(s.cache)*4*len(key)))
 		for i := range s.cache {
-			s.cache[i].kp = make([]float64, 4*len(key))
+			s.cache[i].kp = kp.take(4 * len(key))
 		}
 	}
 	// Size the curve's storage now (at standstill), so that no solve

@@ -63,8 +63,6 @@ type sysEntry struct {
 	r        *rangeDef
 	gearK    []float64
 	pflow    []int8
-	lu       []float64 // n × n LU factors of A_ref, row-major
-	piv      []int
 	dref     []float64 // per unit
 	loopRow  []int     // per unit
 	nExt     int
@@ -102,18 +100,34 @@ func (s *Solver) initCache() {
 		}
 	}
 	s.work, s.iwork = make([]float64, 4*n), make([]int, n)
+	s.lu, s.luPiv = make([]float64, n*n), make([]int, n)
 	nExt := len(l.outputs) + len(l.ptos)
 	s.cache = make([]sysEntry, cacheSize)
+	// The entries' slices, cut from one block of each type.
+	nf := len(l.gears) + nu + n*nu + n*nExt + l.nPorts*(nExt+nu)
+	fs, is, bs := slab[float64](make([]float64, cacheSize*nf)), slab[int](make([]int, cacheSize*(nu+2*nExt))), slab[int8](make([]int8, cacheSize*len(l.planets)))
 	for i := range s.cache {
 		e := &s.cache[i]
-		e.gearK, e.pflow = make([]float64, len(l.gears)), make([]int8, len(l.planets))
-		e.lu, e.piv = make([]float64, n*n), make([]int, n)
-		e.dref, e.loopRow = make([]float64, nu), make([]int, nu)
-		e.extRow, e.extSrc = make([]int, nExt), make([]int, nExt)
-		e.w, e.h = make([]float64, n*nu), make([]float64, n*nExt)
-		e.a, e.f = sparse.NewMatrix(n, n*n), sparse.NewFactors(n)
-		e.pt = make([]float64, l.nPorts*(nExt+nu))
+		e.gearK, e.pflow = fs.take(len(l.gears)), bs.take(len(l.planets))
+		e.dref, e.loopRow = fs.take(nu), is.take(nu)
+		e.extRow, e.extSrc = is.take(nExt), is.take(nExt)
+		e.w, e.h = fs.take(n*nu), fs.take(n*nExt)
+		// The sparse storage grows to the entry's system at its first
+		// factoring (factor): most systems fill a small part of n × n.
+		e.a, e.f = sparse.NewMatrix(n, 0), sparse.NewFactors(n)
+		e.pt = fs.take(l.nPorts * (nExt + nu))
 	}
+}
+
+// slab hands out consecutive pieces of one allocation, each with its
+// capacity cut to its length.
+type slab[T any] []T
+
+// take returns the next n elements of b.
+func (b *slab[T]) take(n int) []T {
+	s := (*b)[:n:n]
+	*b = (*b)[n:]
+	return s
 }
 
 // entry returns the factored system of range r with the current
@@ -170,19 +184,20 @@ func (s *Solver) factor(e *sysEntry, r *rangeDef, p *Point) {
 				e.dref[u+1+k] = -m * float64(sp.Motors[k].Displacement(1))
 			}
 		}
-		if err := s.assembleInto(r, p, e.lu, s.y, e); err != nil {
+		lu := s.lu // dense scratch: the entry keeps A_ref and its factors sparse
+		if err := s.assembleInto(r, p, lu, s.y, e); err != nil {
 			return
 		}
-		e.a.FromDense(e.lu, n, func(int) int { return 0 }, func(int) int { return n })
-		a := blas64.General{Rows: n, Cols: n, Stride: n, Data: e.lu}
+		e.a.FromDense(lu, n, func(int) int { return 0 }, func(int) int { return n })
+		a := blas64.General{Rows: n, Cols: n, Stride: n, Data: lu}
 		anorm := lapack64.Lange(lapack.MaxColumnSum, a, s.work)
-		if !sparse.Factor(e.lu, n, e.piv, s.iwork) {
+		if !sparse.Factor(lu, n, s.luPiv, s.iwork) {
 			continue
 		}
 		if rc := lapack64.Gecon(lapack.MaxColumnSum, a, anorm, s.work, s.iwork); !(rc >= minRcond) {
 			continue
 		}
-		e.f.From(e.lu, e.piv)
+		e.f.From(lu, s.luPiv)
 		for u := 0; u < s.nU; u++ {
 			c := e.w[u*n : (u+1)*n]
 			clear(c)

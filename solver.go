@@ -67,6 +67,8 @@ type Solver struct {
 	delta     []float64 // per unit: the Woodbury update of its slope
 	work      []float64
 	iwork     []int
+	lu        []float64 // n × n dense scratch of factor: A_ref, then its LU factors
+	luPiv     []int
 	cache     []sysEntry
 	nextEntry int
 	recent    *sysEntry // the entry found last, looked at first

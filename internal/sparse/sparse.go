@@ -14,11 +14,23 @@ func NewMatrix(n, capacity int) Matrix {
 }
 
 // FromDense fills m with the non-zero entries of the n × n row-major d in
-// the columns [lo(i), hi(i)) of each row i. It panics if m has too little
-// room.
+// the columns [lo(i), hi(i)) of each row i, growing m's storage when it has
+// too little room (so a Matrix sized for its largest fill does not
+// allocate again). It panics if m is not n × n.
 func (m *Matrix) FromDense(d []float64, n int, lo, hi func(i int) int) {
 	if len(m.row) != n+1 {
 		panic("sparse: FromDense into a matrix of another size")
+	}
+	nz := 0
+	for i := 0; i < n; i++ {
+		for _, v := range d[i*n+lo(i) : i*n+hi(i)] {
+			if v != 0 {
+				nz++
+			}
+		}
+	}
+	if nz > len(m.col) {
+		m.col, m.val = make([]int32, nz), make([]float64, nz)
 	}
 	k := int32(0)
 	for i := 0; i < n; i++ {
@@ -54,9 +66,10 @@ type Factors struct {
 	diag   []float64
 }
 
-// NewFactors returns room for the factors of an n × n matrix.
+// NewFactors returns room for the factors of an n × n matrix; the room for
+// their non-zero entries grows as From needs it.
 func NewFactors(n int) Factors {
-	return Factors{piv: make([]int, n), lo: NewMatrix(n, n*(n-1)/2), up: NewMatrix(n, n*(n-1)/2), diag: make([]float64, n)}
+	return Factors{piv: make([]int, n), lo: NewMatrix(n, 0), up: NewMatrix(n, 0), diag: make([]float64, n)}
 }
 
 // From keeps the factors that Factor left in the n × n row-major lu, with
