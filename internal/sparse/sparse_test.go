@@ -303,3 +303,41 @@ func BenchmarkFactorsSolve(b *testing.B) {
 		f.Solve(x)
 	}
 }
+
+// TestFromDenseGrows: a Matrix with no room takes a dense matrix's
+// non-zero entries (m·x equals the dense product), grows once, and keeps
+// its storage for a later fill with fewer entries.
+func TestFromDenseGrows(t *testing.T) {
+	const n = 4
+	d := []float64{
+		2, 0, 0, 1,
+		0, 3, 0, 0,
+		-1, 0, 4, 0,
+		0, 0, 0, 5,
+	}
+	m := NewMatrix(n, 0)
+	all := func(int) int { return 0 }
+	end := func(int) int { return n }
+	m.FromDense(d, n, all, end)
+	if len(m.col) != 6 {
+		t.Fatalf("room for %d entries after a fill with 6", len(m.col))
+	}
+	x := []float64{1, 2, 3, 4}
+	r := make([]float64, n)
+	m.SubMul(x, r)
+	for i := range n {
+		var want float64
+		for j := range n {
+			want -= d[i*n+j] * x[j]
+		}
+		if r[i] != want {
+			t.Errorf("row %d: −m·x = %v, want %v", i, r[i], want)
+		}
+	}
+	col := &m.col[0]
+	d[3] = 0
+	m.FromDense(d, n, all, end)
+	if &m.col[0] != col || m.row[n] != 5 {
+		t.Errorf("a fill with fewer entries moved the storage or holds %d entries", m.row[n])
+	}
+}
