@@ -118,5 +118,16 @@ func BenchmarkCurve(b *testing.B) {
 				_ = c.Fill(units.Bar(180), set, &st)
 			}
 		})
+		if !c.fixed {
+			// Without the losses Torques kept (Fill at another point than
+			// the last Torques): the loss model for every unit.
+			b.Run(lc.name+"/fill-uncached", func(b *testing.B) {
+				b.ReportAllocs()
+				for b.Loop() {
+					c.cached = false
+					_ = c.Fill(units.Bar(180), set, &st)
+				}
+			})
+		}
 	}
 }

@@ -58,6 +58,8 @@ type Curve struct {
 	swing      bool          // no leakage grows with the pump's setting (bp zero): pumpSwings serves
 	quick      bool          // swing and fixed: torquesQuick serves
 	limit      setLimit      // the setting limit of the last Torques, if hit
+	cached     bool          // the last Torques kept its units' losses (curveTorque.cx) at cdp
+	cdp        float64
 }
 
 // curveTorque is what a Curve knows of a unit's loss torque at its speed.
@@ -68,6 +70,10 @@ type curveTorque struct {
 	fixed  bool    // τ = t0 + t1·|Δp| (lossless, or Wilson with its torque at full displacement)
 	t0, t1 float64
 	la, lb float64 // the unit's leakage a + b·|x| per |Δp| at its speed
+	// A unit whose torque is not fixed: the loss model's leakage and loss
+	// torque at setting cx and the pressure of the last Torques (Curve.cdp),
+	// for Fill.
+	cx, cleak, ctau float64
 }
 
 // curvePlan is what a Curve needs of a loop that does not change with the
@@ -243,7 +249,7 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
 	u0.torque(&c.tau[0], wp)
 	c.tau[0].la, c.tau[0].lb = ap, bp
-	c.fixed = fixed
+	c.fixed, c.cached = fixed, false
 	c.swing = bp == 0
 	c.quick = c.swing && fixed
 	c.ok = true
@@ -285,6 +291,7 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 			return true
 		}
 	}
+	c.cached = false
 	xp, sm, ok := c.sequential(d)
 	if !ok {
 		return false
@@ -312,13 +319,15 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 				u = &c.l.spec.Motors[i-1]
 			}
 			var ok bool
-			t, sl, ok = u.torqueSlope(x, dx, tc.w, q, dq, &c.l.fl)
+			t, sl, tc.cleak, tc.ctau, ok = u.torqueSlope(x, dx, tc.w, q, dq, &c.l.fl)
 			if !ok {
 				return false
 			}
+			tc.cx = x
 		}
 		torques[i], slopes[i] = units.Torque(t), units.Displacement(sl)
 	}
+	c.cached, c.cdp = true, d
 	return true
 }
 
@@ -501,21 +510,19 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 	if c.limit.hit {
 		st.Limit = c.limit.value()
 	}
-	if c.fixed {
-		src := settings
-		if len(src) < len(st.Settings) {
-			// copy's semantics: the rest of st.Settings is kept.
-			copy(st.Settings, src)
-			src = st.Settings
+	src := settings
+	if len(src) < len(st.Settings) {
+		// copy's semantics: the rest of st.Settings is kept.
+		copy(st.Settings, src)
+		src = st.Settings
+	}
+	if check, ok := c.fillFast(float64(dp), src, st); ok {
+		// Loop.crossed finds a limit only where one of these holds (a
+		// peak pressure: the lowest of the units').
+		if st.Limit.Err == nil && (check || st.High > l.spec.Relief || math.Abs(float64(dp)) > l.plan.peak) {
+			l.crossed(st)
 		}
-		if check, ok := c.fillFast(float64(dp), src, st); ok {
-			// Loop.crossed finds a limit only where one of these holds (a
-			// peak pressure: the lowest of the units').
-			if st.Limit.Err == nil && (check || st.High > l.spec.Relief || math.Abs(float64(dp)) > l.plan.peak) {
-				l.crossed(st)
-			}
-			return st.Limit.Err
-		}
+		return st.Limit.Err
 	}
 	copy(st.Settings, settings)
 	var err error
@@ -533,11 +540,14 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 	return st.Limit.Err
 }
 
-// fillFast is fill, after copying settings into st.Settings, where every
-// setting is within full displacement and every result is finite, in one
-// pass and the same arithmetic (Unit.ideal, Unit.point, LoopState.sum): it
-// reports false, st half written, where that is not so, and fill then
-// gives the error. check is true where a
+// fillFast is fill (a Curve of fixed torques) or Loop.fill (any other),
+// after copying settings into st.Settings, where every setting is within
+// full displacement and every result is finite, in one pass and the same
+// arithmetic (Unit.ideal, Unit.point, LoopState.sum): it reports false, st
+// half written, where that is not so, and fill or Loop.fill then gives the
+// error. The loss model's leakage and torque of a unit whose torque is not
+// fixed are those the last Torques kept where it was called at the same
+// pressure and setting (the same numbers: the same call). check is true where a
 // setting lies below its unit's swing or a unit turns faster than rated,
 // limits Loop.crossed reports.
 func (c *Curve) fillFast(dp float64, settings []float64, st *LoopState) (check, ok bool) {
@@ -579,8 +589,29 @@ func (c *Curve) fillFast(dp float64, settings []float64, st *LoopState) (check, 
 				mode = Pumping
 			}
 		}
-		lk := (tc.la + tc.lb*math.Abs(x)) * a
-		tq := tc.t0 + tc.t1*a
+		var lk, tq float64
+		switch {
+		case c.fixed:
+			// Curve.fill: from the terms the Curve keeps.
+			lk, tq = (tc.la+tc.lb*math.Abs(x))*a, tc.t0+tc.t1*a
+		case !tc.fixed && c.cached && tc.cx == x && c.cdp == dp:
+			// What the loss model gave the last Torques at this point.
+			lk, tq = tc.cleak, tc.ctau
+		default:
+			// Loop.fill: the loss model (Unit.eval's).
+			u := &c.l.spec.Pump
+			if i > 0 {
+				u = &c.l.spec.Motors[i-1]
+			}
+			if m := u.wil; m != nil {
+				f := &c.l.fl
+				ls, err := m.losses(x, u.dmax, w, a, f.mu, f.rho, f.beta, u.d53)
+				if err != nil {
+					return false, false
+				}
+				lk, tq = float64(ls.Leakage), float64(ls.Torque)
+			}
+		}
 		// Unit.point.
 		qf := qi - sgn(q)*lk
 		t := ti + tc.sw*tq
@@ -662,23 +693,24 @@ func (c *Curve) fill(dp float64, st *LoopState) error {
 
 // torqueSlope returns the torque of u at setting x, speed w and pressure
 // q = dq·Δp in its own frame (as eval computes it) and its slope over Δp,
-// given the setting's slope dx.
-func (u *Unit) torqueSlope(x, dx, w, q, dq float64, f *fluid) (t, slope float64, ok bool) {
+// given the setting's slope dx, and the leakage and loss torque the loss
+// model gives there.
+func (u *Unit) torqueSlope(x, dx, w, q, dq float64, f *fluid) (t, slope, leak, tau float64, ok bool) {
 	ti := q * x * u.dmax
 	slope = dq*x*u.dmax + q*u.dmax*dx
 	m := u.wil
 	if m == nil {
-		return ti, slope, u.spec.Loss == nil
+		return ti, slope, 0, 0, u.spec.Loss == nil
 	}
 	ls, err := m.losses(x, u.dmax, w, math.Abs(q), f.mu, f.rho, f.beta, u.d53)
 	if err != nil {
-		return 0, 0, false
+		return 0, 0, 0, 0, false
 	}
-	tau := float64(ls.Torque)
+	leak, tau = float64(ls.Leakage), float64(ls.Torque)
 	sw := sgn(w)
 	t = ti + sw*tau
 	if sw == 0 {
-		return t, slope, true
+		return t, slope, leak, tau, true
 	}
 	// τ = D_t·(Cv·μ·|ω| + Cf·|Δp| + p_c) + Ch·ρ·ω²·D_t^(5/3).
 	dt := u.dmax * (1 - m.TorqueSetting + m.TorqueSetting*math.Abs(x))
@@ -690,5 +722,5 @@ func (u *Unit) torqueSlope(x, dx, w, q, dq float64, f *fluid) (t, slope float64,
 		}
 		slope += sw * dtau * u.dmax * m.TorqueSetting * sgn(x) * dx
 	}
-	return t, slope, true
+	return t, slope, leak, tau, true
 }

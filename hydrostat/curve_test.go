@@ -227,9 +227,9 @@ func sameBits(path string, a, b reflect.Value) string {
 }
 
 // TestCurveFillFast: over random loops of lossless units and Wilson units
-// with their torque at full displacement (the Curves Fill fills in one
-// pass), with random ratings and swings, Fill writes the state of the
-// unit-by-unit arithmetic bit for bit and reports the same error and limit
+// (their torque at full displacement, or following the setting: Fill then
+// takes the losses the last Torques kept), with random ratings and swings,
+// Fill writes the state of the unit-by-unit arithmetic bit for bit and reports the same error and limit
 // (relief, unit speed, setting): at the settings Torques gives and at
 // settings drawn anywhere (beyond full displacement, below a unit's swing,
 // not finite), at pressures up to beyond the relief. (A peak pressure is
@@ -253,6 +253,7 @@ func TestCurveFillFast(t *testing.T) {
 			ConstantTorque:   units.NewtonMetres(rapid.SampledFrom([]float64{0, 2.5}).Draw(t, "constant N·m")),
 			Compressibility:  rapid.Bool().Draw(t, "compressibility"), DeadVolume: rapid.Float64Range(0, 1).Draw(t, "dead volume"),
 			LeakageSetting: rapid.Float64Range(0, 1).Draw(t, "leakage share"),
+			TorqueSetting:  rapid.SampledFrom([]float64{0, 0, 0.5, 1}).Draw(t, "torque share"),
 		}
 		swingToZero := rapid.Bool().Draw(t, "motors swing to zero")
 		nm := rapid.IntRange(1, 3).Draw(t, "motors")
@@ -298,8 +299,8 @@ func TestCurveFillFast(t *testing.T) {
 			t.Fatal(err)
 		}
 		var c Curve
-		if !l.Curve(wp, wms, &c) || !c.fixed {
-			t.Fatal("a Sequential loop of fixed-torque units is no Curve of fixed torques")
+		if !l.Curve(wp, wms, &c) {
+			t.Fatal("a Sequential loop of lossless and Wilson units is no Curve")
 		}
 		// Up to beyond the relief.
 		dp := units.Pressure(rapid.Float64Range(-1.5, 1.5).Draw(t, "Δp share of the relief")) * ls.Relief
@@ -317,12 +318,23 @@ func TestCurveFillFast(t *testing.T) {
 		}
 		if rapid.IntRange(0, 20).Draw(t, "pressure not finite") == 0 {
 			dp = units.Pressure(math.NaN())
+		} else if rapid.IntRange(0, 4).Draw(t, "Fill at another pressure than Torques") == 0 {
+			dp *= 1.25
 		}
-		var got, want LoopState
+		var got, want, uncached LoopState
 		eg := c.Fill(dp, set, &got)
 		ew := fillGeneral(&c, dp, set, &want)
 		if (eg == nil) != (ew == nil) || (eg != nil && eg.Error() != ew.Error()) {
 			t.Fatalf("Fill: %v, the unit-by-unit arithmetic: %v", eg, ew)
+		}
+		// Without the losses Torques kept: the loss model's own numbers.
+		c.cached = false
+		if eu := c.Fill(dp, set, &uncached); (eu == nil) != (ew == nil) || (eu != nil && eu.Error() != ew.Error()) {
+			t.Fatalf("Fill without the losses Torques kept: %v, the unit-by-unit arithmetic: %v", eu, ew)
+		} else if eu == nil || isBareLimit(eu) {
+			if d := sameBits("LoopState", reflect.ValueOf(uncached), reflect.ValueOf(want)); d != "" {
+				t.Fatalf("Fill without the losses Torques kept: %s", d)
+			}
 		}
 		if ew != nil && !isBareLimit(ew) {
 			// ErrModel, ErrInvalid or a setting beyond full displacement
