@@ -230,7 +230,7 @@ func (s *Solver) initCompiled() {
 // iteration state is left for the general path to reset.
 func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	c := &s.comp
-	if !c.on || s.general || s.noFactor || s.pinOn[0] {
+	if !c.on || s.general || s.noFactor {
 		return false
 	}
 	l := s.l
@@ -238,7 +238,10 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	for k := range c.wms {
 		c.wms[k] = units.AngularVelocity(s.w[el.shafts[k+1]])
 	}
-	if !el.loop.Curve(units.AngularVelocity(s.w[el.shafts[0]]), c.wms, &c.curve) {
+	// The loop as this point runs it: with its held motors (Pinned), or
+	// destroked in a locked range; a schedule the Curve does not serve
+	// leaves the point to the general path.
+	if !s.loopOf(0).Curve(units.AngularVelocity(s.w[el.shafts[0]]), c.wms, &c.curve) {
 		return false
 	}
 	c.wmax = 0

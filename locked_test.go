@@ -84,6 +84,43 @@ func TestLockedRange(t *testing.T) {
 	}
 }
 
+// An input-coupled split locked by holding its motor member: the pump
+// turns with the engine while the motor stands, so the loop is a Curve in
+// the speeds' sense, but a locked range runs it destroked (both settings
+// zero), never by its own schedule. Both paths give that state, and the
+// same numbers.
+func TestLockedRangeTurningPump(t *testing.T) {
+	t.Parallel()
+	lp := makeLoop(t, loopSpec{pumpCC: 100, motorCC: 100, lossy: true, wilson: demoWilson, maxRPM: 4500})
+	l, err := InputCoupled(InputCoupledSpec{Set: mustSet(t, testI0, 0.98), Loop: lp,
+		Ranges: []RangeGear{{Name: "split", Ratio: 0.5}, {Name: "locked", Ratio: 0.5, Locked: true}}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	nu, ok := l.LockedRatio(1)
+	if !ok {
+		t.Fatal("the locked range has no locked ratio")
+	}
+	fast, gen := NewSolver(l), NewSolver(l)
+	gen.general = true
+	win := units.RPM(2000)
+	for _, torque := range []float64{-200, 0, 300, 900} {
+		p := Point{Range: 1, Input: win, Outputs: []OutputDemand{{Speed: units.AngularVelocity(nu * float64(win)), Torque: units.NewtonMetres(torque)}}}
+		var a, b State
+		ea, eb := fast.Solve(p, &a), gen.Solve(p, &b)
+		if ea != nil || eb != nil {
+			t.Fatalf("%v N·m: %v; general: %v", torque, ea, eb)
+		}
+		lr := &a.Loops[0]
+		if lr.Pump.Speed == 0 || lr.Motors[0].Speed != 0 || lr.Settings[0] != 0 || lr.Settings[1] != 0 || lr.Pressure != 0 {
+			t.Errorf("%v N·m: pump %v, motor %v, settings %v, pressure %v: want a turning pump, a standing motor, both destroked", torque, lr.Pump.Speed, lr.Motors[0].Speed, lr.Settings, lr.Pressure)
+		}
+		if d := summaryDiff(&a, &b, 1e-12); d != "" {
+			t.Errorf("%v N·m: %s", torque, d)
+		}
+	}
+}
+
 // The interval of a locked range is its one output speed.
 func TestLockedRangeInterval(t *testing.T) {
 	t.Parallel()
