@@ -240,7 +240,7 @@ func (t Transmission) frontLayout(s *File) (powersplit.Layout, error) {
 		second.Setting.Speeds = append(second.Setting.Speeds, s.rearOutput(p.Speed))
 		second.Setting.Settings = append(second.Setting.Settings, p.Setting)
 	}
-	l, err := t.layout(&fm.Motor, second)
+	l, _, err := t.layout(&fm.Motor, second)
 	if err != nil {
 		return l, err
 	}
@@ -250,23 +250,38 @@ func (t Transmission) frontLayout(s *File) (powersplit.Layout, error) {
 // Layout builds the transmission layout, with its no-load losses when the
 // design lists them.
 func (t Transmission) Layout() (powersplit.Layout, error) {
-	l, err := t.layout(nil, nil)
-	if err != nil {
-		return l, err
-	}
-	return t.withLosses(l)
+	l, _, err := t.built()
+	return l, err
 }
 
-// layout builds the layout, with a second motor when front is set.
-func (t Transmission) layout(front *Unit, second *powersplit.SecondMotor) (powersplit.Layout, error) {
+// built is Layout, with the hydrostatic loop the layout holds (the rated
+// limits of its units are in its spec).
+func (t Transmission) built() (powersplit.Layout, hydrostat.Loop, error) {
+	l, loop, err := t.layout(nil, nil)
+	if err != nil {
+		return l, loop, err
+	}
+	l, err = t.withLosses(l)
+	return l, loop, err
+}
+
+// layout builds the layout, with a second motor when front is set, and
+// returns it with its loop.
+func (t Transmission) layout(front *Unit, second *powersplit.SecondMotor) (powersplit.Layout, hydrostat.Loop, error) {
 	set, err := t.Set.build()
 	if err != nil {
-		return powersplit.Layout{}, fmt.Errorf("set: %w", err)
+		return powersplit.Layout{}, hydrostat.Loop{}, fmt.Errorf("set: %w", err)
 	}
 	loop, err := t.loop(front)
 	if err != nil {
-		return powersplit.Layout{}, err
+		return powersplit.Layout{}, loop, err
 	}
+	l, err := t.split(set, loop, second)
+	return l, loop, err
+}
+
+// split composes the layout of t's kind from its set and loop.
+func (t Transmission) split(set planetary.Set, loop hydrostat.Loop, second *powersplit.SecondMotor) (powersplit.Layout, error) {
 	if second != nil && t.Kind != "input-coupled" && t.Kind != "output-coupled" {
 		return powersplit.Layout{}, fmt.Errorf("a front motor needs an input- or output-coupled split, not %q", t.Kind)
 	}

@@ -8,6 +8,7 @@ import (
 	"strings"
 
 	"github.com/powersplit-dev/powersplit"
+	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/units"
 	"github.com/powersplit-dev/powersplit/vehicle"
 )
@@ -184,26 +185,36 @@ func (f *File) travel(out units.AngularVelocity) units.Speed {
 }
 
 // intervals returns each range's travel speeds at engine speed w, from s,
-// a solver of l.
-func (f *File) intervals(s pointSolver, l powersplit.Layout, names []string, w units.AngularVelocity) []Interval {
+// a solver of l, and each range's first interval of output speeds as s
+// gives it (for pumpSpeed).
+func (f *File) intervals(s pointSolver, l powersplit.Layout, names []string, w units.AngularVelocity) ([]Interval, []reach) {
 	var out []Interval
+	first := make([]reach, l.Ranges())
 	for rg := range l.Ranges() {
 		ivs, err := s.Interval(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{}}})
 		if err != nil || len(ivs) == 0 {
 			out = append(out, Interval{Range: rg, Name: names[rg]})
 			continue
 		}
+		first[rg] = reach{iv: ivs[0], ok: true}
 		for _, iv := range ivs {
 			out = append(out, Interval{Range: rg, Name: names[rg], Lo: f.travel(iv.Lo), Hi: f.travel(iv.Hi), Feasible: true})
 		}
 	}
-	return out
+	return out, first
+}
+
+// reach is a range's first interval of output speeds at one engine speed;
+// ok is false when the range reaches none.
+type reach struct {
+	iv powersplit.SpeedInterval
+	ok bool
 }
 
 // Check checks transmission t of the file against f's requirements (none
 // when req is nil: the report then lists the speed coverage only).
 func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
-	l, err := t.Layout()
+	l, loop, err := t.built()
 	if err != nil {
 		return Report{Design: t.Name}, err
 	}
@@ -211,7 +222,7 @@ func (f *File) Check(t Transmission, req *Requirements) (Report, error) {
 	if err != nil {
 		return Report{Design: t.Name}, err
 	}
-	return f.check(t, l, v, solverOf(v, l), req)
+	return f.check(t, l, limitsOf(loop), v, solverOf(v, l), req)
 }
 
 // A pointSolver solves points of one layout: a powersplit.Solver, or the
@@ -230,15 +241,17 @@ func solverOf(v *vehicle.Vehicle, l powersplit.Layout) pointSolver {
 	return powersplit.NewSolver(l)
 }
 
-// check is Check with t's layout l, vehicle v and a solver s of l, built
-// once for every check (and for Score): the solver's points do not depend
-// on the points it solved before.
-func (f *File) check(t Transmission, l powersplit.Layout, v *vehicle.Vehicle, s pointSolver, req *Requirements) (Report, error) {
+// check is Check with t's layout l, the rated speeds lim of its loop's
+// units, vehicle v and a solver s of l, built once for every check (and
+// for Score): the solver's points do not depend on the points it solved
+// before.
+func (f *File) check(t Transmission, l powersplit.Layout, lim unitLimits, v *vehicle.Vehicle, s pointSolver, req *Requirements) (Report, error) {
 	rep := Report{Design: t.Name}
 	eng := v.Engine()
 	rated := eng.Rated()
 	names := t.RangeNames()
-	rep.Intervals = f.intervals(s, l, names, rated)
+	var first []reach
+	rep.Intervals, first = f.intervals(s, l, names, rated)
 
 	// Coverage of the forward speeds: merge the intervals.
 	var spans [][2]float64
@@ -285,7 +298,10 @@ func (f *File) check(t Transmission, l powersplit.Layout, v *vehicle.Vehicle, s 
 		if we == 0 {
 			we = rated
 		}
-		ivs := f.intervals(s, l, names, we)
+		ivs := rep.Intervals
+		if we != rated {
+			ivs, _ = f.intervals(s, l, names, we)
+		}
 		best, at := 0.0, ""
 		for _, iv := range ivs {
 			if iv.Feasible && float64(iv.Hi) > best {
@@ -362,7 +378,7 @@ func (f *File) check(t Transmission, l powersplit.Layout, v *vehicle.Vehicle, s 
 		add(c)
 	}
 	if req.UnitSpeedMargin > 0 {
-		add(f.unitSpeedCheck(s, l, rep.Intervals, rated, req))
+		add(f.unitSpeedCheck(s, l, lim, rep.Intervals, rated, req))
 	}
 	if req.PressureMargin > 0 {
 		limit := math.Inf(1)
@@ -388,10 +404,10 @@ func (f *File) check(t Transmission, l powersplit.Layout, v *vehicle.Vehicle, s 
 		add(c)
 	}
 	if req.ShiftTolerance > 0 && l.Ranges() > 1 {
-		add(f.shiftCheck(s, l, names, rep.Intervals, rated, req.ShiftTolerance))
+		add(f.shiftCheck(s, l, lim, names, rep.Intervals, rated, req.ShiftTolerance))
 	}
 	if req.CornerPower > 0 {
-		corner := f.cornerPower(s, t, l, rated)
+		corner := f.cornerPower(s, t, first, rated)
 		ratio := float64(corner) / float64(eng.RatedPower())
 		add(Check{Name: fmt.Sprintf("hydrostat corner power at most %.0f %% of engine power", 100*req.CornerPower),
 			Met: ratio <= req.CornerPower, Margin: 1 - ratio/req.CornerPower,
@@ -427,28 +443,28 @@ func (f *File) firstSurface(kind string) string {
 }
 
 // cornerPower is the relief pressure times the pump's full flow at engine
-// speed w: the greatest power the loop could carry.
-func (f *File) cornerPower(s pointSolver, t Transmission, l powersplit.Layout, w units.AngularVelocity) units.Power {
-	pump := f.pumpSpeed(s, l, w)
+// speed w: the greatest power the loop could carry. first holds each
+// range's first interval of output speeds at w.
+func (f *File) cornerPower(s pointSolver, t Transmission, first []reach, w units.AngularVelocity) units.Power {
+	pump := f.pumpSpeed(s, first, w)
 	return units.Power(float64(t.Relief) * float64(t.Pump.Displacement) * float64(pump))
 }
 
-// pumpSpeed is the pump's speed at engine speed w, from a solved point.
-func (f *File) pumpSpeed(s pointSolver, l powersplit.Layout, w units.AngularVelocity) units.AngularVelocity {
-	var st powersplit.State
-	for rg := range l.Ranges() {
-		ivs, err := s.Interval(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{}}})
-		if err != nil || len(ivs) == 0 {
+// pumpSpeed is the pump's speed at engine speed w, from a point solved in
+// the middle of the first interval of the first range that reaches one
+// (first holds them, by range).
+func (f *File) pumpSpeed(s pointSolver, first []reach, w units.AngularVelocity) units.AngularVelocity {
+	st := powersplit.State{Brief: true}
+	for rg, r := range first {
+		if !r.ok {
 			continue
 		}
-		mid := (ivs[0].Lo + ivs[0].Hi) / 2
+		mid := (r.iv.Lo + r.iv.Hi) / 2
 		if err := s.Solve(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{Speed: mid}}}, &st); err != nil {
 			continue
 		}
-		for _, m := range st.Margins {
-			if strings.Contains(m.Quantity, "pump") && strings.Contains(m.Quantity, "speed") {
-				return units.AngularVelocity(m.Value.SI)
-			}
+		if len(st.Loops) > 0 {
+			return units.AngularVelocity(math.Abs(float64(st.Loops[0].Pump.Speed)))
 		}
 	}
 	return 0
@@ -459,42 +475,69 @@ func (f *File) outSpeed(v units.Speed) units.AngularVelocity {
 	return units.AngularVelocity(float64(v) * f.Tractor.FinalDrive / float64(f.Tractor.Rear.Tyre.RollingRadius))
 }
 
-// unitState solves range rg at travel speed v (no load), the output's
-// demand written into out (one, the caller's, reused), and returns the
-// worst unit speed over its limit (with the margin that sets it) and the
-// variator's speed ratio, motor over pump, from the solver's margins.
-func (f *File) unitState(s pointSolver, st *powersplit.State, out []powersplit.OutputDemand, rg int, w units.AngularVelocity, v units.Speed) (worst float64, m powersplit.Margin, ratio float64, ok bool) {
+// unitLimits are the rated greatest speeds of the units of a layout's
+// loop (rad/s; 0: not rated, not checked): the pump's, then each motor's.
+type unitLimits []float64
+
+// limitsOf reads the rated greatest speeds of loop's units from its spec.
+func limitsOf(loop hydrostat.Loop) unitLimits {
+	spec := loop.Spec()
+	lim := make(unitLimits, 0, 1+len(spec.Motors))
+	lim = append(lim, float64(spec.Pump.Spec().MaxSpeed))
+	for _, m := range spec.Motors {
+		lim = append(lim, float64(m.Spec().MaxSpeed))
+	}
+	return lim
+}
+
+// speeds returns, for the solved state st of a layout whose loop has the
+// units' limits lim, the worst speed of a rated unit relative to its limit
+// (0 with none rated) and that unit (0 the pump, k the k-th motor), and
+// the variator's speed ratio, motor over pump, as magnitudes (0 with the
+// pump still).
+func (lim unitLimits) speeds(st *powersplit.State) (worst float64, unit int, ratio float64) {
+	if len(st.Loops) == 0 {
+		return 0, 0, 0
+	}
+	lp := &st.Loops[0]
+	for k, limit := range lim {
+		w := lp.Pump.Speed
+		if k > 0 {
+			if k > len(lp.Motors) {
+				break
+			}
+			w = lp.Motors[k-1].Speed
+		}
+		if r := math.Abs(float64(w)) / limit; limit > 0 && r > worst {
+			worst, unit = r, k
+		}
+	}
+	if pump := math.Abs(float64(lp.Pump.Speed)); pump > 0 && len(lp.Motors) > 0 {
+		ratio = math.Abs(float64(lp.Motors[0].Speed)) / pump
+	}
+	return worst, unit, ratio
+}
+
+// unitState solves range rg at travel speed v (no load) into st (a Brief
+// State will do), the output's demand written into out (one, the
+// caller's, reused), and returns the worst unit speed over its limit, the
+// unit that sets it and the variator's speed ratio, motor over pump (see
+// unitLimits.speeds).
+func (f *File) unitState(s pointSolver, st *powersplit.State, out []powersplit.OutputDemand, lim unitLimits, rg int, w units.AngularVelocity, v units.Speed) (worst float64, unit int, ratio float64, ok bool) {
 	out[0] = powersplit.OutputDemand{Speed: f.outSpeed(v)}
 	if err := s.Solve(powersplit.Point{Range: rg, Input: w, Outputs: out}, st); err != nil {
-		return 0, m, 0, false
+		return 0, 0, 0, false
 	}
-	var pump, motor float64
-	for _, q := range st.Margins {
-		if q.Value.Kind != units.AngularVelocityKind {
-			continue
-		}
-		if !q.Unchecked && q.Limit.SI > 0 && q.Value.SI/q.Limit.SI > worst {
-			worst, m = q.Value.SI/q.Limit.SI, q
-		}
-		switch {
-		case strings.Contains(q.Quantity, "pump"):
-			pump = q.Value.SI
-		case strings.Contains(q.Quantity, "motor") && motor == 0:
-			motor = q.Value.SI
-		}
-	}
-	if pump > 0 {
-		ratio = motor / pump
-	}
-	return worst, m, ratio, true
+	worst, unit, ratio = lim.speeds(st)
+	return worst, unit, ratio, true
 }
 
 // unitSpeedCheck finds, at each forward speed up to the top speed, the
 // range that keeps the units furthest below their greatest speeds, and
-// reports the speed where even that range comes closest: the solver's own
-// margins at the binding point.
-func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
-	var st powersplit.State
+// reports the speed where even that range comes closest, with the
+// solver's own margin of the binding unit at that point.
+func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, lim unitLimits, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
+	st := powersplit.State{Brief: true}
 	out := make([]powersplit.OutputDemand, 1)
 	top := req.TopSpeed
 	if top == 0 {
@@ -508,9 +551,9 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, ivs []Interval
 	}
 	worst := 0.0
 	var (
-		bound     bool // a point set worst
-		bind      Binding
-		bindUnits powersplit.Margin // the units' margin at bind
+		bound    bool // a point set worst
+		bind     Binding
+		bindUnit int // the unit that sets worst at bind
 	)
 	low := req.LowestSpeed
 	if req.Standstill {
@@ -522,12 +565,11 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, ivs []Interval
 		if v <= 0 {
 			continue
 		}
-		best, bestRange := math.Inf(1), 0
-		var bestM powersplit.Margin
+		best, bestRange, bestUnit := math.Inf(1), 0, 0
 		for rg := range l.Ranges() {
-			r, m, _, ok := f.unitState(s, &st, out, rg, w, v)
+			r, u, _, ok := f.unitState(s, &st, out, lim, rg, w, v)
 			if ok && r < best {
-				best, bestRange, bestM = r, rg, m
+				best, bestRange, bestUnit = r, rg, u
 			}
 		}
 		if math.IsInf(best, 1) { // a gap: the gap check reports it
@@ -535,16 +577,15 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, ivs []Interval
 		}
 		if best > worst {
 			worst, bound = best, true
-			bind, bindUnits = Binding{Range: bestRange, Speed: v, Engine: w}, bestM
+			bind, bindUnit = Binding{Range: bestRange, Speed: v, Engine: w}, bestUnit
 		}
 	}
 	// Words for the binding point only.
 	at := ""
 	var bindAt *Binding
 	if bound {
-		m := bindUnits
-		at = fmt.Sprintf("range %s at %.2f km/h, engine %.0f rpm: %s %s %.0f of %.0f rpm", names[bind.Range], bind.Speed.KMH(), w.RPM(),
-			m.Element, m.Quantity, units.AngularVelocity(m.Value.SI).RPM(), units.AngularVelocity(m.Limit.SI).RPM())
+		at = fmt.Sprintf("range %s at %.2f km/h, engine %.0f rpm: %s", names[bind.Range], bind.Speed.KMH(), w.RPM(),
+			f.speedMargin(s, lim, bind, bindUnit))
 		bindAt = &bind
 	}
 	margin := 1 - worst - req.UnitSpeedMargin
@@ -552,11 +593,35 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, ivs []Interval
 		Met: margin >= 0, Margin: margin, Got: fmt.Sprintf("%.1f %% of the greatest", 100*worst), At: at, Binding: bindAt}
 }
 
+// speedMargin returns in words the solver's margin of unit's speed (see
+// unitLimits.speeds) at point b, from the point's full State: the margin
+// of that unit's speed against its limit.
+func (f *File) speedMargin(s pointSolver, lim unitLimits, b Binding, unit int) string {
+	var st powersplit.State
+	if err := s.Solve(powersplit.Point{Range: b.Range, Input: b.Engine, Outputs: []powersplit.OutputDemand{{Speed: f.outSpeed(b.Speed)}}}, &st); err != nil {
+		return "not solved again: " + firstLine(err) // the sweep solved it: a bug
+	}
+	if len(st.Loops) == 0 || unit > len(st.Loops[0].Motors) {
+		return "no loop"
+	}
+	w := st.Loops[0].Pump.Speed
+	if unit > 0 {
+		w = st.Loops[0].Motors[unit-1].Speed
+	}
+	v := math.Abs(float64(w))
+	for _, m := range st.Margins {
+		if m.Value.Kind == units.AngularVelocityKind && !m.Unchecked && m.Value.SI == v && m.Limit.SI == lim[unit] {
+			return fmt.Sprintf("%s %s %.0f of %.0f rpm", m.Element, m.Quantity, units.AngularVelocity(m.Value.SI).RPM(), units.AngularVelocity(m.Limit.SI).RPM())
+		}
+	}
+	return fmt.Sprintf("%s unit %d speed %.0f of %.0f rpm", st.Loops[0].Name, unit, units.AngularVelocity(v).RPM(), units.AngularVelocity(lim[unit]).RPM())
+}
+
 // shiftCheck compares the variator's speed ratio (motor over pump) in the
 // two ranges of each range change, at the common travel speed where they
 // come closest: a synchronous change needs no jump of the variator.
-func (f *File) shiftCheck(s pointSolver, l powersplit.Layout, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
-	var st powersplit.State
+func (f *File) shiftCheck(s pointSolver, l powersplit.Layout, lim unitLimits, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
+	st := powersplit.State{Brief: true}
 	out := make([]powersplit.OutputDemand, 1)
 	worst, at := 0.0, ""
 	for i := 0; i+1 < l.Ranges(); i++ {
@@ -578,8 +643,8 @@ func (f *File) shiftCheck(s pointSolver, l powersplit.Layout, names []string, iv
 			const n = 40
 			for k := range n + 1 {
 				v := units.Speed(lo + (hi-lo)*float64(k)/n)
-				_, _, ra, okA := f.unitState(s, &st, out, i, w, v)
-				_, _, rb, okB := f.unitState(s, &st, out, i+1, w, v)
+				_, _, ra, okA := f.unitState(s, &st, out, lim, i, w, v)
+				_, _, rb, okB := f.unitState(s, &st, out, lim, i+1, w, v)
 				if !okA || !okB || math.Max(math.Abs(ra), math.Abs(rb)) == 0 {
 					continue
 				}

@@ -7,6 +7,9 @@ import (
 	"strings"
 	"testing"
 
+	"pgregory.net/rapid"
+
+	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/units"
 )
 
@@ -118,4 +121,113 @@ func TestReverseSpeed(t *testing.T) {
 			t.Errorf("reverse %.3g km/h (reach %.3g): met %v margin %.4g; want %v, %.4g", c.want.KMH(), reach, got.Met, got.Margin, c.met, reach/c.want.KMH()-1)
 		}
 	}
+}
+
+// TestUnitSpeedsTypedAsMargins (property): what the checks read from a
+// Brief State's loops (unitLimits.speeds: each unit's speed against the
+// rated speed of the loop's spec, the variator's ratio) and what Score
+// reads (the high-line pressure) is what the solver's margins of the same
+// point say, found here by their names: "pump speed" and "motor 1 speed"
+// against their "maximum speed", and the greatest pressure. A margin
+// renamed, or a limit read from somewhere else, fails here instead of
+// silently changing a check.
+func TestUnitSpeedsTypedAsMargins(t *testing.T) {
+	t.Parallel()
+	f := demoFile(t)
+	s := demoSpace()
+	draws, compared := 0, 0
+	defer func() {
+		if 2*compared < draws {
+			t.Errorf("compared %d points in %d draws, want at least half", compared, draws)
+		}
+	}()
+	rapid.Check(t, func(t *rapid.T) {
+		draws++
+		tr := f.Transmission
+		switch k := rapid.IntRange(0, 3).Draw(t, "design"); k {
+		case 0:
+			g, err := f.Apply(s, Candidate(s, 1, rapid.IntRange(0, 5000).Draw(t, "candidate")))
+			if err != nil {
+				t.Fatal(err)
+			}
+			tr = g.Transmission
+		case 2, 3:
+			tr = f.Alternatives[k-2]
+		}
+		l, loop, err := tr.built()
+		if err != nil {
+			t.Skip("does not build:", err)
+		}
+		lim := limitsOf(loop)
+		sv := powersplit.NewSolver(l)
+		rg := rapid.IntRange(0, l.Ranges()-1).Draw(t, "range")
+		w := units.RPM(rapid.Float64Range(900, 2300).Draw(t, "engine rpm"))
+		ivs, err := sv.Interval(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{}}})
+		if err != nil {
+			t.Skip("range reaches no speed:", err)
+		}
+		iv := ivs[rapid.IntRange(0, len(ivs)-1).Draw(t, "interval")]
+		at := rapid.Float64Range(0, 1).Draw(t, "place in the interval")
+		p := powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{
+			Speed:  iv.Lo + units.AngularVelocity(at)*(iv.Hi-iv.Lo),
+			Torque: units.Torque(rapid.Float64Range(0, 3000).Draw(t, "output torque N·m")),
+		}}}
+		var full powersplit.State
+		brief := powersplit.State{Brief: true}
+		errFull, errBrief := sv.Solve(p, &full), sv.Solve(p, &brief)
+		if (errFull == nil) != (errBrief == nil) {
+			t.Fatalf("full state: %v; brief state: %v", errFull, errBrief)
+		}
+		if errFull != nil {
+			t.Skip("point not feasible:", errFull)
+		}
+		worst, unit, ratio := lim.speeds(&brief)
+		if w2, u2, r2 := lim.speeds(&full); w2 != worst || u2 != unit || r2 != ratio {
+			t.Fatalf("speeds: brief state %g, unit %d, ratio %g; full state %g, %d, %g", worst, unit, ratio, w2, u2, r2)
+		}
+		// The margins, by name.
+		byName := map[string]powersplit.Margin{}
+		mWorst, mPeak := 0.0, 0.0
+		for _, m := range full.Margins {
+			switch m.Value.Kind {
+			case units.AngularVelocityKind:
+				if m.Bound == "maximum speed" {
+					byName[m.Quantity] = m
+				}
+				if !m.Unchecked && m.Limit.SI > 0 {
+					mWorst = math.Max(mWorst, m.Value.SI/m.Limit.SI)
+				}
+			case units.PressureKind:
+				mPeak = math.Max(mPeak, m.Value.SI)
+			}
+		}
+		lp := brief.Loops[0]
+		for k, c := range []struct {
+			name string
+			w    units.AngularVelocity
+		}{{"pump speed", lp.Pump.Speed}, {"motor 1 speed", lp.Motors[0].Speed}} {
+			m, ok := byName[c.name]
+			if !ok {
+				t.Fatalf("no margin %q against the maximum speed among %v", c.name, full.Margins)
+			}
+			if m.Value.SI != math.Abs(float64(c.w)) || m.Limit.SI != lim[k] || m.Unchecked != (lim[k] == 0) {
+				t.Fatalf("%s: margin %v (limit %g, unchecked %v); the loop's state says %g against %g", c.name, m, m.Limit.SI, m.Unchecked, math.Abs(float64(c.w)), lim[k])
+			}
+		}
+		if len(byName) != len(lim) {
+			t.Fatalf("%d unit-speed margins, %d units in the loop's spec", len(byName), len(lim))
+		}
+		if mWorst != worst {
+			t.Fatalf("worst unit speed %.17g of its limit from the loop's state, %.17g from the margins", worst, mWorst)
+		}
+		if pump := byName["pump speed"].Value.SI; pump > 0 {
+			if want := byName["motor 1 speed"].Value.SI / pump; ratio != want {
+				t.Fatalf("variator ratio %.17g from the loop's state, %.17g from the margins", ratio, want)
+			}
+		}
+		if float64(lp.High) != mPeak {
+			t.Fatalf("high-line pressure %v from the loop's state, greatest pressure margin %g Pa", lp.High, mPeak)
+		}
+		compared++
+	})
 }

@@ -116,7 +116,7 @@ func (f *File) SplitProblem(s Space, req *Requirements) (Problem, error) {
 func (f *File) Score(req *Requirements, spec []SpectrumPoint) ([]float64, string) {
 	t := f.Transmission
 	// The layout, vehicle and solver serve the check and the spectrum.
-	l, err := t.Layout()
+	l, loop, err := t.built()
 	if err != nil {
 		return nil, firstLine(err)
 	}
@@ -126,7 +126,7 @@ func (f *File) Score(req *Requirements, spec []SpectrumPoint) ([]float64, string
 	}
 	solver := solverOf(v, l)
 	if req != nil {
-		rep, err := f.check(t, l, v, solver, req)
+		rep, err := f.check(t, l, limitsOf(loop), v, solver, req)
 		if err != nil {
 			return nil, firstLine(err)
 		}
@@ -134,7 +134,7 @@ func (f *File) Score(req *Requirements, spec []SpectrumPoint) ([]float64, string
 			return nil, strings.Join(rep.Failed(), "; ")
 		}
 	}
-	var st powersplit.State
+	st := powersplit.State{Brief: true} // the loops' pressures are all Score reads
 	var fuel, peak float64
 	for _, p := range spec {
 		pt, err := vehicle.LeastFuel{}.Operate(v, p.Demand)
@@ -150,10 +150,8 @@ func (f *File) Score(req *Requirements, spec []SpectrumPoint) ([]float64, string
 			Outputs: []powersplit.OutputDemand{{Speed: d.OutputSpeed, Torque: d.OutputTorque}}}, &st); err != nil {
 			return nil, p.Name + ": " + firstLine(err)
 		}
-		for _, m := range st.Margins {
-			if m.Value.Kind == units.PressureKind {
-				peak = math.Max(peak, m.Value.SI)
-			}
+		for _, lp := range st.Loops {
+			peak = math.Max(peak, float64(lp.High)) // the high line's absolute pressure, charge + |Δp|
 		}
 	}
 	disp := (float64(t.Pump.Displacement) + float64(t.Motor.Displacement)) / float64(units.CCPerRev(1))

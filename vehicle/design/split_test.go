@@ -1,6 +1,7 @@
 package design
 
 import (
+	"fmt"
 	"math"
 	"path/filepath"
 	"strings"
@@ -84,14 +85,21 @@ func TestReportMarginsAtBinding(t *testing.T) {
 					t.Fatalf("solver at the binding point: %v", err)
 				}
 				worst := 0.0
+				var bind powersplit.Margin
 				for _, m := range st.Margins {
-					if m.Value.Kind == units.AngularVelocityKind && !m.Unchecked && m.Limit.SI > 0 {
-						worst = math.Max(worst, m.Value.SI/m.Limit.SI)
+					if m.Value.Kind == units.AngularVelocityKind && !m.Unchecked && m.Limit.SI > 0 && m.Value.SI/m.Limit.SI > worst {
+						worst, bind = m.Value.SI/m.Limit.SI, m
 					}
 				}
 				speedChecks++
 				if want := 1 - worst - g.Requirements.UnitSpeedMargin; math.Abs(c.Margin-want) > 1e-12 {
 					t.Fatalf("%s: margin %.15g, solver at %+v gives %.15g", c.Name, c.Margin, *b, want)
+				}
+				// The words name the solver's margin.
+				words := fmt.Sprintf(": %s %s %.0f of %.0f rpm", bind.Element, bind.Quantity,
+					units.AngularVelocity(bind.Value.SI).RPM(), units.AngularVelocity(bind.Limit.SI).RPM())
+				if !strings.HasSuffix(c.At, words) {
+					t.Fatalf("%s: at %q, want it to end in the solver's margin %q", c.Name, c.At, words)
 				}
 			case len(g.Requirements.Pulls) > 0 && strings.HasPrefix(c.Name, "pull "):
 				v, err := g.Vehicle(g.Transmission)
