@@ -100,6 +100,7 @@ type unitPlan struct {
 	hr, d53  float64 // hydrodynamic term, when hr > 0
 	t1       float64
 	lossless bool
+	f53      float64 // a torque following the setting, with a hydrodynamic term: D_t^(5/3) at full setting
 	wmax     float64 // the rated maximum speed, +Inf where not rated
 	rated    float64 // the continuous rated pressure, +Inf where not rated
 	low      float64 // the lowest setting of the swing
@@ -166,6 +167,11 @@ func (l *Loop) planCurve() curvePlan {
 				up.hr, up.d53 = m.Hydrodynamic*f.rho, u.d53
 			}
 			up.t1 = m.Friction * dt
+		} else if m.Hydrodynamic > 0 {
+			// Wilson.losses' D_t^(5/3) at |x| = 1, for torqueSlope.
+			dt := u.dmax * (1 - m.TorqueSetting + m.TorqueSetting*1)
+			c := math.Cbrt(dt)
+			up.f53 = dt * c * c
 		}
 		pl.units[i] = up
 	}
@@ -319,7 +325,7 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 				u = &c.l.spec.Motors[i-1]
 			}
 			var ok bool
-			t, sl, tc.cleak, tc.ctau, ok = u.torqueSlope(x, dx, tc.w, q, dq, &c.l.fl)
+			t, sl, tc.cleak, tc.ctau, ok = u.torqueSlope(x, dx, tc.w, q, dq, &c.l.fl, c.l.plan.units[i].f53)
 			if !ok {
 				return false
 			}
@@ -694,31 +700,55 @@ func (c *Curve) fill(dp float64, st *LoopState) error {
 // torqueSlope returns the torque of u at setting x, speed w and pressure
 // q = dq·Δp in its own frame (as eval computes it) and its slope over Δp,
 // given the setting's slope dx, and the leakage and loss torque the loss
-// model gives there.
-func (u *Unit) torqueSlope(x, dx, w, q, dq float64, f *fluid) (t, slope, leak, tau float64, ok bool) {
+// model gives there: Wilson.losses' arithmetic, so its numbers, with
+// D_t^(5/3) at full setting taken from f53 (the unit's unitPlan.f53, the
+// same expression worked out once) and ∛D_t shared with the slope's term.
+func (u *Unit) torqueSlope(x, dx, w, q, dq float64, f *fluid, f53 float64) (t, slope, leak, tau float64, ok bool) {
 	ti := q * x * u.dmax
 	slope = dq*x*u.dmax + q*u.dmax*dx
 	m := u.wil
 	if m == nil {
 		return ti, slope, 0, 0, u.spec.Loss == nil
 	}
-	ls, err := m.losses(x, u.dmax, w, math.Abs(q), f.mu, f.rho, f.beta, u.d53)
-	if err != nil {
+	// Wilson.losses; the checks a Curve's plan and speeds have not made.
+	ax, ap, aw := math.Abs(x), math.Abs(q), math.Abs(w)
+	if !finite(ap) || !(ax <= 1) {
 		return 0, 0, 0, 0, false
 	}
-	leak, tau = float64(ls.Leakage), float64(ls.Torque)
+	dqs := u.dmax * (1 - m.LeakageSetting + m.LeakageSetting*ax)
+	dt := u.dmax * (1 - m.TorqueSetting + m.TorqueSetting*ax)
+	leak = m.Slip * dqs * ap / f.mu
+	if m.Compressibility {
+		leak += (m.DeadVolume + ax) * u.dmax * aw * ap / f.beta
+	}
+	tau = m.Viscous*dt*f.mu*aw + m.Friction*dt*ap + float64(m.ConstantPressure)*dt + float64(m.ConstantTorque)
+	var c float64 // ∛D_t, where worked out
+	if m.Hydrodynamic > 0 {
+		d53 := u.d53
+		if m.TorqueSetting != 0 || !(d53 > 0) {
+			if ax == 1 && f53 > 0 {
+				d53 = f53
+			} else {
+				c = math.Cbrt(dt)
+				d53 = dt * c * c
+			}
+		}
+		tau += m.Hydrodynamic * f.rho * aw * aw * d53
+	}
 	sw := sgn(w)
 	t = ti + sw*tau
 	if sw == 0 {
 		return t, slope, leak, tau, true
 	}
 	// τ = D_t·(Cv·μ·|ω| + Cf·|Δp| + p_c) + Ch·ρ·ω²·D_t^(5/3).
-	dt := u.dmax * (1 - m.TorqueSetting + m.TorqueSetting*math.Abs(x))
 	slope += sw * dt * m.Friction * sgn(q) * dq
 	if m.TorqueSetting != 0 && dx != 0 {
-		dtau := m.Viscous*f.mu*math.Abs(w) + m.Friction*math.Abs(q) + float64(m.ConstantPressure)
+		dtau := m.Viscous*f.mu*aw + m.Friction*ap + float64(m.ConstantPressure)
 		if m.Hydrodynamic > 0 {
-			dtau += m.Hydrodynamic * f.rho * w * w * 5.0 / 3 * math.Cbrt(dt*dt)
+			if c == 0 {
+				c = math.Cbrt(dt)
+			}
+			dtau += m.Hydrodynamic * f.rho * w * w * 5.0 / 3 * (c * c) // ∛D_t²
 		}
 		slope += sw * dtau * u.dmax * m.TorqueSetting * sgn(x) * dx
 	}
