@@ -56,7 +56,7 @@ type Curve struct {
 	tau        []curveTorque // per unit, pump first
 	fixed      bool          // every unit's torque is fixed (curveTorque.fixed): Fill from the terms
 	swing      bool          // no leakage grows with the pump's setting (bp zero): pumpSwings serves
-	quick      bool          // swing and fixed: torquesQuick serves
+	quick      bool          // swing and fixed: Torques takes the short way
 	limit      setLimit      // the setting limit of the last Torques, if hit
 	cached     bool          // the last Torques kept its units' losses (curveTorque.cx) at cdp
 	cdp        float64
@@ -207,7 +207,7 @@ func (up *unitPlan) torque(ct *curveTorque, w float64) {
 // whether the loop can be seen as a Curve (see the type). c's storage is
 // reused; it does not allocate once c has held a loop with as many motors.
 func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.AngularVelocity, c *Curve) bool {
-	c.ok = false
+	c.ok, c.cached = false, false
 	pl := &l.plan
 	n := len(l.spec.Motors)
 	if !pl.ok || len(motorSpeeds) != n {
@@ -255,7 +255,7 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
 	u0.torque(&c.tau[0], wp)
 	c.tau[0].la, c.tau[0].lb = ap, bp
-	c.fixed, c.cached = fixed, false
+	c.fixed = fixed
 	c.swing = bp == 0
 	c.quick = c.swing && fixed
 	c.ok = true
@@ -293,7 +293,28 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 	c.limit.hit = false
 	if c.quick {
 		if xp, ok := c.pumpSwings(d); ok {
-			c.torquesQuick(d, xp, settings, torques, slopes)
+			// The pump swings with the motors full and every unit's torque
+			// is fixed: the arithmetic below, the motors' setting held at 1.
+			settings[0] = xp
+			for i := 1; i < len(settings); i++ {
+				settings[i] = 1
+			}
+			tau := c.tau
+			torques, slopes = torques[:len(tau)], slopes[:len(tau)]
+			// The pump: x = xp, q = Δp.
+			tc := &tau[0]
+			dm := tc.dmax
+			dxp := (c.ap + c.am + c.bm) * c.invQ // settingSlopes' with bp zero
+			torques[0] = units.Torque(d*xp*dm + tc.sw*(tc.t0+tc.t1*math.Abs(d)))
+			slopes[0] = units.Displacement(1*xp*dm + d*dm*dxp + tc.sw*tc.t1*sgn(d)*1)
+			// The motors: x = 1 held, q = −Δp.
+			q := -d
+			for i := 1; i < len(tau); i++ {
+				tc := &tau[i]
+				dm := tc.dmax
+				torques[i] = units.Torque(q*1*dm + tc.sw*(tc.t0+tc.t1*math.Abs(q)))
+				slopes[i] = units.Displacement(-1*1*dm + q*dm*0 + tc.sw*tc.t1*sgn(q)*-1)
+			}
 			return true
 		}
 	}
@@ -351,31 +372,6 @@ func (c *Curve) pumpSwings(dp float64) (xp float64, ok bool) {
 	k := -sig*ap - c.motorQ - sig*(am+bm)
 	xp = -k * c.invQ
 	return xp, math.Abs(xp) <= 1
-}
-
-// torquesQuick is Torques where the pump swings at xp with the motors full
-// and every unit's torque is fixed: the same arithmetic.
-func (c *Curve) torquesQuick(d, xp float64, settings []float64, torques []units.Torque, slopes []units.Displacement) {
-	settings[0] = xp
-	for i := 1; i < len(settings); i++ {
-		settings[i] = 1
-	}
-	tau := c.tau
-	torques, slopes = torques[:len(tau)], slopes[:len(tau)]
-	// The pump: x = xp, q = Δp.
-	tc := &tau[0]
-	dm := tc.dmax
-	torques[0] = units.Torque(d*xp*dm + tc.sw*(tc.t0+tc.t1*math.Abs(d)))
-	dxp := (c.ap + c.am + c.bm) * c.invQ // settingSlopes' with bp zero
-	slopes[0] = units.Displacement(1*xp*dm + d*dm*dxp + tc.sw*tc.t1*sgn(d)*1)
-	// The motors: x = 1 held, q = −Δp.
-	q := -d
-	for i := 1; i < len(tau); i++ {
-		tc := &tau[i]
-		dm := tc.dmax
-		torques[i] = units.Torque(q*1*dm + tc.sw*(tc.t0+tc.t1*math.Abs(q)))
-		slopes[i] = units.Displacement(-1*1*dm + q*dm*0 + tc.sw*tc.t1*sgn(q)*-1)
-	}
 }
 
 // settingSlopes returns the slopes over Δp of the settings sequential gave

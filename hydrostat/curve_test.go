@@ -432,7 +432,8 @@ func TestCurveFillLimits(t *testing.T) {
 // TestCurveQuick: over random loops of lossless and Wilson units (every
 // coefficient drawn), speeds and pressures, Torques and Leakage give the
 // same numbers bit for bit whether they take the short way for a pump that
-// swings (torquesQuick, pumpSwings) or sequential and settingSlopes.
+// swings (pumpSwings, the torques written in place) or sequential and
+// settingSlopes.
 func TestCurveQuick(t *testing.T) {
 	t.Parallel()
 	quick := 0
