@@ -275,6 +275,7 @@ func (f *File) check(t Transmission, l powersplit.Layout, lim unitLimits, v *veh
 		return rep, nil
 	}
 	add := func(c Check) { rep.Checks = append(rep.Checks, c) }
+	st := powersplit.State{Brief: true} // the checks' points, one after another
 
 	if req.Standstill {
 		c := Check{Name: "forward speeds start at standstill", Met: rep.Standstill, Got: "not reached"}
@@ -378,7 +379,7 @@ func (f *File) check(t Transmission, l powersplit.Layout, lim unitLimits, v *veh
 		add(c)
 	}
 	if req.UnitSpeedMargin > 0 {
-		add(f.unitSpeedCheck(s, l, lim, rep.Intervals, rated, req))
+		add(f.unitSpeedCheck(s, l, lim, &st, rep.Intervals, rated, req))
 	}
 	if req.PressureMargin > 0 {
 		limit := math.Inf(1)
@@ -404,10 +405,10 @@ func (f *File) check(t Transmission, l powersplit.Layout, lim unitLimits, v *veh
 		add(c)
 	}
 	if req.ShiftTolerance > 0 && l.Ranges() > 1 {
-		add(f.shiftCheck(s, l, lim, names, rep.Intervals, rated, req.ShiftTolerance))
+		add(f.shiftCheck(s, l, lim, &st, names, rep.Intervals, rated, req.ShiftTolerance))
 	}
 	if req.CornerPower > 0 {
-		corner := f.cornerPower(s, t, first, rated)
+		corner := f.cornerPower(s, t, &st, first, rated)
 		ratio := float64(corner) / float64(eng.RatedPower())
 		add(Check{Name: fmt.Sprintf("hydrostat corner power at most %.0f %% of engine power", 100*req.CornerPower),
 			Met: ratio <= req.CornerPower, Margin: 1 - ratio/req.CornerPower,
@@ -444,23 +445,23 @@ func (f *File) firstSurface(kind string) string {
 
 // cornerPower is the relief pressure times the pump's full flow at engine
 // speed w: the greatest power the loop could carry. first holds each
-// range's first interval of output speeds at w.
-func (f *File) cornerPower(s pointSolver, t Transmission, first []reach, w units.AngularVelocity) units.Power {
-	pump := f.pumpSpeed(s, first, w)
+// range's first interval of output speeds at w; st is the State to
+// solve into (Brief).
+func (f *File) cornerPower(s pointSolver, t Transmission, st *powersplit.State, first []reach, w units.AngularVelocity) units.Power {
+	pump := f.pumpSpeed(s, st, first, w)
 	return units.Power(float64(t.Relief) * float64(t.Pump.Displacement) * float64(pump))
 }
 
 // pumpSpeed is the pump's speed at engine speed w, from a point solved in
 // the middle of the first interval of the first range that reaches one
-// (first holds them, by range).
-func (f *File) pumpSpeed(s pointSolver, first []reach, w units.AngularVelocity) units.AngularVelocity {
-	st := powersplit.State{Brief: true}
+// (first holds them, by range), solved into st (Brief will do).
+func (f *File) pumpSpeed(s pointSolver, st *powersplit.State, first []reach, w units.AngularVelocity) units.AngularVelocity {
 	for rg, r := range first {
 		if !r.ok {
 			continue
 		}
 		mid := (r.iv.Lo + r.iv.Hi) / 2
-		if err := s.Solve(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{Speed: mid}}}, &st); err != nil {
+		if err := s.Solve(powersplit.Point{Range: rg, Input: w, Outputs: []powersplit.OutputDemand{{Speed: mid}}}, st); err != nil {
 			continue
 		}
 		if len(st.Loops) > 0 {
@@ -535,9 +536,9 @@ func (f *File) unitState(s pointSolver, st *powersplit.State, out []powersplit.O
 // unitSpeedCheck finds, at each forward speed up to the top speed, the
 // range that keeps the units furthest below their greatest speeds, and
 // reports the speed where even that range comes closest, with the
-// solver's own margin of the binding unit at that point.
-func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, lim unitLimits, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
-	st := powersplit.State{Brief: true}
+// solver's own margin of the binding unit at that point. Its points are
+// solved into st (Brief will do).
+func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, lim unitLimits, st *powersplit.State, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
 	out := make([]powersplit.OutputDemand, 1)
 	top := req.TopSpeed
 	if top == 0 {
@@ -567,7 +568,7 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, lim unitLimits
 		}
 		best, bestRange, bestUnit := math.Inf(1), 0, 0
 		for rg := range l.Ranges() {
-			r, u, _, ok := f.unitState(s, &st, out, lim, rg, w, v)
+			r, u, _, ok := f.unitState(s, st, out, lim, rg, w, v)
 			if ok && r < best {
 				best, bestRange, bestUnit = r, rg, u
 			}
@@ -619,9 +620,9 @@ func (f *File) speedMargin(s pointSolver, lim unitLimits, b Binding, unit int) s
 
 // shiftCheck compares the variator's speed ratio (motor over pump) in the
 // two ranges of each range change, at the common travel speed where they
-// come closest: a synchronous change needs no jump of the variator.
-func (f *File) shiftCheck(s pointSolver, l powersplit.Layout, lim unitLimits, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
-	st := powersplit.State{Brief: true}
+// come closest: a synchronous change needs no jump of the variator. Its
+// points are solved into st (Brief will do).
+func (f *File) shiftCheck(s pointSolver, l powersplit.Layout, lim unitLimits, st *powersplit.State, names []string, ivs []Interval, w units.AngularVelocity, tol float64) Check {
 	out := make([]powersplit.OutputDemand, 1)
 	worst, at := 0.0, ""
 	for i := 0; i+1 < l.Ranges(); i++ {
@@ -643,8 +644,8 @@ func (f *File) shiftCheck(s pointSolver, l powersplit.Layout, lim unitLimits, na
 			const n = 40
 			for k := range n + 1 {
 				v := units.Speed(lo + (hi-lo)*float64(k)/n)
-				_, _, ra, okA := f.unitState(s, &st, out, lim, i, w, v)
-				_, _, rb, okB := f.unitState(s, &st, out, lim, i+1, w, v)
+				_, _, ra, okA := f.unitState(s, st, out, lim, i, w, v)
+				_, _, rb, okB := f.unitState(s, st, out, lim, i+1, w, v)
 				if !okA || !okB || math.Max(math.Abs(ra), math.Abs(rb)) == 0 {
 					continue
 				}

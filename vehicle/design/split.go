@@ -7,7 +7,6 @@ import (
 	"strconv"
 	"strings"
 
-	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/units"
 	"github.com/powersplit-dev/powersplit/vehicle"
 )
@@ -134,7 +133,6 @@ func (f *File) Score(req *Requirements, spec []SpectrumPoint) ([]float64, string
 			return nil, strings.Join(rep.Failed(), "; ")
 		}
 	}
-	st := powersplit.State{Brief: true} // the loops' pressures are all Score reads
 	var fuel, peak float64
 	for _, p := range spec {
 		pt, err := vehicle.LeastFuel{}.Operate(v, p.Demand)
@@ -145,14 +143,9 @@ func (f *File) Score(req *Requirements, spec []SpectrumPoint) ([]float64, string
 		if pt.Range < 0 {
 			continue
 		}
-		d := pt.Drive
-		if err := solver.Solve(powersplit.Point{Range: pt.Range, Input: pt.EngineSpeed,
-			Outputs: []powersplit.OutputDemand{{Speed: d.OutputSpeed, Torque: d.OutputTorque}}}, &st); err != nil {
-			return nil, p.Name + ": " + firstLine(err)
-		}
-		for _, lp := range st.Loops {
-			peak = math.Max(peak, float64(lp.High)) // the high line's absolute pressure, charge + |Δp|
-		}
+		// The high line's absolute pressure, charge + |Δp|, as the vehicle
+		// solved the point (its front motor taking its share, if any).
+		peak = math.Max(peak, float64(pt.Drive.Hydrostat.HighPressure))
 	}
 	disp := (float64(t.Pump.Displacement) + float64(t.Motor.Displacement)) / float64(units.CCPerRev(1))
 	return []float64{fuel, disp, units.Pressure(peak).Bar()}, ""

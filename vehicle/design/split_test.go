@@ -14,6 +14,7 @@ import (
 	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/internal/solvepath"
 	"github.com/powersplit-dev/powersplit/units"
+	"github.com/powersplit-dev/powersplit/vehicle"
 )
 
 // demoSpace is a three-range input-coupled split around the test file's
@@ -191,5 +192,76 @@ func BenchmarkCandidate(b *testing.B) {
 			}
 			b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "candidates/s")
 		})
+	}
+}
+
+// TestScoreFrontMotor: with a front motor, Score's peak pressure is the
+// high line's at the least-fuel points as the vehicle runs them, the front
+// motor taking its share: the greatest pressure margin of the front
+// layout's full State solved again at each point (with the front setting
+// and speed the vehicle chose). Solving them on the rear-only layout, with
+// the whole torque on the rear motor, is not the same machine (it found
+// the test design's ploughing beyond the relief valve).
+func TestScoreFrontMotor(t *testing.T) {
+	t.Parallel()
+	f := parsed(t)
+	f.Tractor.FrontMotor = frontMotor()
+	cycle, err := f.Cycle()
+	if err != nil {
+		t.Fatal(err)
+	}
+	spec, err := Spectrum(cycle)
+	if err != nil {
+		t.Fatal(err)
+	}
+	obj, why := f.Score(nil, spec)
+	if why != "" {
+		t.Fatalf("Score = %q, want a score", why)
+	}
+	v, err := f.Vehicle(f.Transmission)
+	if err != nil {
+		t.Fatal(err)
+	}
+	l, err := f.FrontLayout(f.Transmission)
+	if err != nil {
+		t.Fatal(err)
+	}
+	info, _ := l.SecondMotor()
+	sv := powersplit.NewSolver(l)
+	var st powersplit.State
+	peak, points := 0.0, 0
+	for _, p := range spec {
+		pt, err := vehicle.LeastFuel{}.Operate(v, p.Demand)
+		if err != nil {
+			t.Fatalf("%s: %v", p.Name, err)
+		}
+		if pt.Range < 0 {
+			continue
+		}
+		d := pt.Drive
+		q := powersplit.Point{Range: pt.Range, Input: pt.EngineSpeed, Outputs: []powersplit.OutputDemand{
+			{Speed: d.OutputSpeed, Torque: d.OutputTorque}, {Speed: d.FrontSpeed}}}
+		if !d.Declutched {
+			q.Settings = []powersplit.MotorSetting{{Loop: info.Loop, Motor: info.Motor, Setting: d.FrontSetting}}
+		}
+		if err := sv.Solve(q, &st); err != nil {
+			t.Fatalf("%s: front layout at the least-fuel point: %v", p.Name, err)
+		}
+		for _, m := range st.Margins {
+			if m.Value.Kind == units.PressureKind {
+				peak = math.Max(peak, m.Value.SI)
+			}
+		}
+		points++
+	}
+	if points == 0 {
+		t.Fatal("no spectrum point drives")
+	}
+	// Solved again by another solver: equal to rounding.
+	if got := obj[2]; math.Abs(got-units.Pressure(peak).Bar()) > 1e-9*got {
+		t.Errorf("Score peak %.12g bar, the front layout's points give %.12g bar", got, units.Pressure(peak).Bar())
+	}
+	if relief := f.Transmission.Relief.Bar(); !(obj[2] <= relief) {
+		t.Errorf("Score peak %g bar above the relief %g bar at feasible points", obj[2], relief)
 	}
 }
