@@ -106,6 +106,15 @@ func Classify(err error) string {
 // spec.Resolution, with the limit that binds. Points are ordered by range,
 // then speed.
 func TractiveEffort(v *vehicle.Vehicle, spec EffortSpec) ([]EffortPoint, error) {
+	return tractiveEffort(v, spec, false)
+}
+
+// tractiveEffort is TractiveEffort. With greatest set, only the point of
+// greatest pull at each speed (the last range's of equal pulls) is
+// exact: a range's bisection stops once its pull cannot exceed the
+// greatest an earlier range reached at that speed, and its point then
+// holds a pull below that one.
+func tractiveEffort(v *vehicle.Vehicle, spec EffortSpec, greatest bool) ([]EffortPoint, error) {
 	if spec.EngineSpeed == 0 {
 		spec.EngineSpeed = v.Engine().Rated()
 	}
@@ -127,12 +136,24 @@ func TractiveEffort(v *vehicle.Vehicle, spec EffortSpec) ([]EffortPoint, error) 
 	top := units.Force(2 * float64(v.Spec().Mass) * float64(units.Gravity)) // beyond any tyre's pull
 	ranges := v.Spec().Transmission.Ranges()
 	out := make([]EffortPoint, 0, ranges*len(spec.Speeds))
+	var best []units.Force // with greatest: the greatest pull so far at each speed
+	if greatest {
+		best = make([]units.Force, len(spec.Speeds))
+	}
 	for rg := range ranges {
-		for _, s := range spec.Speeds {
+		for i, s := range spec.Speeds {
 			if !(s > 0) || math.IsInf(float64(s), 0) {
 				return nil, fmt.Errorf("%w: EffortSpec.Speeds: %v", ErrValue, s)
 			}
-			out = append(out, greatestPull(v, spec, rg, s, top))
+			var beat units.Force
+			if greatest {
+				beat = best[i]
+			}
+			pt := greatestPull(v, spec, rg, s, top, beat)
+			out = append(out, pt)
+			if greatest && pt.Feasible && pt.Pull >= best[i] {
+				best[i] = pt.Pull
+			}
 		}
 	}
 	return out, nil
@@ -143,8 +164,9 @@ func TractiveEffort(v *vehicle.Vehicle, spec EffortSpec) ([]EffortPoint, error) 
 var errSlip = fmt.Errorf("%w: slip above the greatest counted", vehicle.ErrTraction)
 
 // greatestPull bisects on the draft between a feasible and an infeasible
-// pull.
-func greatestPull(v *vehicle.Vehicle, spec EffortSpec, rg int, s units.Speed, top units.Force) EffortPoint {
+// pull. It stops early once the infeasible pull is at or below beat (0:
+// never): the point's pull is then below beat, but not the greatest.
+func greatestPull(v *vehicle.Vehicle, spec EffortSpec, rg int, s units.Speed, top, beat units.Force) EffortPoint {
 	try := func(draft units.Force) (vehicle.Point, error) {
 		p, err := v.At(vehicle.Demand{Speed: s, Draft: draft, Ground: spec.Ground}, spec.EngineSpeed, rg)
 		if err == nil && p.Slip > spec.MaxSlip {
@@ -167,7 +189,7 @@ func greatestPull(v *vehicle.Vehicle, spec EffortSpec, rg int, s units.Speed, to
 	} else {
 		pt.Limit = Classify(err)
 	}
-	for hi-lo > spec.Resolution {
+	for hi-lo > spec.Resolution && hi > beat {
 		mid := (lo + hi) / 2
 		q, err := try(mid)
 		if err == nil {

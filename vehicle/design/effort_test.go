@@ -6,6 +6,8 @@ import (
 	"strings"
 	"testing"
 
+	"pgregory.net/rapid"
+
 	"github.com/powersplit-dev/powersplit"
 	"github.com/powersplit-dev/powersplit/hydrostat"
 	"github.com/powersplit-dev/powersplit/units"
@@ -156,5 +158,69 @@ func TestTractiveEffortHand(t *testing.T) {
 	}
 	if lines := strings.Count(buf.String(), "\n"); lines != len(pts)+1 {
 		t.Errorf("CSV has %d lines, want %d", lines, len(pts)+1)
+	}
+}
+
+// TestGreatestPullOnly (property): the pull check's diagram, which stops
+// bisecting a range once it cannot beat an earlier range, gives at every
+// speed the same point of greatest pull (the last range's of equal pulls)
+// as the full diagram, and no other point above it.
+func TestGreatestPullOnly(t *testing.T) {
+	t.Parallel()
+	f := demoFile(t)
+	s := demoSpace()
+	pick := func(pts []EffortPoint, n, i int) (EffortPoint, bool) {
+		var best EffortPoint
+		found := false
+		for rg := range len(pts) / n {
+			if q := pts[rg*n+i]; q.Feasible && q.Pull >= best.Pull {
+				best, found = q, true
+			}
+		}
+		return best, found
+	}
+	drawn, compared := 0, 0
+	rapid.Check(t, func(t *rapid.T) {
+		g, err := f.Apply(s, Candidate(s, 2, rapid.IntRange(0, 5000).Draw(t, "candidate")))
+		if err != nil {
+			t.Fatal(err)
+		}
+		v, err := g.Vehicle(g.Transmission)
+		if err != nil {
+			t.Skip("does not build:", err)
+		}
+		ground, err := g.Ground(g.firstSurface("field"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		speeds := []units.Speed{units.KMH(rapid.Float64Range(1, 20).Draw(t, "speed 1 km/h")), units.KMH(rapid.Float64Range(1, 40).Draw(t, "speed 2 km/h"))}
+		spec := EffortSpec{Speeds: speeds, Ground: ground}
+		all, err := TractiveEffort(v, spec)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fast, err := tractiveEffort(v, spec, true)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for i := range speeds {
+			drawn++
+			want, ok := pick(all, len(speeds), i)
+			got, _ := pick(fast, len(speeds), i)
+			if got != want {
+				t.Fatalf("at %v: greatest pull %+v, the full diagram's %+v", speeds[i], got, want)
+			}
+			for rg := range len(all) / len(speeds) {
+				if q := fast[rg*len(speeds)+i]; q.Pull > all[rg*len(speeds)+i].Pull {
+					t.Fatalf("range %d at %v: pull %v above the full diagram's %v", rg, speeds[i], q.Pull, all[rg*len(speeds)+i].Pull)
+				}
+			}
+			if ok {
+				compared++
+			}
+		}
+	})
+	if 2*compared < drawn {
+		t.Errorf("%d of %d speeds had a feasible range to compare, want at least half", compared, drawn)
 	}
 }

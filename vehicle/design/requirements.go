@@ -348,7 +348,9 @@ func (f *File) check(t Transmission, l powersplit.Layout, lim unitLimits, v *veh
 		if err != nil {
 			return rep, f.fieldError(fmt.Sprintf("requirements.pulls[%d].surface", i), err)
 		}
-		pts, err := TractiveEffort(v, EffortSpec{Speeds: []units.Speed{p.Speed}, Ground: ground})
+		// Only the greatest pull over the ranges is read: tractiveEffort
+		// need not finish the ranges that cannot reach it.
+		pts, err := tractiveEffort(v, EffortSpec{Speeds: []units.Speed{p.Speed}, Ground: ground}, true)
 		if err != nil {
 			return rep, err
 		}

@@ -166,7 +166,8 @@ func TestSplitSearchDeterministic(t *testing.T) {
 }
 
 // BenchmarkCandidate measures candidate evaluations per second of the
-// three-range split problem (requirements check and duty spectrum).
+// three-range split problem (requirements check and duty spectrum), the
+// candidates drawn as Explore.Run draws them (one Sampler).
 //
 // "general" evaluates the same candidates with the layouts solved on the
 // general path only (the solver before its compiled path).
@@ -184,10 +185,12 @@ func BenchmarkCandidate(b *testing.B) {
 			if err != nil {
 				b.Fatal(err)
 			}
+			sampler := NewSampler(p.Space.Free(), 1)
+			u := make([]float64, p.Space.Free())
 			b.ReportAllocs()
 			i := 0
 			for b.Loop() {
-				p.Evaluate(Candidate(p.Space, 1, i))
+				p.Evaluate(p.Space.At(sampler.Point(i, u)))
 				i++
 			}
 			b.ReportMetric(float64(b.N)/b.Elapsed().Seconds(), "candidates/s")
