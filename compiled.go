@@ -55,8 +55,9 @@ import (
 // loop's setting limit as the error; a point beyond the relief as well is
 // left to the general path, which says which limit it crosses (it may find
 // no balance below the relief at all). Everywhere else the compiled path
-// gives up and the general path solves the point: several loops, held
-// motor settings, a loop the hydrostat cannot see as a Curve or a pump
+// gives up and the general path solves the point: several loops, a loop
+// the hydrostat cannot see as a Curve (a schedule other than Sequential or
+// Pinned, held motors included; a locked range's destroked loop) or a pump
 // near standstill, a Newton iterate held at 1.5 times the relief,
 // Newton's method not settling, directions that oscillate, a key port's
 // torque below 1e-12 of the largest, any other crossed limit, or a power

@@ -360,3 +360,40 @@ func TestPropertyCompiledHistoryFree(t *testing.T) {
 		}
 	})
 }
+
+// TestPropertyCompiledMatchesGeneralFront: splits with a second motor
+// driving an axle of its own (genFront: its setting held at the point, set
+// by a curve of the first output's speed, or declutched in the "single"
+// ranges), so the loop runs its Pinned schedule: the compiled path and the
+// general path give the same errors and the same numbers to 1e-12, and
+// most such points take the compiled path.
+func TestPropertyCompiledMatchesGeneralFront(t *testing.T) {
+	t.Parallel()
+	compiled, points := 0, 0
+	defer func() {
+		t.Logf("%d of %d points solved on the compiled path", compiled, points)
+		if points > 10 && compiled < points/2 {
+			t.Errorf("only %d of %d points took the compiled path", compiled, points)
+		}
+	}()
+	rapid.Check(t, func(t *rapid.T) {
+		kind, l, p := genFront(t)
+		gen, fast := NewSolver(l), NewSolver(l)
+		gen.general = true
+		var a, b State
+		ea, eb := fast.Solve(p, &a), gen.Solve(p, &b)
+		points++
+		if fast.comp.hits > 0 {
+			compiled++
+		}
+		if !sameError(ea, eb) && !foundBalance(ea, eb, &a, l) {
+			t.Fatalf("%s: compiled: %v; general: %v", kind, ea, eb)
+		}
+		if ea != nil {
+			return
+		}
+		if d := summaryDiff(&a, &b, 1e-12); d != "" {
+			t.Fatalf("%s: compiled %s", kind, d)
+		}
+	})
+}

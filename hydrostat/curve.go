@@ -13,9 +13,11 @@ import (
 // layout solver with one loop reduces a point to one scalar equation in Δp
 // and solves it by Newton's method with these slopes.
 //
-// A Curve serves loops whose schedule is Sequential and whose units are
-// lossless or follow the Wilson model (leakage affine in |x|, loss torque
-// affine in |Δp|); Loop.Curve reports false for any other loop, and
+// A Curve serves loops whose schedule is Sequential, or Pinned (some
+// motors held at settings of their own, read when the Curve is prepared),
+// and whose units are lossless or follow the Wilson model (leakage affine
+// in |x|, loss torque affine in |Δp|); Loop.Curve reports false for any
+// other loop, and
 // Curve.Torques reports false wherever the schedule leaves its range
 // (a setting limit) or cannot decide: the caller then takes its general
 // path. The settings and torques are those of Loop.At to rounding: the
@@ -24,13 +26,17 @@ import (
 // the Wilson loss torque, affine in |Δp| at a fixed torque displacement,
 // kept as its two coefficients (TestCurveMatchesAt).
 //
-// With the motors at the common setting s and the pump at x, the flow
-// balance r(x, s) = 0 of the linear balance (see the schedules) has every
-// leakage term proportional to |Δp|, σ·a = α·Δp, σ·b = β·Δp, so the pump
-// branch (s = 1) and the motor branch (x = ±1) give
+// With the free motors at the common setting s and the pump at x, the
+// flow balance r(x, s) = 0 of the linear balance (see the schedules) has
+// every leakage term proportional to |Δp|, σ·a = α·Δp, σ·b = β·Δp, so the
+// pump branch (s = 1) and the motor branch (x = ±1) give
 //
-//	∂x/∂Δp = (αp + βp·|x| + αm + βm) / (Dp·ωp − βp·Δp·sgn x)
-//	∂s/∂Δp = −(αp + βp·|x| + αm + βm·|s|) / (Σ Dm·ωm + βm·Δp·sgn s)
+//	∂x/∂Δp = (αp + βp·|x| + αm + βm + αh) / (Dp·ωp − βp·Δp·sgn x)
+//	∂s/∂Δp = −(αp + βp·|x| + αm + αh + βm·|s|) / (Σ Dm·ωm + βm·Δp·sgn s)
+//
+// with αm, βm and Σ Dm·ωm over the free motors, and αh = Σ (a + b·|x_h|)
+// over the held ones, whose flow Σ Dm·ωm·x_h is a constant of the balance;
+// with every motor held the pump alone meets the flow.
 //
 // and each unit's torque T = q·x·D + sgn(ω)·τ(|x|, |Δp|), q = Δp for the
 // pump and −Δp for a motor, has the slope
@@ -52,7 +58,11 @@ type Curve struct {
 	// product with the inverse is off the step's chain of divisions.
 	invQ, invM float64
 	ap, bp     float64       // pump leakage a + b·|x| per |Δp|
-	am, bm     float64       // Σ over the motors
+	am, bm     float64       // Σ over the free motors
+	ah         float64       // Σ over the held motors of a + b·|x_h| per |Δp|
+	heldQ      float64       // Σ over the held motors of Dm·ωm·x_h
+	held       []float64     // per motor: its held setting, NaN where the schedule sets it
+	nheld      int           // the motors held
 	tau        []curveTorque // per unit, pump first
 	fixed      bool          // every unit's torque is fixed (curveTorque.fixed): Fill from the terms
 	swing      bool          // no leakage grows with the pump's setting (bp zero): pumpSwings serves
@@ -81,10 +91,11 @@ type curveTorque struct {
 // seen as a Curve at all, and per unit the constant parts of its leakage
 // and loss torque.
 type curvePlan struct {
-	ok    bool
-	smin  float64 // the schedule's motor floor
-	peak  float64 // the lowest peak pressure of the units, +Inf where none is rated
-	units []unitPlan
+	ok     bool
+	pinned bool    // the schedule is Pinned: its held settings are read per Curve
+	smin   float64 // the schedule's motor floor
+	peak   float64 // the lowest peak pressure of the units, +Inf where none is rated
+	units  []unitPlan
 }
 
 // unitPlan is the constant part of a unit's leakage (per unit |Δp|) and
@@ -109,12 +120,21 @@ type unitPlan struct {
 // planCurve works out l's curvePlan (see Loop.Curve for the loops a Curve
 // serves).
 func (l *Loop) planCurve() curvePlan {
-	sq, isSeq := l.sched.(Sequential)
-	n := len(l.spec.Motors)
-	if !isSeq || n == 0 || validMin(sq.MinMotorSetting) != nil || !l.curveUnits() {
+	var min float64
+	pinned := false
+	switch sq := l.sched.(type) {
+	case Sequential:
+		min = sq.MinMotorSetting
+	case Pinned:
+		min, pinned = sq.MinMotorSetting, true
+	default:
 		return curvePlan{}
 	}
-	smin := l.motorFloor(sq.MinMotorSetting)
+	n := len(l.spec.Motors)
+	if n == 0 || validMin(min) != nil || !l.curveUnits() {
+		return curvePlan{}
+	}
+	smin := l.motorFloor(min)
 	if smin <= 0 || l.pumpLow > -1 {
 		// Motors that swing to zero or over centre, a pump that does not:
 		// the schedule's special cases at a standing shaft are left to the
@@ -122,7 +142,7 @@ func (l *Loop) planCurve() curvePlan {
 		return curvePlan{}
 	}
 	f := &l.fl
-	pl := curvePlan{ok: true, smin: smin, peak: math.Inf(1), units: make([]unitPlan, n+1)}
+	pl := curvePlan{ok: true, pinned: pinned, smin: smin, peak: math.Inf(1), units: make([]unitPlan, n+1)}
 	for i := range pl.units {
 		u := &l.spec.Pump
 		if i > 0 {
@@ -220,8 +240,31 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	if cap(c.wms) < n {
 		c.wms = make([]units.AngularVelocity, n)
 		c.tau = make([]curveTorque, n+1)
+		c.held = make([]float64, n)
 	}
-	c.wms, c.tau = c.wms[:n], c.tau[:n+1]
+	c.wms, c.tau, c.held = c.wms[:n], c.tau[:n+1], c.held[:n]
+	c.nheld = 0
+	for i := range c.held {
+		c.held[i] = math.NaN()
+	}
+	if pl.pinned {
+		// The held settings as the schedule reads them at this call;
+		// settings it would refuse are the general path's to report.
+		h := l.sched.(Pinned).Held
+		if len(h) != n {
+			return false
+		}
+		for i, x := range h {
+			if math.IsNaN(x) {
+				continue
+			}
+			if !(x >= -1 && x <= 1) {
+				return false
+			}
+			c.held[i] = x
+			c.nheld++
+		}
+	}
 	c.l, c.wp, c.smin = l, wp, pl.smin
 	// The leakage per unit |Δp| (every term is proportional to it), as
 	// Loop.linear sums it.
@@ -230,7 +273,7 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	if !ok {
 		return false
 	}
-	var mq, am, bm float64
+	var mq, am, bm, ah, hq float64
 	fixed := u0.fixed
 	for i, ws := range motorSpeeds {
 		w := float64(ws)
@@ -242,9 +285,14 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 		if !ok {
 			return false
 		}
-		mq += up.dmax * w
-		am += a
-		bm += b
+		if x := c.held[i]; x == x {
+			hq += up.dmax * w * x
+			ah += a + b*math.Abs(x)
+		} else {
+			mq += up.dmax * w
+			am += a
+			bm += b
+		}
 		c.wms[i] = ws
 		up.torque(&c.tau[i+1], w)
 		c.tau[i+1].la, c.tau[i+1].lb = a, b
@@ -253,11 +301,15 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	c.pumpQ, c.motorQ = u0.dmax*wp, mq
 	c.invQ, c.invM = 1/c.pumpQ, 1/mq
 	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
+	c.ah, c.heldQ = ah, hq
+	if !finite(ah) || !finite(hq) {
+		return false
+	}
 	u0.torque(&c.tau[0], wp)
 	c.tau[0].la, c.tau[0].lb = ap, bp
 	c.fixed = fixed
 	c.swing = bp == 0
-	c.quick = c.swing && fixed
+	c.quick = c.swing && fixed && c.nheld == 0
 	c.ok = true
 	return true
 }
@@ -326,6 +378,9 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 	settings[0] = xp
 	for i := 1; i < len(settings); i++ {
 		settings[i] = sm
+		if h := c.held[i-1]; h == h {
+			settings[i] = h
+		}
 	}
 	dxp, dsm := c.settingSlopes(d, xp, sm)
 	for i := range c.tau {
@@ -333,6 +388,9 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 		x, dx, q, dq := xp, dxp, d, 1.0
 		if i > 0 {
 			x, dx, q, dq = sm, dsm, -d, -1
+			if h := c.held[i-1]; h == h {
+				x, dx = h, 0 // a held motor keeps its setting
+			}
 		}
 		var t, sl float64
 		if tc.fixed {
@@ -364,12 +422,12 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 // has to decide. The same arithmetic as sequential's.
 func (c *Curve) pumpSwings(dp float64) (xp float64, ok bool) {
 	a, sig := math.Abs(dp), sgn(dp)
-	ap, bp, am, bm := c.ap*a, c.bp*a, c.am*a, c.bm*a
+	ap, bp, am, bm, ah := c.ap*a, c.bp*a, c.am*a, c.bm*a, c.ah*a
 	q := c.pumpQ
-	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(math.Abs(c.motorQ)+ap+am+bm) {
+	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(math.Abs(c.motorQ)+math.Abs(c.heldQ)+ap+am+bm+ah) {
 		return 0, false
 	}
-	k := -sig*ap - c.motorQ - sig*(am+bm)
+	k := -sig*ap - c.motorQ - c.heldQ - sig*(am+bm+ah)
 	xp = -k * c.invQ
 	return xp, math.Abs(xp) <= 1
 }
@@ -382,15 +440,15 @@ func (c *Curve) settingSlopes(d, xp, sm float64) (dxp, dsm float64) {
 	case c.limit.hit:
 		// Both settings held at the ends of their ranges.
 	case sm == 1 && c.bp == 0:
-		dxp = (c.ap + c.am + c.bm) * c.invQ
+		dxp = (c.ap + c.am + c.bm + c.ah) * c.invQ
 	case sm == 1:
 		den := c.pumpQ - c.bp*d*sgn(xp)
-		dxp = (c.ap + c.bp*math.Abs(xp) + c.am + c.bm) / den
+		dxp = (c.ap + c.bp*math.Abs(xp) + c.am + c.bm + c.ah) / den
 	case c.bm == 0:
-		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am) * c.invM
+		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.ah) * c.invM
 	default:
 		den := c.motorQ + c.bm*d*sgn(sm)
-		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)) / den
+		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.ah + c.bm*math.Abs(sm)) / den
 	}
 	return dxp, dsm
 }
@@ -408,9 +466,9 @@ func (c *Curve) Leakage(dp units.Pressure) (q units.VolumeFlow, slope float64, o
 	if c.swing {
 		if xp, ok := c.pumpSwings(d); ok {
 			// settingSlopes' pump branch (the motors full, held), as below.
-			sm, dxp, dsm := 1.0, (c.ap+c.am+c.bm)*c.invQ, 0.0
+			sm, dxp, dsm := 1.0, (c.ap+c.am+c.bm+c.ah)*c.invQ, 0.0
 			a := math.Abs(d)
-			k := c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)
+			k := c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm) + c.ah
 			return units.VolumeFlow(k * a), sgn(d)*k + a*(c.bp*sgn(xp)*dxp+c.bm*sgn(sm)*dsm), true
 		}
 	}
@@ -418,11 +476,11 @@ func (c *Curve) Leakage(dp units.Pressure) (q units.VolumeFlow, slope float64, o
 	if !ok {
 		return 0, 0, false
 	}
-	// Every unit's leakage is (a + b·|x|)·|Δp|, the motors' at their common
-	// setting.
+	// Every unit's leakage is (a + b·|x|)·|Δp|, the free motors' at their
+	// common setting, the held ones' at theirs.
 	dxp, dsm := c.settingSlopes(d, xp, sm)
 	a := math.Abs(d)
-	k := c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm)
+	k := c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm) + c.ah
 	q = units.VolumeFlow(k * a)
 	slope = sgn(d)*k + a*(c.bp*sgn(xp)*dxp+c.bm*sgn(sm)*dsm)
 	return q, slope, true
@@ -437,17 +495,18 @@ func (c *Curve) Leakage(dp units.Pressure) (q units.VolumeFlow, slope float64, o
 // setting limit and where it is not that case.
 func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	a, sig := math.Abs(dp), sgn(dp)
-	ap, bp, am, bm := c.ap*a, c.bp*a, c.am*a, c.bm*a
+	ap, bp, am, bm, ah := c.ap*a, c.bp*a, c.am*a, c.bm*a, c.ah*a
 	q := c.pumpQ
-	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(math.Abs(c.motorQ)+ap+am+bm) {
+	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(math.Abs(c.motorQ)+math.Abs(c.heldQ)+ap+am+bm+ah) {
 		// A balance that is not monotone in the pump setting, or a pump
 		// too near standstill for the schedule's choice of its end to be
 		// more than rounding: the general path's.
 		return 0, 0, false
 	}
-	// Motors full: r(x) = x·Dp·ωp − σ·(ap + bp·|x|) − Σ Dm·ωm − σ·(am + bm),
-	// monotone in x, its zero on the side where −r(0) has the sign of Dp·ωp.
-	k := -sig*ap - c.motorQ - sig*(am+bm) // r(0)
+	// Free motors full: r(x) = x·Dp·ωp − σ·(ap + bp·|x|) − Σ Dm·ωm − σ·(am + bm)
+	// (the held motors' flow and leakage added to the motors'), monotone
+	// in x, its zero on the side where −r(0) has the sign of Dp·ωp.
+	k := -sig*ap - c.motorQ - c.heldQ - sig*(am+bm+ah) // r(0)
 	switch {
 	case bp == 0:
 		xp = -k * c.invQ
@@ -459,16 +518,18 @@ func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	if math.Abs(xp) <= 1 {
 		return xp, 1, true
 	}
-	if !finite(xp) {
+	if !finite(xp) || c.nheld == len(c.held) {
+		// With every motor held, a pump that cannot meet the flow is a
+		// limit the general path names.
 		return 0, 0, false
 	}
-	// The pump full on the side of its zero: the motors swing back, the
-	// zero of the balance (linear in s > 0) between the floor and full.
+	// The pump full on the side of its zero: the free motors swing back,
+	// the zero of the balance (linear in s > 0) between the floor and full.
 	xp = math.Copysign(1, xp)
 	if bm == 0 {
-		sm = (xp*q - sig*(ap+bp) - sig*am) * c.invM
+		sm = (xp*q - sig*(ap+bp) - sig*(am+ah) - c.heldQ) * c.invM
 	} else {
-		sm = (xp*q - sig*(ap+bp) - sig*am) / (c.motorQ + sig*bm)
+		sm = (xp*q - sig*(ap+bp) - sig*(am+ah) - c.heldQ) / (c.motorQ + sig*bm)
 	}
 	if sm >= c.smin && sm <= 1 {
 		return xp, sm, true
@@ -477,6 +538,10 @@ func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	// it would need (sequentialBoth), a setting limit.
 	lin := linLoop{sigma: sig, pumpQ: q, ap: ap, bp: bp, motorQ: c.motorQ, am: am, bm: bm}
 	ha, hb := lin.residual(xp, c.smin), lin.residual(xp, 1)
+	if c.nheld > 0 {
+		// The held motors' flow and leakage, constants of the balance.
+		ha, hb = ha-c.heldQ-sig*ah, hb-c.heldQ-sig*ah
+	}
 	if (ha > 0) != (hb > 0) || ha == 0 || hb == 0 || !(math.Abs(hb-ha) > 1e-6*math.Max(math.Abs(ha), math.Abs(hb))) {
 		// Rounding at an end of the range, or motors so near standstill
 		// that the setting needed is lost in rounding: the schedule's to
