@@ -496,8 +496,10 @@ func limitsOf(loop hydrostat.Loop) unitLimits {
 // speeds returns, for the solved state st of a layout whose loop has the
 // units' limits lim, the worst speed of a rated unit relative to its limit
 // (0 with none rated) and that unit (0 the pump, k the k-th motor), and
-// the variator's speed ratio, motor over pump, as magnitudes (0 with the
-// pump still).
+// the variator's speed ratio, motor over pump (first motor), as magnitudes
+// (0 with the pump still). Magnitudes are what the range-change check has
+// always compared: a ratio whose sign differs between two ranges is not
+// seen there as a jump.
 func (lim unitLimits) speeds(st *powersplit.State) (worst float64, unit int, ratio float64) {
 	if len(st.Loops) == 0 {
 		return 0, 0, 0
@@ -602,7 +604,7 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, lim unitLimits
 func (f *File) speedMargin(s pointSolver, lim unitLimits, b Binding, unit int) string {
 	var st powersplit.State
 	if err := s.Solve(powersplit.Point{Range: b.Range, Input: b.Engine, Outputs: []powersplit.OutputDemand{{Speed: f.outSpeed(b.Speed)}}}, &st); err != nil {
-		return "not solved again: " + firstLine(err) // the sweep solved it: a bug
+		return "not solved again: " + firstLine(err) // the sweep solved this point: failing now is a bug
 	}
 	if len(st.Loops) == 0 || unit > len(st.Loops[0].Motors) {
 		return "no loop"
