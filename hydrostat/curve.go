@@ -57,19 +57,23 @@ type Curve struct {
 	// of a Newton step's settings and slopes is by one of them, and a
 	// product with the inverse is off the step's chain of divisions.
 	invQ, invM float64
-	ap, bp     float64       // pump leakage a + b·|x| per |Δp|
-	am, bm     float64       // Σ over the free motors
-	ah         float64       // Σ over the held motors of a + b·|x_h| per |Δp|
-	heldQ      float64       // Σ over the held motors of Dm·ωm·x_h
-	held       []float64     // per motor: its held setting, NaN where the schedule sets it
-	nheld      int           // the motors held
-	tau        []curveTorque // per unit, pump first
-	fixed      bool          // every unit's torque is fixed (curveTorque.fixed): Fill from the terms
-	swing      bool          // no leakage grows with the pump's setting (bp zero): pumpSwings serves
-	quick      bool          // swing and fixed: Torques takes the short way
-	limit      setLimit      // the setting limit of the last Torques, if hit
-	cached     bool          // the last Torques kept its units' losses (curveTorque.cx) at cdp
-	cdp        float64
+	ap, bp     float64 // pump leakage a + b·|x| per |Δp|
+	am, bm     float64 // Σ over the free motors
+	ah         float64 // Σ over the held motors of a + b·|x_h| per |Δp|
+	heldQ      float64 // Σ over the held motors of Dm·ωm·x_h
+	// amh = am + ah, mqk = motorQ + heldQ and qs = |motorQ| + |heldQ| are
+	// the terms of the balance with the held motors folded in (am, motorQ
+	// and |motorQ| themselves where none is held, so the same numbers).
+	amh, mqk, qs float64
+	held         []float64     // per motor: its held setting, NaN where the schedule sets it (read only while nheld > 0)
+	nheld        int           // the motors held
+	tau          []curveTorque // per unit, pump first
+	fixed        bool          // every unit's torque is fixed (curveTorque.fixed): Fill from the terms
+	swing        bool          // no leakage grows with the pump's setting (bp zero): pumpSwings serves
+	quick        bool          // swing and fixed: Torques takes the short way
+	limit        setLimit      // the setting limit of the last Torques, if hit
+	cached       bool          // the last Torques kept its units' losses (curveTorque.cx) at cdp
+	cdp          float64
 }
 
 // curveTorque is what a Curve knows of a unit's loss torque at its speed.
@@ -244,9 +248,6 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	}
 	c.wms, c.tau, c.held = c.wms[:n], c.tau[:n+1], c.held[:n]
 	c.nheld = 0
-	for i := range c.held {
-		c.held[i] = math.NaN()
-	}
 	if pl.pinned {
 		// The held settings as the schedule reads them at this call;
 		// settings it would refuse are the general path's to report.
@@ -255,13 +256,13 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 			return false
 		}
 		for i, x := range h {
+			c.held[i] = x
 			if math.IsNaN(x) {
 				continue
 			}
 			if !(x >= -1 && x <= 1) {
 				return false
 			}
-			c.held[i] = x
 			c.nheld++
 		}
 	}
@@ -285,7 +286,7 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 		if !ok {
 			return false
 		}
-		if x := c.held[i]; x == x {
+		if x := c.held[i]; c.nheld > 0 && x == x {
 			hq += up.dmax * w * x
 			ah += a + b*math.Abs(x)
 		} else {
@@ -302,6 +303,7 @@ func (l *Loop) Curve(pumpSpeed units.AngularVelocity, motorSpeeds []units.Angula
 	c.invQ, c.invM = 1/c.pumpQ, 1/mq
 	c.ap, c.bp, c.am, c.bm = ap, bp, am, bm
 	c.ah, c.heldQ = ah, hq
+	c.amh, c.mqk, c.qs = am+ah, mq+hq, math.Abs(mq)+math.Abs(hq)
 	if !finite(ah) || !finite(hq) {
 		return false
 	}
@@ -356,7 +358,7 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 			// The pump: x = xp, q = Δp.
 			tc := &tau[0]
 			dm := tc.dmax
-			dxp := (c.ap + c.am + c.bm) * c.invQ // settingSlopes' with bp zero
+			dxp := (c.ap + c.amh + c.bm) * c.invQ // settingSlopes' with bp zero
 			torques[0] = units.Torque(d*xp*dm + tc.sw*(tc.t0+tc.t1*math.Abs(d)))
 			slopes[0] = units.Displacement(1*xp*dm + d*dm*dxp + tc.sw*tc.t1*sgn(d)*1)
 			// The motors: x = 1 held, q = −Δp.
@@ -378,7 +380,7 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 	settings[0] = xp
 	for i := 1; i < len(settings); i++ {
 		settings[i] = sm
-		if h := c.held[i-1]; h == h {
+		if h := c.held[i-1]; c.nheld > 0 && h == h {
 			settings[i] = h
 		}
 	}
@@ -388,7 +390,7 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 		x, dx, q, dq := xp, dxp, d, 1.0
 		if i > 0 {
 			x, dx, q, dq = sm, dsm, -d, -1
-			if h := c.held[i-1]; h == h {
+			if h := c.held[i-1]; c.nheld > 0 && h == h {
 				x, dx = h, 0 // a held motor keeps its setting
 			}
 		}
@@ -422,12 +424,12 @@ func (c *Curve) Torques(dp units.Pressure, settings []float64, torques []units.T
 // has to decide. The same arithmetic as sequential's.
 func (c *Curve) pumpSwings(dp float64) (xp float64, ok bool) {
 	a, sig := math.Abs(dp), sgn(dp)
-	ap, bp, am, bm, ah := c.ap*a, c.bp*a, c.am*a, c.bm*a, c.ah*a
+	ap, bp, am, bm := c.ap*a, c.bp*a, c.amh*a, c.bm*a // am with the held motors' leakage
 	q := c.pumpQ
-	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(math.Abs(c.motorQ)+math.Abs(c.heldQ)+ap+am+bm+ah) {
+	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(c.qs+ap+am+bm) {
 		return 0, false
 	}
-	k := -sig*ap - c.motorQ - c.heldQ - sig*(am+bm+ah)
+	k := -sig*ap - c.mqk - sig*(am+bm)
 	xp = -k * c.invQ
 	return xp, math.Abs(xp) <= 1
 }
@@ -440,15 +442,15 @@ func (c *Curve) settingSlopes(d, xp, sm float64) (dxp, dsm float64) {
 	case c.limit.hit:
 		// Both settings held at the ends of their ranges.
 	case sm == 1 && c.bp == 0:
-		dxp = (c.ap + c.am + c.bm + c.ah) * c.invQ
+		dxp = (c.ap + c.amh + c.bm) * c.invQ
 	case sm == 1:
 		den := c.pumpQ - c.bp*d*sgn(xp)
-		dxp = (c.ap + c.bp*math.Abs(xp) + c.am + c.bm + c.ah) / den
+		dxp = (c.ap + c.bp*math.Abs(xp) + c.amh + c.bm) / den
 	case c.bm == 0:
-		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.ah) * c.invM
+		dsm = -(c.ap + c.bp*math.Abs(xp) + c.amh) * c.invM
 	default:
 		den := c.motorQ + c.bm*d*sgn(sm)
-		dsm = -(c.ap + c.bp*math.Abs(xp) + c.am + c.ah + c.bm*math.Abs(sm)) / den
+		dsm = -(c.ap + c.bp*math.Abs(xp) + c.amh + c.bm*math.Abs(sm)) / den
 	}
 	return dxp, dsm
 }
@@ -466,9 +468,9 @@ func (c *Curve) Leakage(dp units.Pressure) (q units.VolumeFlow, slope float64, o
 	if c.swing {
 		if xp, ok := c.pumpSwings(d); ok {
 			// settingSlopes' pump branch (the motors full, held), as below.
-			sm, dxp, dsm := 1.0, (c.ap+c.am+c.bm+c.ah)*c.invQ, 0.0
+			sm, dxp, dsm := 1.0, (c.ap+c.amh+c.bm)*c.invQ, 0.0
 			a := math.Abs(d)
-			k := c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm) + c.ah
+			k := c.ap + c.bp*math.Abs(xp) + c.amh + c.bm*math.Abs(sm)
 			return units.VolumeFlow(k * a), sgn(d)*k + a*(c.bp*sgn(xp)*dxp+c.bm*sgn(sm)*dsm), true
 		}
 	}
@@ -480,7 +482,7 @@ func (c *Curve) Leakage(dp units.Pressure) (q units.VolumeFlow, slope float64, o
 	// common setting, the held ones' at theirs.
 	dxp, dsm := c.settingSlopes(d, xp, sm)
 	a := math.Abs(d)
-	k := c.ap + c.bp*math.Abs(xp) + c.am + c.bm*math.Abs(sm) + c.ah
+	k := c.ap + c.bp*math.Abs(xp) + c.amh + c.bm*math.Abs(sm)
 	q = units.VolumeFlow(k * a)
 	slope = sgn(d)*k + a*(c.bp*sgn(xp)*dxp+c.bm*sgn(sm)*dsm)
 	return q, slope, true
@@ -495,9 +497,9 @@ func (c *Curve) Leakage(dp units.Pressure) (q units.VolumeFlow, slope float64, o
 // setting limit and where it is not that case.
 func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	a, sig := math.Abs(dp), sgn(dp)
-	ap, bp, am, bm, ah := c.ap*a, c.bp*a, c.am*a, c.bm*a, c.ah*a
+	ap, bp, am, bm := c.ap*a, c.bp*a, c.amh*a, c.bm*a // am with the held motors' leakage
 	q := c.pumpQ
-	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(math.Abs(c.motorQ)+math.Abs(c.heldQ)+ap+am+bm+ah) {
+	if !(bp < 0.5*math.Abs(q)) || math.Abs(q) < 1e-9*(c.qs+ap+am+bm) {
 		// A balance that is not monotone in the pump setting, or a pump
 		// too near standstill for the schedule's choice of its end to be
 		// more than rounding: the general path's.
@@ -506,7 +508,7 @@ func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	// Free motors full: r(x) = x·Dp·ωp − σ·(ap + bp·|x|) − Σ Dm·ωm − σ·(am + bm)
 	// (the held motors' flow and leakage added to the motors'), monotone
 	// in x, its zero on the side where −r(0) has the sign of Dp·ωp.
-	k := -sig*ap - c.motorQ - c.heldQ - sig*(am+bm+ah) // r(0)
+	k := -sig*ap - c.mqk - sig*(am+bm) // r(0)
 	switch {
 	case bp == 0:
 		xp = -k * c.invQ
@@ -527,9 +529,9 @@ func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	// the zero of the balance (linear in s > 0) between the floor and full.
 	xp = math.Copysign(1, xp)
 	if bm == 0 {
-		sm = (xp*q - sig*(ap+bp) - sig*(am+ah) - c.heldQ) * c.invM
+		sm = (xp*q - sig*(ap+bp) - sig*am - c.heldQ) * c.invM
 	} else {
-		sm = (xp*q - sig*(ap+bp) - sig*(am+ah) - c.heldQ) / (c.motorQ + sig*bm)
+		sm = (xp*q - sig*(ap+bp) - sig*am - c.heldQ) / (c.motorQ + sig*bm)
 	}
 	if sm >= c.smin && sm <= 1 {
 		return xp, sm, true
@@ -539,8 +541,9 @@ func (c *Curve) sequential(dp float64) (xp, sm float64, ok bool) {
 	lin := linLoop{sigma: sig, pumpQ: q, ap: ap, bp: bp, motorQ: c.motorQ, am: am, bm: bm}
 	ha, hb := lin.residual(xp, c.smin), lin.residual(xp, 1)
 	if c.nheld > 0 {
-		// The held motors' flow and leakage, constants of the balance.
-		ha, hb = ha-c.heldQ-sig*ah, hb-c.heldQ-sig*ah
+		// The held motors' flow, a constant of the balance (their
+		// leakage is in am).
+		ha, hb = ha-c.heldQ, hb-c.heldQ
 	}
 	if (ha > 0) != (hb > 0) || ha == 0 || hb == 0 || !(math.Abs(hb-ha) > 1e-6*math.Max(math.Abs(ha), math.Abs(hb))) {
 		// Rounding at an end of the range, or motors so near standstill
