@@ -105,20 +105,19 @@ type curvePlan struct {
 // unitPlan is the constant part of a unit's leakage (per unit |Δp|) and
 // loss torque, in the arithmetic of wilsonLeak and curveTorque.
 type unitPlan struct {
-	dmax     float64
-	a, b     float64 // leakage a + b·|x| per |Δp| (slip; compressibility is added per speed)
-	comp     bool    // compressibility: a += dead·c, b += c with c = D·|ω|/β
-	dead     float64
-	beta     float64
-	fixed    bool    // τ = t0 + t1·|Δp|
-	va, cb   float64 // t0 = va·|ω| + cb (+ hr·ω²·d53)
-	hr, d53  float64 // hydrodynamic term, when hr > 0
-	t1       float64
-	lossless bool
-	f53      float64 // a torque following the setting, with a hydrodynamic term: D_t^(5/3) at full setting
-	wmax     float64 // the rated maximum speed, +Inf where not rated
-	rated    float64 // the continuous rated pressure, +Inf where not rated
-	low      float64 // the lowest setting of the swing
+	dmax    float64
+	a, b    float64 // leakage a + b·|x| per |Δp| (slip; compressibility is added per speed)
+	comp    bool    // compressibility: a += dead·c, b += c with c = D·|ω|/β
+	dead    float64
+	beta    float64
+	fixed   bool    // τ = t0 + t1·|Δp|
+	va, cb  float64 // t0 = va·|ω| + cb (+ hr·ω²·d53)
+	hr, d53 float64 // hydrodynamic term, when hr > 0
+	t1      float64
+	f53     float64 // a torque following the setting, with a hydrodynamic term: D_t^(5/3) at full setting
+	wmax    float64 // the rated maximum speed, +Inf where not rated
+	rated   float64 // the continuous rated pressure, +Inf where not rated
+	low     float64 // the lowest setting of the swing
 }
 
 // planCurve works out l's curvePlan (see Loop.Curve for the loops a Curve
@@ -170,7 +169,7 @@ func (l *Loop) planCurve() curvePlan {
 			if !(u.dmax > 0) {
 				return curvePlan{}
 			}
-			up.fixed, up.lossless = true, true
+			up.fixed = true
 			pl.units[i] = up
 			continue
 		}
@@ -617,9 +616,9 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 // half written, where that is not so, and fill or Loop.fill then gives the
 // error. The loss model's leakage and torque of a unit whose torque is not
 // fixed are those the last Torques kept where it was called at the same
-// pressure and setting (the same numbers: the same call). check is true where a
-// setting lies below its unit's swing or a unit turns faster than rated,
-// limits Loop.crossed reports.
+// pressure and setting (the same numbers: the same arithmetic). check is
+// true where a setting lies below its unit's swing or a unit turns faster
+// than rated, limits Loop.crossed reports.
 func (c *Curve) fillFast(dp float64, settings []float64, st *LoopState) (check, ok bool) {
 	tau := c.tau
 	plan := c.l.plan.units[:len(tau)]
