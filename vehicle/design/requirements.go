@@ -564,22 +564,33 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, lim unitLimits
 	if req.Standstill {
 		low = 0
 	}
+	// At each speed the best range has the least share of a limit, the
+	// lowest index of equal ones. A speed raises worst only if even its
+	// best range is above worst, so once one range is at or below worst
+	// the others need not be solved. The range tried first is the best at
+	// the speed before.
 	const n = 60
+	nr, first := l.Ranges(), 0
 	for k := range n + 1 {
 		v := low + (top-low)*units.Speed(k)/n
 		if v <= 0 {
 			continue
 		}
 		best, bestRange, bestUnit := math.Inf(1), 0, 0
-		for rg := range l.Ranges() {
+		for j := range nr {
+			rg := (first + j) % nr
 			r, u, _, ok := f.unitState(s, st, out, lim, rg, w, v)
-			if ok && r < best {
+			if ok && (r < best || r == best && rg < bestRange) {
 				best, bestRange, bestUnit = r, rg, u
+			}
+			if best <= worst {
+				break
 			}
 		}
 		if math.IsInf(best, 1) { // a gap: the gap check reports it
 			continue
 		}
+		first = bestRange
 		if best > worst {
 			worst, bound = best, true
 			bind, bindUnit = Binding{Range: bestRange, Speed: v, Engine: w}, bestUnit

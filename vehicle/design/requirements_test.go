@@ -231,3 +231,64 @@ func TestUnitSpeedsTypedAsMargins(t *testing.T) {
 		compared++
 	})
 }
+
+// TestUnitSpeedCheckAllRanges (property): the unit-speed check, which
+// stops solving the ranges at a speed once one is at or below the worst
+// share so far, gives the check that solving every range at every speed
+// gives (the plain sweep, written out here).
+func TestUnitSpeedCheckAllRanges(t *testing.T) {
+	t.Parallel()
+	f := demoFile(t)
+	s := demoSpace()
+	draws, bound := 0, 0
+	defer func() {
+		if 2*bound < draws {
+			t.Errorf("%d of %d draws had a binding point, want at least half", bound, draws)
+		}
+	}()
+	rapid.Check(t, func(t *rapid.T) {
+		draws++
+		g, err := f.Apply(s, Candidate(s, 4, rapid.IntRange(0, 5000).Draw(t, "candidate")))
+		if err != nil {
+			t.Fatal(err)
+		}
+		l, loop, err := g.Transmission.built()
+		if err != nil {
+			t.Skip("does not build:", err)
+		}
+		lim := limitsOf(loop)
+		sv := powersplit.NewSolver(l)
+		w := units.RPM(rapid.Float64Range(1500, 2300).Draw(t, "engine rpm"))
+		ivs, _ := g.intervals(sv, l, g.Transmission.RangeNames(), w)
+		req := *g.Requirements
+		req.UnitSpeedMargin = 0.02
+		st := powersplit.State{Brief: true}
+		got := g.unitSpeedCheck(sv, l, lim, &st, ivs, w, &req)
+
+		// The plain sweep: every range at every speed, the first range of
+		// the least share at each speed, the first speed of the greatest.
+		worst, at := 0.0, (*Binding)(nil)
+		out := make([]powersplit.OutputDemand, 1)
+		for k := range 61 {
+			v := req.LowestSpeed + (req.TopSpeed-req.LowestSpeed)*units.Speed(k)/60
+			best, bestRange := math.Inf(1), 0
+			for rg := range l.Ranges() {
+				if r, _, _, ok := g.unitState(sv, &st, out, lim, rg, w, v); ok && r < best {
+					best, bestRange = r, rg
+				}
+			}
+			if !math.IsInf(best, 1) && best > worst {
+				worst, at = best, &Binding{Range: bestRange, Speed: v, Engine: w}
+			}
+		}
+		if want := 1 - worst - req.UnitSpeedMargin; got.Margin != want {
+			t.Fatalf("margin %.17g, the plain sweep's %.17g", got.Margin, want)
+		}
+		if (got.Binding == nil) != (at == nil) || at != nil && *got.Binding != *at {
+			t.Fatalf("binding %+v, the plain sweep's %+v", got.Binding, at)
+		}
+		if at != nil {
+			bound++
+		}
+	})
+}
