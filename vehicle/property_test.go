@@ -200,8 +200,13 @@ func TestPropertyAuditCloses(t *testing.T) {
 			}
 			reach.Reached()
 			a := sg.Audit
-			if gap := math.Abs(float64(a.Mechanical - a.MechanicalByElement)); gap > 1e-6*math.Abs(float64(a.EngineWork))+1e-9 {
-				t.Fatalf("segment %s: mechanical loss %v by closure, %v by element", sg.Name, a.Mechanical, a.MechanicalByElement)
+			// The same loss summed two ways agrees to the rounding of the
+			// energies summed: relative to the engine's work, or to the
+			// loss itself where the engine does no work (a segment driven
+			// downhill gave 1.0e-9 J of 5.7 kJ against a bound of 1e-9 J).
+			scale := math.Max(math.Abs(float64(a.EngineWork)), math.Abs(float64(a.Mechanical)))
+			if gap := math.Abs(float64(a.Mechanical - a.MechanicalByElement)); gap > 1e-6*scale+1e-9 {
+				t.Fatalf("segment %s: mechanical loss %v by closure, %v by element (gap %g J, engine work %g J)", sg.Name, a.Mechanical, a.MechanicalByElement, gap, float64(a.EngineWork))
 			}
 			if r := a.RelativeResidual(); !(r <= 1e-6) {
 				t.Fatalf("segment %s: residual %g, audit %+v", sg.Name, r, a)
