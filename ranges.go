@@ -52,13 +52,28 @@ func (s *Solver) reachable(p *Point, rg int, v float64) bool {
 	if r.locked {
 		snapSpeeds(s.w)
 	}
-	if s.unitSpeeds() != nil {
-		return false
+	// The unit speeds and the loops at zero pressure, as unitSpeeds and
+	// evalLoops(true) judge them, without building the errors they would
+	// return: only whether there is one.
+	for _, e := range l.loops {
+		el := &l.elems[e]
+		for k, sh := range el.shafts {
+			if ms := float64(el.uspec[k].MaxSpeed); ms > 0 && math.Abs(s.w[sh]) > ms*(1+1e-12) {
+				return false
+			}
+		}
 	}
-	for j := range s.dp {
-		s.dp[j] = 0
+	clear(s.dp)
+	for j, e := range l.loops {
+		el := &l.elems[e]
+		for k := range s.mw[j] {
+			s.mw[j][k] = units.AngularVelocity(s.w[el.shafts[k+1]])
+		}
+		if s.loopOf(j).Trial(units.AngularVelocity(s.w[el.shafts[0]]), s.mw[j], 0, &s.loopA[j]) != nil {
+			return false
+		}
 	}
-	return s.evalLoops(true) == nil
+	return true
 }
 
 // SpeedInterval is a connected interval [Lo, Hi] of first-output speeds.
