@@ -52,6 +52,17 @@ type Model interface {
 	Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, error)
 }
 
+// A SlopeModel is a Model that also gives the slope of its net pull over
+// slip in closed form. LoadedWheel.SlipFor takes Newton steps on it; a
+// Model without it is searched by Brent's method.
+type SlopeModel interface {
+	Model
+	// NetSlope returns the net pull at slip, Pull's Net to the bit, and
+	// its slope dNet/dslip (newtons per unit slip); where the slope jumps
+	// (a kink at zero slip), either side's. Its errors are Pull's.
+	NetSlope(t Tyre, s Surface, load units.Force, slip float64) (net, slope units.Force, err error)
+}
+
 // slipRise returns the rise of traction with slip, 1 − e^(−a·s), for a
 // driving wheel (s ≥ 0), and its mirror −(1 − e^(a·s)) for an overrun
 // (braked) wheel (s < 0), so that the braking coefficient is bounded by
@@ -68,6 +79,16 @@ func slipRise(a, s float64) float64 {
 		return math.Expm1(a * s) // e^(a·s) − 1 in (−1, 0)
 	}
 	return -math.Expm1(-a * s)
+}
+
+// slipRiseSlope returns slipRise(a, s), bit for bit, and its slope over
+// s, a·e^(−a·|s|), from the one e^(−a·|s|) − 1 both need.
+func slipRiseSlope(a, s float64) (rise, slope float64) {
+	e := math.Expm1(-a * math.Abs(s))
+	if s < 0 {
+		return e, a * (1 + e)
+	}
+	return -e, a * (1 + e)
 }
 
 // overrun is the Outside flag of a negative slip.
@@ -176,6 +197,20 @@ func (Brixius) net(t Tyre, s Surface, load units.Force, slip float64) (float64, 
 	return float64(units.Force((gt - mr) * float64(load))), true
 }
 
+// NetSlope implements SlopeModel:
+//
+//	dNT/ds = 0.88·(1 − e^(−0.1·Bn))·7.5·e^(−7.5·|s|) − 0.5·sign(s)/√Bn
+func (m Brixius) NetSlope(t Tyre, s Surface, load units.Force, slip float64) (net, slope units.Force, err error) {
+	if err := checkSoil(t, s); err != nil {
+		return 0, 0, err
+	}
+	if err := checkLoadSlip(load, slip); err != nil {
+		return 0, 0, err
+	}
+	n, d := brixiusLoad(t, s, load).netSlope(load, slip)
+	return units.Force(n), units.Force(d), nil
+}
+
 // brixiusTerms returns the gross traction and motion resistance ratios,
 // GT and MR, of a checked tyre, soil, load and slip.
 func brixiusTerms(t Tyre, s Surface, load units.Force, slip float64) (gt, mr float64) {
@@ -200,6 +235,20 @@ func (b brixiusAtLoad) terms(slip float64) (gt, mr float64) {
 	gt = b.gt0*slipRise(7.5, slip) + 0.04
 	mr = b.mr0 + 0.5*math.Abs(slip)/b.sqrtBn
 	return gt, mr
+}
+
+// netSlope returns the net pull at slip under load, makePull's Net of
+// terms, and its slope over slip (the slope of s ≥ 0 at zero slip).
+func (b brixiusAtLoad) netSlope(load units.Force, slip float64) (net, slope float64) {
+	rise, dRise := slipRiseSlope(7.5, slip)
+	gt := b.gt0*rise + 0.04
+	mr := b.mr0 + 0.5*math.Abs(slip)/b.sqrtBn
+	dmr := 0.5 / b.sqrtBn
+	if slip < 0 {
+		dmr = -dmr
+	}
+	w := float64(load)
+	return float64(units.Force((gt - mr) * w)), (b.gt0*dRise - dmr) * w
 }
 
 // The ranges of b/d and δ/h the Brixius equations are used within without
@@ -267,6 +316,22 @@ func (WismerLuth) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull,
 	return p, nil
 }
 
+// NetSlope implements SlopeModel: dNT/ds = 0.75·0.3·Cn·e^(−0.3·Cn·|s|).
+func (WismerLuth) NetSlope(t Tyre, s Surface, load units.Force, slip float64) (net, slope units.Force, err error) {
+	if err := checkSoil(t, s); err != nil {
+		return 0, 0, err
+	}
+	if err := checkLoadSlip(load, slip); err != nil {
+		return 0, 0, err
+	}
+	cn := float64(s.ConeIndex) * float64(t.Width) * float64(t.Diameter) / float64(load)
+	rise, dRise := slipRiseSlope(0.3*cn, slip)
+	gt := 0.75 * rise
+	mr := 1.2/cn + 0.04
+	w := float64(load)
+	return units.Force((gt - mr) * w), units.Force(0.75 * dRise * w), nil
+}
+
 // Road is a model for tyres on a hard road, with the surface's rolling
 // coefficient f and peak adhesion μ:
 //
@@ -284,28 +349,50 @@ type Road struct {
 	SlipConstant float64 // k; 0 means 15; otherwise > 0 and finite
 }
 
-// Pull implements Model.
-func (m Road) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, error) {
+// check checks Pull's arguments and returns the slip constant k.
+func (m Road) check(t Tyre, s Surface, load units.Force, slip float64) (float64, error) {
 	if err := t.Validate(); err != nil {
-		return Pull{}, err
+		return 0, err
 	}
 	if err := s.Validate(); err != nil {
-		return Pull{}, err
+		return 0, err
 	}
 	if s.RollingCoefficient <= 0 {
-		return Pull{}, rangeErr(ErrSurface, "rolling coefficient", s.RollingCoefficient, "> 0 for the road model")
+		return 0, rangeErr(ErrSurface, "rolling coefficient", s.RollingCoefficient, "> 0 for the road model")
 	}
 	k := m.SlipConstant
 	if k == 0 {
 		k = 15
 	}
 	if !finite(k) || k < 0 {
-		return Pull{}, rangeErr(ErrInput, "road slip constant", k, "> 0 and finite")
+		return 0, rangeErr(ErrInput, "road slip constant", k, "> 0 and finite")
 	}
 	if err := checkLoadSlip(load, slip); err != nil {
+		return 0, err
+	}
+	return k, nil
+}
+
+// Pull implements Model.
+func (m Road) Pull(t Tyre, s Surface, load units.Force, slip float64) (Pull, error) {
+	k, err := m.check(t, s, load, slip)
+	if err != nil {
 		return Pull{}, err
 	}
 	f := s.RollingCoefficient
 	nt := s.adhesion() * slipRise(k, slip)
 	return makePull(load, slip, nt+f, f), nil
+}
+
+// NetSlope implements SlopeModel: dNT/ds = μ·k·e^(−k·|s|).
+func (m Road) NetSlope(t Tyre, s Surface, load units.Force, slip float64) (net, slope units.Force, err error) {
+	k, err := m.check(t, s, load, slip)
+	if err != nil {
+		return 0, 0, err
+	}
+	f := s.RollingCoefficient
+	rise, dRise := slipRiseSlope(k, slip)
+	mu := s.adhesion()
+	w := float64(load)
+	return units.Force((mu*rise + f - f) * w), units.Force(mu * dRise * w), nil
 }

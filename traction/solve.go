@@ -1,6 +1,10 @@
 package traction
 
-import "github.com/powersplit-dev/powersplit/internal/numeric"
+import (
+	"math"
+
+	"github.com/powersplit-dev/powersplit/internal/numeric"
+)
 
 // Scalar numerics come from internal/numeric (Brent's root finder and
 // minimiser). Both keep the func on the stack, so the callers stay
@@ -40,3 +44,81 @@ func goldenMax(f func(float64) float64, a, b, tol float64) (x, fx float64) {
 	}
 	return x, fx
 }
+
+// newtonBracket finds x in [a, b] where f changes sign by Newton's method
+// on fd (f and its slope) kept inside the bracket: fa = f(a) and fb = f(b)
+// differ in sign (or one is zero). It starts from x0 when x0 lies inside
+// (a, b), else from the secant point of the ends. Every value narrows the
+// bracket; a step that would leave it, or that did not halve the step
+// before last (the slope misleads), bisects it instead (Press et al.'s
+// safeguard, so it is never much slower than bisection). A step shorter
+// than tol1 = 2·ε·|x| + tol/2 (Brent's) is lengthened to tol1, so that once
+// Newton has converged the next value lies across the root and the
+// bracket closes. It returns, once the bracket is at most 2·tol1 wide (as
+// Brent's method does), the end of smaller |f|; ok is false on a NaN value
+// or after maxIter values.
+//
+// Source: W. H. Press, S. A. Teukolsky, W. T. Vetterling and B. P.
+// Flannery, Numerical Recipes (3rd ed., 2007), section 9.4 (rtsafe: Newton
+// with bisection); the stopping rule and tol1 are Brent's (1973,
+// chapter 4), as internal/numeric.Brent has them.
+func newtonBracket(fd func(float64) (float64, float64), a, b, fa, fb, x0, tol float64, maxIter int) (x float64, ok bool) {
+	if fa == 0 {
+		return a, true
+	}
+	if fb == 0 {
+		return b, true
+	}
+	// neg and pos are the ends where f < 0 and f > 0.
+	neg, pos, fNeg, fPos := a, b, fa, fb
+	if fa > 0 {
+		neg, pos, fNeg, fPos = b, a, fb, fa
+	}
+	inside := func(x float64) bool { return (x-neg)*(x-pos) < 0 }
+	x = x0
+	if !inside(x) {
+		x = a - fa*(b-a)/(fb-fa)
+		if !inside(x) {
+			x = 0.5 * (a + b)
+		}
+	}
+	dxOld, dx := math.Abs(b-a), math.Abs(b-a)
+	for range maxIter {
+		f, df := fd(x)
+		if math.IsNaN(f) {
+			return x, false
+		}
+		if f == 0 {
+			return x, true
+		}
+		if f < 0 {
+			neg, fNeg = x, f
+		} else {
+			pos, fPos = x, f
+		}
+		tol1 := 2*epsilon*math.Abs(x) + 0.5*tol
+		if math.Abs(pos-neg) <= 2*tol1 {
+			if math.Abs(fNeg) < math.Abs(fPos) {
+				return neg, true
+			}
+			return pos, true
+		}
+		xn := x - f/df
+		if !inside(xn) || math.Abs(2*f) > math.Abs(dxOld*df) {
+			xn = 0.5 * (neg + pos)
+		} else if math.Abs(xn-x) < tol1 {
+			// Towards the root by tol1: the bracket is wider than 2·tol1
+			// and x one of its ends, so the step stays inside.
+			toward := pos
+			if f > 0 {
+				toward = neg
+			}
+			xn = x + math.Copysign(tol1, toward-x)
+		}
+		dxOld, dx = dx, math.Abs(xn-x)
+		x = xn
+	}
+	return x, false
+}
+
+const epsilon = 2.220446049250313e-16 // float64 machine epsilon, 2⁻⁵²

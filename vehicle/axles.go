@@ -253,10 +253,14 @@ func tractionErr(err error) error {
 	return errors.Join(ErrInvalid, err)
 }
 
-// axle is one axle of a two-axle point: its wheel model, load per wheel,
-// wheel count, travel speed and the slip range searched.
+// axle is one axle of a two-axle point: its wheel under its load per
+// wheel, wheel count, travel speed and the slip range searched. It lives
+// for one point: last, the slip its search found last, starts the next
+// search of the same point (and of no other: a point's result depends on
+// the point alone).
 type axle struct {
 	w     traction.Wheel
+	lw    traction.LoadedWheel
 	load  units.Force // per wheel
 	n     float64
 	v     units.Speed
@@ -264,6 +268,7 @@ type axle struct {
 	sMax  float64 // slip of greatest net pull
 	nLo   float64 // axle net pull at sLo
 	nMax  float64 // axle net pull at sMax
+	last  float64 // slip of the last search (NaN: none yet)
 	model traction.Model
 }
 
@@ -272,8 +277,11 @@ func newAxle(a traction.Axle, s traction.Surface, m traction.Model, load units.F
 	if err != nil {
 		return axle{}, err
 	}
-	x := axle{w: w, n: float64(a.Wheels), v: v, model: m}
+	x := axle{w: w, n: float64(a.Wheels), v: v, last: math.NaN(), model: m}
 	x.load = units.Force(float64(load) / x.n)
+	if x.lw, err = w.Loaded(x.load); err != nil {
+		return axle{}, err
+	}
 	mp, err := w.MaxPull(x.load)
 	if err != nil {
 		return axle{}, err
@@ -281,7 +289,7 @@ func newAxle(a traction.Axle, s traction.Surface, m traction.Model, load units.F
 	x.sMax, x.nMax = mp.Slip, x.n*float64(mp.Net)
 	// Overrun down to a slip of −0.3: an axle pushed along by the other.
 	x.sLo = -0.3
-	q, err := m.Pull(a.Tyre, s, x.load, x.sLo)
+	q, err := x.lw.Pull(x.sLo)
 	if err != nil {
 		return axle{}, err
 	}
@@ -292,15 +300,6 @@ func newAxle(a traction.Axle, s traction.Surface, m traction.Model, load units.F
 // at returns the state of the axle (one wheel's values) giving axle net
 // pull net (summed over its wheels).
 func (x *axle) at(net float64) (traction.State, error) {
-	want := net / x.n
-	t := x.w.Tyre()
-	f := func(s float64) float64 {
-		q, err := x.model.Pull(t, x.w.Surface(), x.load, s)
-		if err != nil {
-			return math.NaN()
-		}
-		return float64(q.Net) - want
-	}
 	var s float64
 	switch {
 	case net >= x.nMax:
@@ -309,15 +308,17 @@ func (x *axle) at(net float64) (traction.State, error) {
 		s = x.sLo
 	default:
 		var err error
-		s, err = numeric.Brent(f, x.sLo, x.sMax, 1e-13, 200)
+		s, err = x.lw.SlipFor(units.Force(net/x.n), x.sLo, x.sMax, x.last)
 		if err != nil {
 			return traction.State{}, err
 		}
+		x.last = s
 	}
-	q, err := x.model.Pull(t, x.w.Surface(), x.load, s)
+	q, err := x.lw.Pull(s)
 	if err != nil {
 		return traction.State{}, err
 	}
+	t := x.w.Tyre()
 	return traction.StateOf(t, q, units.AngularVelocity(float64(x.v)/(float64(t.RollingRadius)*(1-s)))), nil
 }
 
