@@ -268,6 +268,8 @@ type axle struct {
 	sMax  float64 // slip of greatest net pull
 	nLo   float64 // axle net pull at sLo
 	nMax  float64 // axle net pull at sMax
+	wLo   float64 // wheel net pull at sLo
+	wMax  float64 // wheel net pull at sMax
 	last  float64 // slip of the last search (NaN: none yet)
 	model traction.Model
 }
@@ -286,29 +288,32 @@ func newAxle(a traction.Axle, s traction.Surface, m traction.Model, load units.F
 	if err != nil {
 		return axle{}, err
 	}
-	x.sMax, x.nMax = mp.Slip, x.n*float64(mp.Net)
+	x.sMax, x.wMax, x.nMax = mp.Slip, float64(mp.Net), x.n*float64(mp.Net)
 	// Overrun down to a slip of −0.3: an axle pushed along by the other.
 	x.sLo = -0.3
 	q, err := x.lw.Pull(x.sLo)
 	if err != nil {
 		return axle{}, err
 	}
-	x.nLo = x.n * float64(q.Net)
+	x.wLo, x.nLo = float64(q.Net), x.n*float64(q.Net)
 	return x, nil
 }
 
 // at returns the state of the axle (one wheel's values) giving axle net
 // pull net (summed over its wheels).
 func (x *axle) at(net float64) (traction.State, error) {
+	// Per wheel: a pull at an end of the bracket to its rounding is that
+	// end, never a pull beyond it.
+	want := net / x.n
 	var s float64
 	switch {
-	case net >= x.nMax:
+	case want >= x.wMax:
 		s = x.sMax
-	case net <= x.nLo:
+	case want <= x.wLo:
 		s = x.sLo
 	default:
 		var err error
-		s, err = x.lw.SlipFor(units.Force(net/x.n), x.sLo, x.sMax, x.last)
+		s, err = x.lw.SlipFor(units.Force(want), x.sLo, x.sMax, x.last)
 		if err != nil {
 			return traction.State{}, err
 		}
@@ -428,10 +433,13 @@ func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief, brake 
 	if g0 == 0 {
 		return sol, nil
 	}
-	// Secant steps from there (g is close to linear in N_f: about −r_f
-	// per newton of front pull), kept inside any bracket found; a split
-	// the transmission refuses (a limit) is approached halfway, a few
-	// times, before the limit is reported.
+	// Secant steps from there through the last two values (g is close to
+	// linear in N_f: about −r_f per newton of front pull), kept inside
+	// the bracket of the last values of either sign once there is one
+	// (bisecting it where a step would leave it); a split the
+	// transmission refuses (a limit) is approached halfway, a few times,
+	// before the limit is reported. sol always holds the last value's
+	// solution.
 	tolG := func(x float64) float64 { return 1e-10 * (math.Abs(x)*rf + math.Abs(pull)*rr + 1) }
 	x := math.Min(math.Max(x0+g0/rf, lo), hi)
 	try := func(xn, from float64) (float64, float64, error) {
@@ -446,13 +454,20 @@ func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief, brake 
 	if err != nil {
 		return axles{}, err
 	}
-	bLo, bHi, bracketed := 0.0, 0.0, false
 	xa, ga := x0, g0
-	converged := false
+	// The last points where g > 0 and g < 0 (NaN: none yet).
+	xPos, xNeg := math.NaN(), math.NaN()
+	side := func(x, g float64) {
+		if g > 0 {
+			xPos = x
+		} else {
+			xNeg = x
+		}
+	}
+	side(xa, ga)
 	for range 40 {
 		if math.Abs(g1) <= tolG(x) {
-			converged = true
-			break
+			return sol, nil
 		}
 		if (x == hi && g1 > 0) || (x == lo && g1 < 0) {
 			// The transmission gives the front wheels more (or less)
@@ -460,15 +475,13 @@ func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief, brake 
 			return axles{}, &LimitError{Quantity: "front axle torque", Value: units.Of(units.Torque(sol.frontWheelT)),
 				Bound: "torque a slip of the front axle matches", Limit: units.Of(units.Torque(fa.nMax * rf)), Err: ErrTraction}
 		}
-		if (g1 > 0) != (ga > 0) {
-			bLo, bHi, bracketed = math.Min(xa, x), math.Max(xa, x), true
-		}
+		side(x, g1)
 		xn := x - g1*(x-xa)/(g1-ga)
 		if g1 == ga || math.IsNaN(xn) {
 			xn = x + g1/rf
 		}
-		if bracketed && !(xn > bLo && xn < bHi) {
-			xn = 0.5 * (bLo + bHi)
+		if !math.IsNaN(xPos) && !math.IsNaN(xNeg) && !((xn-xPos)*(xn-xNeg) < 0) {
+			xn = 0.5 * (xPos + xNeg)
 		}
 		xn = math.Min(math.Max(xn, lo), hi)
 		if xn == x {
@@ -476,30 +489,15 @@ func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief, brake 
 				return axles{}, &LimitError{Quantity: "front axle torque", Value: units.Of(units.Torque(sol.frontWheelT)),
 					Bound: "torque a slip of the front axle matches", Limit: units.Of(units.Torque(fa.nMax * rf)), Err: ErrTraction}
 			}
-			converged = true
-			break
+			return sol, nil
 		}
-		xp, gp := x, g1
+		xa, ga = x, g1
 		x, g1, err = try(xn, x)
 		if err != nil {
 			return axles{}, err
 		}
-		switch {
-		case (g1 > 0) != (gp > 0):
-			xa, ga = xp, gp // the root lies between the last two
-		case bracketed && (g1 > 0) != (ga > 0):
-			// keep xa: the far end of the bracket
-		default:
-			xa, ga = xp, gp
-		}
 	}
-	if !converged {
-		return axles{}, errors.Join(ErrTraction, traction.ErrNoConvergence)
-	}
-	if _, err := g(x); err != nil { // leave sol at the root
-		return axles{}, err
-	}
-	return sol, nil
+	return axles{}, errors.Join(ErrTraction, traction.ErrNoConvergence)
 }
 
 // axlesAt solves the two-axle point for At: with the FrontLeastPower

@@ -327,6 +327,71 @@ func TestPropertyFrontMotorFlows(t *testing.T) {
 	})
 }
 
+// pullOnly hides a traction model's slope: the axles' slips are then
+// searched by Brent's method on its Pull, as before the Newton search.
+type pullOnly struct{ traction.Model }
+
+// TestPropertyFrontMotorNewtonMatchesBrent: at random two-axle points on
+// random soils the axles' slips searched by Newton's method on the
+// Brixius slope give the point that Brent's method on the Brixius Pull
+// gives. The slips differ by 1e-13 at most (TestPropertySlipForNewtonMatchesBrent
+// in traction), which moves the outer search's residual (front wheel
+// torque, tolerance 1e-10 of the torques) by some 1e-8 of its tolerance:
+// the points agree to 1e-9 relative (slips to 1e-9 absolute).
+func TestPropertyFrontMotorNewtonMatchesBrent(t *testing.T) {
+	t.Parallel()
+	v := axVehicle(t, true, vehicle.FrontSchedule)
+	solved, worst := 0, 0.0
+	defer func() {
+		t.Logf("%d of the drawn points solved and compared; worst difference %.3g of its bound", solved, worst)
+		if solved < 5 {
+			t.Errorf("only %d points solved", solved)
+		}
+	}()
+	rapid.Check(t, func(rt *rapid.T) {
+		ground := axTyres(false)
+		ground.Surface = traction.Surface{ConeIndex: units.Kilopascals(rapid.Float64Range(500, 2500).Draw(rt, "cone index kPa")),
+			RollingCoefficient: 0.03}
+		d := vehicle.Demand{Speed: units.KMH(rapid.Float64Range(2, 12).Draw(rt, "km/h")),
+			Draft: units.Kilonewtons(rapid.Float64Range(0, 30).Draw(rt, "draft kN")), Ground: ground}
+		if rapid.Bool().Draw(rt, "turn") {
+			d.TurnRadius = units.Metres(rapid.Float64Range(4, 30).Draw(rt, "radius m"))
+		}
+		w := units.RPM(rapid.Float64Range(1300, 2100).Draw(rt, "engine rpm"))
+		rng := rapid.IntRange(0, 1).Draw(rt, "range")
+		p, err := v.At(d, w, rng)
+		brent := ground
+		brent.Model = pullOnly{ground.Model}
+		d.Ground = brent
+		q, errB := v.At(d, w, rng)
+		if (err == nil) != (errB == nil) {
+			rt.Fatalf("Newton: %v; Brent: %v", err, errB)
+		}
+		if err != nil {
+			rt.Skip(err)
+		}
+		for _, c := range []struct {
+			name      string
+			got, want float64
+			bound     float64
+		}{
+			{"front slip", p.FrontSlip, q.FrontSlip, 1e-9},
+			{"rear slip", p.Slip, q.Slip, 1e-9},
+			{"front share", p.FrontShare, q.FrontShare, 1e-9},
+			{"engine torque", float64(p.EngineTorque), float64(q.EngineTorque), 1e-9 * math.Abs(float64(q.EngineTorque))},
+			{"fuel rate", float64(p.FuelRate), float64(q.FuelRate), 1e-9 * math.Abs(float64(q.FuelRate))},
+			{"front torque", float64(p.Drive.FrontTorque), float64(q.Drive.FrontTorque), 1e-9 * math.Abs(float64(q.Drive.FrontTorque))},
+		} {
+			diff, bound := math.Abs(c.got-c.want), math.Max(c.bound, 1e-12)
+			if !(diff <= bound) {
+				rt.Fatalf("%s: %.17g by Newton, %.17g by Brent", c.name, c.got, c.want)
+			}
+			worst = math.Max(worst, diff/bound)
+		}
+		solved++
+	})
+}
+
 // TestFrontMotorOverrun: downhill the two-axle drive brakes on the engine
 // first (no fuel, engine braking) and on the service brakes beyond the
 // engine's motoring torque; the flows close either way.
