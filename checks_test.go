@@ -12,10 +12,10 @@ import (
 
 // The lossless hydraulic power share P_h/P_in of the three classic layouts.
 //
-// Derivation (Kress's method): the pump speed ωp and motor speed ωm are
-// affine in ωin and ωout, ωp ∝ (ν − ν_p) and ωm ∝ (ν − ν_m), ν = ωout/ωin,
-// ν_p and ν_m the ratios at which the pump or the motor stops. Lossless,
-// P_h/P_in = d ln ν / d ln r with r = ωm/ωp, which gives
+// Derivation (the method of SAE paper 680549): the pump speed ωp and motor
+// speed ωm are affine in ωin and ωout, ωp ∝ (ν − ν_p) and ωm ∝ (ν − ν_m),
+// ν = ωout/ωin, ν_p and ν_m the ratios at which the pump or the motor stops.
+// Lossless, P_h/P_in = d ln ν / d ln r with r = ωm/ωp, which gives
 //
 //	compound:        P_h/P_in = (ν − ν_p)(ν − ν_m) / (ν·(ν_m − ν_p))
 //	output-coupled:  ν_m = 0 (motor on the output):  P_h/P_in = 1 − ν/ν_M
@@ -49,16 +49,19 @@ func TestLosslessShare(t *testing.T) {
 		lo, hi float64
 		want   func(nu float64) float64
 	}{
-		// Source: Kress (1968), SAE 680549, output-coupled ("output split")
-		// share 1 − ν/ν_M; Renius & Resch (2005), ASAE Distinguished Lecture
-		// 29, same relation. From memory: the printed forms; derived above.
+		// Source: SAE paper 680549 (1968), output-coupled ("output split")
+		// share 1 − ν/ν_M; ASAE Distinguished Lecture 29 (2005), same
+		// relation. From memory: the printed forms; derived above.
 		{"output-coupled", oc, -0.6, 1.4, func(nu float64) float64 { return shareOC(nu, nuOC) }},
-		// Source: Kress (1968), SAE 680549, input-coupled share 1 − ν_M/ν;
-		// Renius & Resch (2005). From memory: the printed forms; derived above.
+		// Source: SAE paper 680549 (1968), input-coupled share 1 − ν_M/ν;
+		// ASAE Distinguished Lecture 29 (2005). From memory: the printed
+		// forms; derived above.
 		{"input-coupled", ic, -0.5, 1.2, func(nu float64) float64 { return shareIC(nu, nuIC) }},
-		// Source: Linares, Méndez & Macor (2010), J. Terramechanics 47,
-		// compound split with two mechanical points. From memory: the
-		// product form (ν − ν1)(ν − ν2)/(ν(ν2 − ν1)); derived above.
+		// Source: J. Terramechanics 47 (2010), Design parameters for
+		// continuously variable power-split transmissions using planetaries
+		// with 3 active shafts, compound split with two mechanical points.
+		// From memory: the product form (ν − ν1)(ν − ν2)/(ν(ν2 − ν1));
+		// derived above.
 		{"compound", cp, 0.2, 2.5, func(nu float64) float64 { return shareCompound(nu, nuP, nuM) }},
 	}
 	for _, c := range cases {
@@ -102,16 +105,17 @@ func TestMechanicalPoints(t *testing.T) {
 		// sign of the share just below and above the point
 		below, above float64
 	}{
-		// Source: Kress (1968), SAE 680549: output-coupled, the pump shaft is
+		// Source: SAE paper 680549 (1968): output-coupled, the pump shaft is
 		// blocked and the motor swung back to zero at ν_M; circulating power
 		// above ν_M. From memory.
 		{"output-coupled ν_M", oc, nuOC, +1, -1},
-		// Source: Kress (1968), SAE 680549: input-coupled, the motor stops at
+		// Source: SAE paper 680549 (1968): input-coupled, the motor stops at
 		// ν_M; circulating power below ν_M. From memory.
 		{"input-coupled ν_M", ic, nuIC, -1, +1},
-		// Source: Linares, Méndez & Macor (2010): compound split, share zero
-		// at both mechanical points, positive between them, circulating
-		// outside. From memory.
+		// Source: J. Terramechanics 47 (2010), the paper on design
+		// parameters of power-split transmissions cited above: compound
+		// split, share zero at both mechanical points, positive between
+		// them, circulating outside. From memory.
 		{"compound ν_m", cp, nuM, -1, +1},
 		{"compound ν_p", cp, nuP, +1, -1},
 	}
@@ -145,7 +149,7 @@ func TestMechanicalPoints(t *testing.T) {
 // planetary set's efficiency with the hydrostat's member held.
 //
 // Common practice (no published source) as a statement; it follows from
-// the share relations of Kress (1968), SAE 680549: where P_h/P_in = 0 no
+// the share relations of SAE paper 680549 (1968): where P_h/P_in = 0 no
 // power passes the hydrostat, so all of it takes the mechanical path.
 func TestMechanicalPointEfficiency(t *testing.T) {
 	t.Parallel()
@@ -176,7 +180,7 @@ func TestMechanicalPointEfficiency(t *testing.T) {
 		}
 		return -float64(pout) / float64(pin)
 	}
-	// Source: Müller (1982), Epicyclic Drive Trains, efficiency of a simple
+	// Source: Epicyclic Drive Trains (1982), efficiency of a simple
 	// set with one member held, from its basic efficiency. From memory:
 	// sun held, ring in → carrier out (power enters the meshes at the ring):
 	// η = (η0 − i0)/(1 − i0). It is checked here against
@@ -334,7 +338,7 @@ func TestPTOSpeeds(t *testing.T) {
 // TestFromVariatorRange: an output-coupled split whose second range takes
 // the output from the pump-side member. That range is again an
 // output-coupled split, with the sun as its output member and the unit on
-// the ring leading, so (Kress 1968, SAE 680549, from memory; derived above)
+// the ring leading, so (SAE paper 680549, 1968, from memory; derived above)
 // its lossless share is 1 − ν/ν_M2 with ν_M2 = r2·(1 − i0) (ring stopped),
 // counted from the ring unit to the sun unit (Builder.ReverseShare). The two
 // ranges shift synchronously (hand calculation as in TestShiftPoints).

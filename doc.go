@@ -175,13 +175,12 @@
 //	output-coupled:  P_h/P_in = 1 − ν/ν_M        (motor on the output: ν_m = 0)
 //	input-coupled:   P_h/P_in = 1 − ν_M/ν        (pump on the input: ν_p → ∞)
 //
-// (J. H. Kress, Hydrostatic power-splitting transmissions for wheeled
-// vehicles: classification and theory of operation, SAE paper 680549,
-// 1968; K. Th. Renius and R. Resch, Continuously variable tractor
-// transmissions, ASAE Distinguished Lecture Series No. 29, 2005;
-// P. Linares, V. Méndez and A. Macor, Design parameters for continuously
-// variable power-split transmissions using planetaries with 3 active
-// shafts, Journal of Terramechanics 47, 2010; from memory), and in general
+// (Hydrostatic power-splitting transmissions for wheeled vehicles:
+// classification and theory of operation, SAE paper 680549, 1968;
+// Continuously variable tractor transmissions, ASAE Distinguished Lecture
+// Series No. 29, 2005; Design parameters for continuously variable
+// power-split transmissions using planetaries with 3 active shafts,
+// Journal of Terramechanics 47, 2010; from memory), and in general
 // P_h/P_in = d ln ν / d ln r with r = ωmotor/ωpump, the sensitivity of the
 // overall ratio to the variator's ratio. That identity follows from the
 // lossless power balance of a one-degree-of-freedom network (the variator's
@@ -265,7 +264,7 @@
 // off unless the layout adds it (Builder methods or Layout.WithLosses):
 //
 //	source              model (doc of the type)                              source
-//	bearings            M = 10⁻⁷·f0·(ν·n)^(2/3)·dm³ + f1·P1·dm  [N·mm]         Palmgren (Harris & Kotzalas)
+//	bearings            M = 10⁻⁷·f0·(ν·n)^(2/3)·dm³ + f1·P1·dm  [N·mm]         Palmgren (Rolling Bearing Analysis)
 //	churning, windage   P = 7.37·fg·ν·n³·D^4.7·(…)/(Ag·10²⁶)  [kW]             ISO/TR 14179-1
 //	open plates         T = z·π·μ·Δω·(ro⁴ − ri⁴)/(2h)                          laminar film (Newton)
 //	idle PTO            open plates + bearings while the PTO carries no torque

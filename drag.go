@@ -50,8 +50,8 @@ type Lubricant struct {
 }
 
 // Bearings describes the rolling bearings of one shaft for Palmgren's
-// friction moment (Palmgren 1959; Harris & Kotzalas, Rolling Bearing
-// Analysis, 5th ed. 2007, ch. 9):
+// friction moment (Palmgren's model of 1959; Rolling Bearing Analysis, 5th
+// ed. 2007, ch. 9):
 //
 //	M = M0 + M1
 //	M0 = 10⁻⁷·f0·(ν·n)^(2/3)·dm³   [N·mm]  for ν·n ≥ 2000
@@ -66,7 +66,7 @@ type Lubricant struct {
 // layout does not compute, so P1 is given (a typical load at the duty
 // considered).
 //
-// From memory (Harris & Kotzalas, table of f0 and f1): f0 for oil-bath
+// From memory (Rolling Bearing Analysis, table of f0 and f1): f0 for oil-bath
 // lubrication about 1.5–2 (deep-groove ball), 2–3 (cylindrical roller with
 // cage), 3–4 (tapered roller), 4–6 (spherical roller); half of that with oil
 // mist, about double with an oil jet or vertical shafts. f1 about
@@ -120,8 +120,8 @@ type Wheel struct {
 //	T = π·μ·Δω·(ro⁴ − ri⁴)/(2·h)
 //
 // (Newton's law of viscosity integrated over an annulus; the film model of
-// open-clutch drag, for example Kitabayashi et al., SAE 2003-01-1973, and
-// Yuan et al., J. Fluids Eng. 129 (2007) 333), μ = ν·ρ the dynamic
+// open-clutch drag, for example SAE paper 2003-01-1973, and J. Fluids Eng.
+// 129 (2007) 333), μ = ν·ρ the dynamic
 // viscosity, Δω the slip speed and h the clearance of one film. Above a
 // critical slip speed the films break up and the drag falls well below
 // this value: the formula is the upper bound of the undisturbed film and

@@ -11,8 +11,8 @@ import (
 	"github.com/powersplit-dev/powersplit/units"
 )
 
-// Source: Palmgren's friction moment as given by Harris & Kotzalas, Rolling
-// Bearing Analysis (5th ed., 2007), ch. 9: M0 = 10⁻⁷·f0·(ν·n)^(2/3)·dm³ N·mm
+// Source: Palmgren's friction moment as given in Rolling Bearing Analysis
+// (5th ed., 2007), ch. 9: M0 = 10⁻⁷·f0·(ν·n)^(2/3)·dm³ N·mm
 // for ν·n ≥ 2000, 160·10⁻⁷·f0·dm³ below, M1 = f1·P1·dm. Hand calculation
 // for a cylindrical roller bearing of dm = 100 mm, f0 = 2, f1 = 0.0003,
 // P1 = 10 kN in 30 cSt at 1500 rpm: ν·n = 45000, 45000^(2/3) = 1265.1,
@@ -46,8 +46,8 @@ func TestBearingTorquePalmgren(t *testing.T) {
 	}
 }
 
-// Source: the viscous clutch of Çengel & Cimbala, Fluid Mechanics:
-// Fundamentals and Applications, problem "clutch system … 2-mm-thick oil
+// Source: the viscous clutch of the textbook Fluid Mechanics: Fundamentals
+// and Applications, problem "clutch system … 2-mm-thick oil
 // film, μ = 0.38 N·s/m², two 30-cm-diameter disks, 1200 and 1125 rpm";
 // its solution integrates the linear film to T = π·μ·Δω·D⁴/(32·h), one film
 // over a full disc. Hand calculation: Δω = 75 rpm = 7.854 rad/s, T =

@@ -264,7 +264,7 @@ func TestSweepAndMap(t *testing.T) {
 // direction of its mesh losses: the solver reports ErrSelfLocking instead of
 // a state that creates power.
 //
-// From memory: Müller (1982), Epicyclic Drive Trains, on self-locking of
+// From memory: Epicyclic Drive Trains (1982), on self-locking of
 // trains with circulating power. The point itself was found by the rapid
 // property test.
 func TestSelfLocking(t *testing.T) {
