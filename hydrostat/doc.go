@@ -47,9 +47,9 @@
 //
 // # The Wilson loss model
 //
-// The Wilson model (Wilson 1949, in the form of McCandlish & Dorey 1984)
-// takes laminar leakage ∝ D·Δp/μ, viscous drag torque ∝ D·μ·ω, Coulomb
-// friction torque ∝ D·Δp and a constant torque. Here, with D per radian,
+// The Wilson model (Trans. ASME 71, 1949, in the form of Proc. IMechE 198B,
+// 1984) takes laminar leakage ∝ D·Δp/μ, viscous drag torque ∝ D·μ·ω,
+// Coulomb friction torque ∝ D·Δp and a constant torque. Here, with D per radian,
 // μ the dynamic viscosity, ρ the density and β the bulk modulus:
 //
 //	L = Cs·D_q·|Δp|/μ  [+ (Cr + |x|)·D_max·|ω|·|Δp|/β  if Compressibility]
@@ -61,11 +61,11 @@
 // With s_q = s_t = 0 (the default) every term scales with the maximum
 // displacement, the classic form; with 1 it scales with the set
 // displacement |x|·D_max; values between blend the two (the
-// setting-dependent terms of McCandlish & Dorey). The hydrodynamic term Ch
-// (churning, ∝ ω²) is the extension of McCandlish & Dorey (1984); the
+// setting-dependent terms of the Proc. IMechE 198B paper). The hydrodynamic
+// term Ch (churning, ∝ ω²) is that paper's extension (1984); the
 // compression loss, oil compressed in the dead volume V₀ and the swept
 // volume each stroke and lost on decompression, follows the argument of
-// Ivantysyn & Ivantysynova (2001) with Cr = V₀/(2π·D_max).
+// the book Hydrostatic Pumps and Motors (2001) with Cr = V₀/(2π·D_max).
 //
 // Per radian or per revolution: only the coefficients that multiply a
 // displacement written per revolution, V = 2π·D, change with the
@@ -163,11 +163,10 @@
 //
 // # Sources
 //
-// W. E. Wilson, Performance criteria for positive displacement pumps and
-// fluid motors, Trans. ASME 71 (1949). A. McCandlish and R. E. Dorey,
-// The mathematical modelling of hydrostatic pumps and motors, Proc. IMechE
-// 198B (1984). H. Ivantysyn and M. Ivantysynova, Hydrostatic Pumps and
-// Motors, Academic Books International (2001). ISO 4409 (test methods and
+// Performance criteria for positive displacement pumps and fluid motors,
+// Trans. ASME 71 (1949). The mathematical modelling of hydrostatic pumps
+// and motors, Proc. IMechE 198B (1984). Hydrostatic Pumps and Motors,
+// Academic Books International (2001). ISO 4409 (test methods and
 // efficiency definitions for pumps and motors), ISO 3448 (viscosity grades),
 // ASTM D341 (viscosity–temperature charts), ASTM D2270 (viscosity index).
 //

@@ -111,7 +111,7 @@ func TestFitWilsonRecovers(t *testing.T) {
 // measured quantities.
 func TestISO4409FromMeasurements(t *testing.T) {
 	t.Parallel()
-	// From memory: Esposito, Fluid Power with Applications, pump example:
+	// From memory: Fluid Power with Applications, pump example:
 	// 100 cm³/rev at 1000 rpm and 70 bar delivers 0.0015 m³/s with 120 N·m:
 	// η_v = 90 %, η_m = 92.8 %, η_o = 83.5 %; motor example: 164 cm³/rev at
 	// 70 bar and 2000 rpm takes 0.006 m³/s and delivers 170 N·m:

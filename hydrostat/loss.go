@@ -33,10 +33,11 @@ type Losses struct {
 	Torque  units.Torque     // ≥ 0, loss torque opposing the motion
 }
 
-// Wilson is the loss model of Wilson (1949) in dimensionless coefficients,
-// with the extensions of McCandlish & Dorey (1984) and Ivantysyn &
-// Ivantysynova (2001). D is per radian (see doc.go for the exact form and
-// for coefficients quoted per revolution). The zero value is lossless.
+// Wilson is the Wilson loss model (Trans. ASME 71, 1949) in dimensionless
+// coefficients, with the extensions of Proc. IMechE 198B (1984) and of
+// Hydrostatic Pumps and Motors (2001). D is per radian (see doc.go for the
+// exact form and for coefficients quoted per revolution). The zero value is
+// lossless.
 //
 //	Q_s = Cs·D_q·|Δp|/μ                          laminar leakage
 //	Q_r = (Cr + |x|)·D_max·|ω|·|Δp|/β             compression (if Compressibility)

@@ -29,8 +29,8 @@ func mustUnit(t testing.TB, s UnitSpec) Unit {
 
 func TestGeometricDisplacement(t *testing.T) {
 	t.Parallel()
-	// From memory (the book was not at hand to re-read): Esposito, Fluid
-	// Power with Applications, axial-piston pump example: nine pistons of
+	// From memory (the book was not at hand to re-read): Fluid Power with
+	// Applications, axial-piston pump example: nine pistons of
 	// 0.5 in diameter on a 5 in piston circle; a delivery of 16 gpm needs a
 	// displacement of 1.30 in³/rev, an offset angle of about 8.4°. Printed
 	// to 0.01 in³ and 0.1°: checked to ±0.005 in³ and ±0.05°.
@@ -97,15 +97,15 @@ func TestISO4409WorkedExamples(t *testing.T) {
 		wantFlow              units.VolumeFlow
 		wantTorque            units.Torque
 	}{
-		// From memory: Esposito, Fluid Power with Applications, pump
-		// efficiency example: 100 cm³/rev at 1000 rpm and 70 bar delivers
+		// From memory: Fluid Power with Applications, pump efficiency
+		// example: 100 cm³/rev at 1000 rpm and 70 bar delivers
 		// 0.0015 m³/s with 120 N·m input torque: η_v = 90 %, η_m = 92.8 %,
 		// η_o = 83.5 %. Leakage and loss torque are set to give exactly the
 		// example's actual flow and torque.
 		{"pump", units.CCPerRev(100), units.RPM(1000), units.Bar(70),
 			units.VolumeFlow(100e-6*1000/60 - 0.0015), units.Torque(120 - 70e5*100e-6/(2*math.Pi)),
 			Pumping, 0.900, 0.928, 0.835, units.CubicMetresPerSecond(0.0015), 120},
-		// From memory: Esposito, motor efficiency example: 164 cm³/rev at
+		// From memory: the same book, motor efficiency example: 164 cm³/rev at
 		// 70 bar and 2000 rpm takes 0.006 m³/s and delivers 170 N·m:
 		// η_v = 91.1 %, η_m = 93.0 %, η_o = 84.8 %. The motor's own frame
 		// has Δp = p_out − p_in = −70 bar.
@@ -161,9 +161,10 @@ func TestWilsonPublishedEquation(t *testing.T) {
 		wantLeak float64 // m³/s
 		wantTau  float64 // N·m
 	}{
-		// Source: the Wilson (1949) equations in the form of McCandlish &
-		// Dorey (1984), Q_s = Cs·D·Δp/μ and T = Cv·D·μ·ω + Cf·D·Δp + T_c,
-		// evaluated by hand: D = 100 cm³/rev = 1.5915e-5 m³/rad, Δp = 250 bar,
+		// Source: the Wilson equations (Trans. ASME 71, 1949) in the form of
+		// Proc. IMechE 198B (1984), Q_s = Cs·D·Δp/μ and
+		// T = Cv·D·μ·ω + Cf·D·Δp + T_c, evaluated by hand:
+		// D = 100 cm³/rev = 1.5915e-5 m³/rad, Δp = 250 bar,
 		// ω = 2000 rpm, μ = 0.03 Pa·s, Cs = 1e-8, Cv = 5e4, Cf = 0.02,
 		// p_c = 2 bar: Q_s = 1.3263e-4 m³/s (7.96 L/min);
 		// T_v = 5e4 × 0.03 × (1e-4 × 2000/60) = 5.000 N·m,
@@ -172,9 +173,9 @@ func TestWilsonPublishedEquation(t *testing.T) {
 			Condition{Setting: 0.8, MaxDisplacement: units.CCPerRev(100), Speed: units.RPM(2000), Pressure: units.Bar(250),
 				Viscosity: 0.03, Density: 870, BulkModulus: 1.6e9, Mode: Pumping},
 			1.3262911924324613e-4, 16.140846016432675},
-		// Source: the McCandlish & Dorey (1984) extensions (hydrodynamic
-		// torque Ch·ρ·ω²·D^(5/3)) and the compression loss after Ivantysyn &
-		// Ivantysynova (2001), with set-displacement scaling, evaluated by
+		// Source: the extensions of Proc. IMechE 198B (1984) (hydrodynamic
+		// torque Ch·ρ·ω²·D^(5/3)) and the compression loss after Hydrostatic
+		// Pumps and Motors (2001), with set-displacement scaling, evaluated by
 		// hand: D_max = 160 cm³/rev, x = 0.5, ω = −1500 rpm, Δp = 300 bar,
 		// μ = 0.02 Pa·s, ρ = 860, β = 1.6 GPa; s_q = 1 so D_q = 0.5·D_max,
 		// s_t = 0.5 so D_t = 0.75·D_max.
@@ -210,7 +211,7 @@ func TestWilsonPerRev(t *testing.T) {
 	mu := float64(oil.DynamicViscosity(temp))
 	w, dp := units.RPM(1800), units.Bar(200)
 
-	// Source: the McCandlish & Dorey (1984) losses as written per
+	// Source: the losses of Proc. IMechE 198B (1984) as written per
 	// revolution in the open-source Modelica hydraulics library
 	// OpenHydraulics (Components/MotorsPumps/ConstantDisplacementPump.mo,
 	// BaseClasses/MechanicalPumpLosses.mo, Basic/BaseClasses/
@@ -237,8 +238,8 @@ func TestWilsonPerRev(t *testing.T) {
 		t.Errorf("ideal torque %g, want V·Δp/2π = %g", got, want)
 	}
 
-	// Source: D. A. Gutz, POS_PUMP positive-displacement pump model
-	// (1992), public Scilab translation lti_pos_pump.sci: displacement in
+	// Source: POS_PUMP positive-displacement pump model (1992), public
+	// Scilab translation lti_pos_pump.sci: displacement in
 	// in³/rev, flow = η_v·disp·rpm/60 with η_v = 1 − cs/(μ·ω/Δp), ω in
 	// rad/s. The coefficient divides the efficiency, not a displacement
 	// per revolution, so it is the per-radian Cs unchanged.
