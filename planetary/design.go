@@ -60,10 +60,10 @@ const MinTeeth = 17
 //
 // From memory: AGMA 6123-B06, Design Manual for Enclosed Epicyclic Gear
 // Drives, gives the coaxial, assembly and neighbour conditions for tooth-count
-// selection, as does Müller, Epicyclic Drive Trains (1982).
-// Source: Glinsky (2020), "Geometry / Planetary Gears" notebook: |a12| = |a23|,
+// selection, as does Epicyclic Drive Trains (1982).
+// Source: "Geometry / Planetary Gears" notebook (2020): |a12| = |a23|,
 // l = 2a·sin(π/N) > d_a2 and k = (z1 − z3)/N integer (z3 < 0) for equal spacing.
-// Source: Eritenel, "Chapter 2 – Spur Gears" notebook (drivetrainhub
+// Source: "Chapter 2 – Spur Gears" notebook (drivetrainhub
 // notebooks-gears): inv θ = tan θ − θ, tip diameter d_p + 2m(1 + x − y),
 // working pressure angle α_w = acos(a0/a·cos α); the profile-shifted pair
 // relation inv α_w = inv α + 2(x1 + x2)·tan α/(z1 + z2) and the tip

@@ -57,9 +57,9 @@
 // member. It is never negative, and it equals T·ω summed over the members
 // (with the opposite convention, power out of the set counted positive, that
 // sum is −loss).
-// This is the method of Müller (Epicyclic Drive Trains, 1982) and of
-// Pennestrì and Freudenstein (The Mechanical Efficiency of Epicyclic Gear
-// Trains, ASME J. Mech. Des. 115, 1993). Set.TorqueFactors gives the two
+// This is Müller's method (Epicyclic Drive Trains, 1982), also that of The
+// Mechanical Efficiency of Epicyclic Gear Trains (ASME J. Mech. Des. 115,
+// 1993). Set.TorqueFactors gives the two
 // factors; Set.FlowOf the direction; Set.Torque the full State from one
 // known torque. Where the set turns as a block no power rolls: the loss is
 // zero and the torques are the lossless ones (see Set.Torque for the exact
@@ -96,16 +96,16 @@
 // # Sources
 //
 // From memory (recalled, not read while writing this package):
-// Müller, H. W., Epicyclic Drive Trains: Analysis, Synthesis and
-// Applications, Wayne State University Press, 1982 (Willis equation, basic
-// efficiency, rolling and coupling power, default η0);
-// Pennestrì, E. and Freudenstein, F., The Mechanical Efficiency of
-// Epicyclic Gear Trains, ASME J. Mech. Des. 115(3), 645–651, 1993;
+// Epicyclic Drive Trains: Analysis, Synthesis and Applications, Wayne
+// State University Press, 1982 (Willis equation, basic efficiency, rolling
+// and coupling power, default η0);
+// The Mechanical Efficiency of Epicyclic Gear Trains, ASME J. Mech. Des.
+// 115(3), 645–651, 1993;
 // AGMA 6123-B06, Design Manual for Enclosed Epicyclic Gear Drives
 // (tooth-count conditions).
-// Read: Glinsky (2020), "Geometry / Planetary Gears", an open gear-geometry
+// Read: "Geometry / Planetary Gears" (2020), an open gear-geometry
 // notebook (ratios, centre-distance, planet-interference and equal-spacing
-// conditions); Eritenel, "Chapter 2 – Spur Gears", an open gear-geometry
+// conditions); "Chapter 2 – Spur Gears", an open gear-geometry
 // notebook (involute function, working pressure angle, tip diameter). The
 // tests name each worked example they check.
 //

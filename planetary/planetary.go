@@ -66,7 +66,7 @@ func (a Arrangement) String() string {
 // FromRatio gives zero.
 const (
 	// DefaultSingleEfficiency is η0 of a single-planet set.
-	// From memory: Müller, Epicyclic Drive Trains (1982), gives η0 ≈ 0.97…0.99
+	// From memory: Epicyclic Drive Trains (1982) gives η0 ≈ 0.97…0.99
 	// for simple single-planet (negative-ratio) sets; 0.98 is the middle.
 	// It equals one external mesh (≈ 0.985) times one internal mesh (≈ 0.995).
 	DefaultSingleEfficiency = 0.98
@@ -74,8 +74,9 @@ const (
 	// from sun to ring in the carrier frame crosses two external meshes and
 	// one internal mesh, one external mesh more than a single-planet set:
 	// 0.98 × 0.99 ≈ 0.970 (hand calculation with an external-mesh efficiency
-	// of 0.99). From memory: Müller (1982) puts such positive-ratio sets with
-	// planet pairs about one point below simple sets.
+	// of 0.99). From memory: Epicyclic Drive Trains (1982) puts such
+	// positive-ratio sets with planet pairs about one point below simple
+	// sets.
 	DefaultDoubleEfficiency = 0.97
 )
 

@@ -97,7 +97,7 @@ func TestWorkedExamples(t *testing.T) {
 // TestRatios checks the six one-member-held ratios.
 func TestRatios(t *testing.T) {
 	t.Parallel()
-	// Source: Glinsky (2020), "Geometry / Planetary Gears", open gear-geometry
+	// Source: "Geometry / Planetary Gears" (2020), open gear-geometry
 	// notebook, section Ratios: base ratio u = z3/z1 with z3 < 0 (our i0),
 	// i_1V = 1 − u (ring held, sun to carrier), i_3V = 1 − 1/u (sun held, ring to
 	// carrier). The carrier-held case is the definition of u; the other three
@@ -202,9 +202,10 @@ func efficiency(t *testing.T, s planetary.Set, in, out planetary.Member) float64
 // closed forms of the carrier-frame method.
 func TestEfficiency(t *testing.T) {
 	t.Parallel()
-	// From memory: Müller, Epicyclic Drive Trains (1982), table of the
+	// From memory: Epicyclic Drive Trains (1982), table of the
 	// efficiencies of the simple set with one member held, for i0 < 0
-	// (also in Pennestrì & Freudenstein 1993, for the 1-dof gear pair entity):
+	// (also in The Mechanical Efficiency of Epicyclic Gear Trains, ASME J.
+	// Mech. Des. 115, 1993, for the 1-dof gear pair entity):
 	//   ring held, sun drives carrier:   η = (1 − i0·η0)/(1 − i0) = (1 + |i0|·η0)/(1 + |i0|)
 	//   ring held, carrier drives sun:   η = (1 − i0)/(1 − i0/η0)
 	//   sun held, ring drives carrier:   η = (|i0| + η0)/(|i0| + 1)
@@ -223,9 +224,10 @@ func TestEfficiency(t *testing.T) {
 		{"sun held, ring drives", s, planetary.Ring, planetary.Carrier, 5.98 / 6},
 		{"carrier held, sun drives", s, planetary.Sun, planetary.Ring, 0.98},
 		{"carrier held, ring drives", s, planetary.Ring, planetary.Sun, 0.98},
-		// From memory: Müller (1982), positive-ratio set (planet pairs), ring held,
-		// sun drives carrier: η = (1 − i0·η0)/(1 − i0). Hand calculation for
-		// i0 = 3, η0 = 0.97: (1 − 2.91)/(1 − 3) = 0.955, lower than the simple set.
+		// From memory: Epicyclic Drive Trains (1982), positive-ratio set
+		// (planet pairs), ring held, sun drives carrier:
+		// η = (1 − i0·η0)/(1 − i0). Hand calculation for i0 = 3, η0 = 0.97:
+		// (1 − 2.91)/(1 − 3) = 0.955, lower than the simple set.
 		{"double planet, ring held, sun drives", mustRatio(t, 3, 0.97), planetary.Sun, planetary.Carrier, 1.91 / 2},
 	}
 	for _, tc := range tests {
@@ -240,7 +242,7 @@ func TestEfficiency(t *testing.T) {
 // TestAssembly checks the equal-spacing condition on published tooth combinations.
 func TestAssembly(t *testing.T) {
 	t.Parallel()
-	// Source: Glinsky (2020), "Geometry / Planetary Gears", section Meshing
+	// Source: "Geometry / Planetary Gears" (2020), section Meshing
 	// Teeth: equally spaced planets need k = (z1 − z3)/N integer (z3 < 0, so
 	// (z_sun + z_ring)/N); the worked combinations (N, z_ring, z_sun):
 	// (4, 48, 16), (4, 51, 17), (4, 54, 18) and (5, 52, 18) are equally spaced,
@@ -275,7 +277,7 @@ func TestAssembly(t *testing.T) {
 // TestNeighbour checks the neighbour condition.
 func TestNeighbour(t *testing.T) {
 	t.Parallel()
-	// Source: Glinsky (2020), "Geometry / Planetary Gears", section Planet
+	// Source: "Geometry / Planetary Gears" (2020), section Planet
 	// Interference: l = 2·a·sin(π/N) > d_a2. Hand calculation with standard
 	// addendum for sun 20, planet 40 (a = 30 m, d_a = 42 m):
 	//   N = 3: l = 51.96 m > 42 m   valid
