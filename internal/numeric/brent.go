@@ -38,8 +38,9 @@ func Brent(f func(float64) float64, a, b, tol float64, maxIter int) (float64, er
 	if (fa > 0) == (fb > 0) {
 		return 0, ErrNoBracket
 	}
-	// Brent (1973), procedure zero: b is the best estimate, a the previous
-	// one, c the point with f of opposite sign to f(b).
+	// Algorithms for Minimization without Derivatives (1973), procedure
+	// zero: b is the best estimate, a the previous one, c the point with f
+	// of opposite sign to f(b).
 	c, fc := a, fa
 	d := b - a
 	e := d

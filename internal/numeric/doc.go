@@ -11,9 +11,8 @@
 // bracket shrinks at least as fast as bisection every few steps and the method
 // converges superlinearly on smooth functions.
 //
-// Source: R. P. Brent, Algorithms for Minimization without Derivatives,
-// Prentice-Hall (1973), chapter 4 (procedure zero); G. E. Forsythe,
-// M. A. Malcolm and C. B. Moler, Computer Methods for Mathematical
+// Source: Algorithms for Minimization without Derivatives, Prentice-Hall
+// (1973), chapter 4 (procedure zero); Computer Methods for Mathematical
 // Computations, Prentice-Hall (1977), section 7.2 (zeroin).
 //
 // # Minimisation
@@ -22,8 +21,9 @@
 // golden-section search and successive parabolic interpolation. On a
 // unimodal f the result is the minimum to within tol.
 //
-// Source: Brent (1973), chapter 5 (procedure localmin); Forsythe, Malcolm and
-// Moler (1977), section 8.2 (fmin).
+// Source: Algorithms for Minimization without Derivatives (1973), chapter 5
+// (procedure localmin); Computer Methods for Mathematical Computations
+// (1977), section 8.2 (fmin).
 //
 // # Grid interpolation
 //

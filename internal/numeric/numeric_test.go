@@ -17,10 +17,11 @@ func TestBrentPublished(t *testing.T) {
 		want float64
 		tol  float64
 	}{
-		// Source: Forsythe, Malcolm & Moler (1977), section 7.2: the zeroin
-		// example x³ − 2x − 5 = 0 on [2, 3] (the equation Wallis solved),
-		// root 2.094551481542327 (value from memory: 2.0945514815423265).
-		{"wallis", func(x float64) float64 { return x*x*x - 2*x - 5 }, 2, 3, 2.0945514815423265, 1e-14},
+		// Source: Computer Methods for Mathematical Computations (1977),
+		// section 7.2: the zeroin example x³ − 2x − 5 = 0 on [2, 3] (the
+		// classic test equation of root finders), root 2.094551481542327
+		// (value from memory: 2.0945514815423265).
+		{"cubic", func(x float64) float64 { return x*x*x - 2*x - 5 }, 2, 3, 2.0945514815423265, 1e-14},
 		// Hand calculation: cos x = x, the fixed point of cos,
 		// 0.7390851332151607 (from memory; checked below by the residual).
 		{"cos", func(x float64) float64 { return math.Cos(x) - x }, 0, 1, 0.7390851332151607, 1e-14},
@@ -76,10 +77,10 @@ func TestMinimizePublished(t *testing.T) {
 		a, b float64
 		want float64
 	}{
-		// Source: Forsythe, Malcolm & Moler (1977), section 8.2: the fmin
-		// example minimises x³ − 2x − 5 on [0, 1]; the minimiser is √(2/3)
+		// Source: Computer Methods for Mathematical Computations (1977),
+		// section 8.2: the fmin example minimises x³ − 2x − 5 on [0, 1]; the minimiser is √(2/3)
 		// = 0.81650 (from memory; exact by calculus: f′ = 3x² − 2).
-		{"fmm", func(x float64) float64 { return x*x*x - 2*x - 5 }, 0, 1, math.Sqrt(2.0 / 3)},
+		{"cubic", func(x float64) float64 { return x*x*x - 2*x - 5 }, 0, 1, math.Sqrt(2.0 / 3)},
 		// Hand calculation: (x − 2)² + 1 on [−10, 10].
 		{"parabola", func(x float64) float64 { return (x-2)*(x-2) + 1 }, -10, 10, 2},
 		// Hand calculation: a monotone function is minimised at its end.

@@ -18,10 +18,9 @@
 // diagonal, U strictly above, the diagonal apart), so a solve with a matrix
 // of two or three entries a row costs a few operations a row.
 //
-// Source: G. H. Golub and C. F. Van Loan, Matrix Computations, 4th ed.,
-// Johns Hopkins (2013), algorithm 3.4.1 (Gaussian elimination with partial
-// pivoting); E. Anderson et al., LAPACK Users' Guide, 3rd ed., SIAM (1999)
-// (dgetf2).
+// Source: Matrix Computations, 4th ed., Johns Hopkins (2013), algorithm
+// 3.4.1 (Gaussian elimination with partial pivoting); LAPACK Users' Guide,
+// 3rd ed., SIAM (1999) (dgetf2).
 //
 // # Low-rank updates
 //
@@ -37,7 +36,7 @@
 // determinant lemma det A(δ) = det A · det(I + Δ·Vᵀ·W): A(δ) is singular
 // exactly when that small system is.
 //
-// Source: Golub and Van Loan (2013), section 2.1.4 (the
+// Source: Matrix Computations (2013), section 2.1.4 (the
 // Sherman–Morrison–Woodbury formula).
 //
 // # Refinement
@@ -47,5 +46,5 @@
 // error by about the machine epsilon times the condition number. Correct
 // applies a correction and says whether it was negligible.
 //
-// Source: Golub and Van Loan (2013), section 3.5.3 (iterative refinement).
+// Source: Matrix Computations (2013), section 3.5.3 (iterative refinement).
 package sparse

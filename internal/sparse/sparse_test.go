@@ -65,7 +65,7 @@ func backward(a []float64, n int, x, b []float64) float64 {
 // (The pivots may differ from dgetrf's in near-ties: gonum's dgetrf factors
 // recursively, in another order of operations.)
 //
-// Source: Golub and Van Loan, Matrix Computations, 4th ed. (2013),
+// Source: Matrix Computations, 4th ed. (2013),
 // theorem 3.4.2: Gaussian elimination with partial pivoting is backward
 // stable for all but pathological growth.
 func TestLUBackwardStable(t *testing.T) {
