@@ -263,8 +263,9 @@ func checkDay(t *testing.T, out string) {
 	// operation. From memory: it gives the implement draft (Table 1), the
 	// ratio of drawbar power to PTO power by soil and drive type, and the
 	// tractor fuel equation Q = (0.22·X + 0.096)·P_rated·[1 − (n − 1)·
-	// (0.45·X − 0.877)] L/h (section "Fuel consumption", after Grisso,
-	// Kocher and Vaughan 2004), X the PTO-equivalent power over the rated
+	// (0.45·X − 0.877)] L/h (section "Fuel consumption", after Predicting
+	// tractor fuel consumption, Applied Engineering in Agriculture 20(5),
+	// 2004), X the PTO-equivalent power over the rated
 	// power, n the engine speed over rated speed. So the range is built from
 	// those pieces by hand, without the library, and a published field
 	// figure is checked as well.
@@ -305,8 +306,8 @@ func checkDay(t *testing.T, out string) {
 	}
 	t.Logf("ploughing fuel %.2f L/ha; ASABE D497-built range %.2f to %.2f L/ha", s.PloughLitresPerHa, lo, hi)
 
-	// 2. A published field figure. Source: J. C. Frisby, Fuel Requirement
-	// Estimates for Selected Field Operations, University of Missouri
+	// 2. A published field figure. Source: Fuel Requirement Estimates for
+	// Selected Field Operations, University of Missouri
 	// Extension G1208 (reviewed 1993), Table 1: moldboard plough, 8-inch
 	// depth, 4.5 mph: 1.68 gal/acre. Source: Iowa State University
 	// Extension, Ag Decision Maker A3-27, Fuel Required for Field

@@ -18,8 +18,8 @@ import (
 // parts (front-axle drive, the whole rear axle) than the demo's
 // transmission plus final drive.
 //
-// From memory (not re-read): Renius & Resch (2005), Continuously variable
-// tractor transmissions, ASAE publication 913C0305: power-split transmissions about 85–90 % near the
+// From memory (not re-read): Continuously variable tractor transmissions
+// (2005), ASAE publication 913C0305: power-split transmissions about 85–90 % near the
 // mechanical points at full load, falling at part load.
 //
 // Findings (the model is not tuned to these): at 25 % load the drive line
