@@ -9,7 +9,7 @@ import (
 
 // TestWheelNetIsPullNet: the net pull the slip searches read (the
 // netModel short cut, and loadNet's terms worked out once per load) is
-// Pull's Net to the bit, and bigNeg where Pull refuses the load or slip,
+// Pull's Net to the bit (loadNet's gross pull Pull's Gross), and bigNeg where Pull refuses the load or slip,
 // for a tyre on each soil over loads and slips in and out of range.
 func TestWheelNetIsPullNet(t *testing.T) {
 	t.Parallel()
@@ -29,9 +29,9 @@ func TestWheelNetIsPullNet(t *testing.T) {
 		}
 		for _, load := range loads {
 			for _, slip := range slips {
-				want := bigNeg
+				want, wantGross := bigNeg, bigNeg
 				if p, err := (Brixius{}).Pull(tyre, s, units.Force(load), slip); err == nil {
-					want = float64(p.Net)
+					want, wantGross = float64(p.Net), float64(p.Gross)
 					checked++
 				}
 				if got := w.net(units.Force(load), slip); math.Float64bits(got) != math.Float64bits(want) {
@@ -40,6 +40,9 @@ func TestWheelNetIsPullNet(t *testing.T) {
 				c := w.at(units.Force(load))
 				if got := c.net(slip); math.Float64bits(got) != math.Float64bits(want) {
 					t.Errorf("%s: at(%g N).net(slip %g) = %v, want %v", s.Name, load, slip, got, want)
+				}
+				if got := c.gross(slip); math.Float64bits(got) != math.Float64bits(wantGross) {
+					t.Errorf("%s: at(%g N).gross(slip %g) = %v, want %v", s.Name, load, slip, got, wantGross)
 				}
 			}
 		}

@@ -118,6 +118,26 @@ func (c *loadNet) net(slip float64) float64 {
 	return c.w.net(c.load, slip)
 }
 
+// gross returns the wheel's gross pull at slip, Pull's Gross, or bigNeg
+// where Pull refuses the load or slip.
+func (c *loadNet) gross(slip float64) float64 {
+	switch {
+	case c.refuse:
+		return bigNeg
+	case c.brixius:
+		if !validSlip(slip) {
+			return bigNeg
+		}
+		gt, _ := c.b.terms(slip)
+		return float64(units.Force(gt * float64(c.load)))
+	}
+	q, err := c.w.model.Pull(c.w.tyre, c.w.surface, c.load, slip)
+	if err != nil {
+		return bigNeg
+	}
+	return float64(q.Gross)
+}
+
 func (w Wheel) check(load units.Force) error {
 	if w.model == nil {
 		return rangeErr(ErrInput, "wheel", 0.0, "built with NewWheel")
@@ -234,14 +254,8 @@ func (w Wheel) FreeRolling(load units.Force) (Pull, error) {
 }
 
 func (w Wheel) freeSlip(load units.Force) (float64, bool) {
-	gross := func(x float64) float64 {
-		q, err := w.model.Pull(w.tyre, w.surface, load, x)
-		if err != nil {
-			return bigNeg
-		}
-		return float64(q.Gross)
-	}
-	return brent(gross, MinSlip, SlipCeiling, gross(MinSlip), gross(SlipCeiling), slipTol)
+	c := w.at(load)
+	return brent(c.gross, MinSlip, SlipCeiling, c.gross(MinSlip), c.gross(SlipCeiling), slipTol)
 }
 
 // State is a wheel's pull together with its speeds, torque and the split of
