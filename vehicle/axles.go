@@ -345,6 +345,59 @@ func (a *axles) rolling() float64 {
 	return a.nf*float64(a.front.RollingLoss) + a.nr*float64(a.rear.RollingLoss)
 }
 
+// axlePair is what the solves of one two-axle point share, a function of
+// the tyres, the pull and the demand alone: both axles under their loads,
+// the turn's front to rear speed ratio k, the range [lo, hi] of the front
+// axle's net pull, the search's start x0 (the front wheels rolling free)
+// and the rolling radii.
+type axlePair struct {
+	front, rear   axle
+	k, lo, hi, x0 float64
+	rf, rr        float64
+}
+
+// newAxlePair returns the axle pair of a two-axle point at net pull pull
+// (>= 0) on ty.
+func newAxlePair(ty Tyres, pull float64, d Demand) (axlePair, error) {
+	if ty.Model == nil {
+		return axlePair{}, invalid("Tyres.Model", math.NaN(), "is required")
+	}
+	k := 1.0
+	if d.TurnRadius > 0 {
+		g, err := ty.Vehicle.Turn(d.TurnRadius)
+		if err != nil {
+			return axlePair{}, errors.Join(ErrInvalid, err)
+		}
+		k = g.SpeedRatio
+	}
+	loads, err := ty.Vehicle.DynamicLoads(units.Force(pull), 0)
+	if err != nil {
+		return axlePair{}, tractionErr(err)
+	}
+	fa, err := newAxle(ty.Vehicle.Front, ty.Surface, ty.Model, loads.Front, units.Speed(k*float64(d.Speed)))
+	if err != nil {
+		return axlePair{}, tractionErr(err)
+	}
+	ra, err := newAxle(ty.Vehicle.Rear, ty.Surface, ty.Model, loads.Rear, d.Speed)
+	if err != nil {
+		return axlePair{}, tractionErr(err)
+	}
+	// The front axle's net pull lies between its overrun and its greatest
+	// pull, and leaves the rear between its own.
+	lo := math.Max(fa.nLo, (pull-ra.nMax)/k)
+	hi := math.Min(fa.nMax, (pull-ra.nLo)/k)
+	if !(lo < hi) {
+		return axlePair{}, &LimitError{Quantity: "pull of both axles", Value: units.Of(units.Force(pull)), Bound: "greatest pull of both axles",
+			Limit: units.Of(units.Force(fa.nMax*k + ra.nMax)), Err: ErrTraction}
+	}
+	x0 := 0.0
+	if fr, err := fa.w.FreeRolling(fa.load); err == nil {
+		x0 = fa.n * float64(fr.Net)
+	}
+	return axlePair{front: fa, rear: ra, k: k, lo: lo, hi: hi, x0: math.Min(math.Max(x0, lo), hi),
+		rf: float64(ty.Vehicle.Front.Tyre.RollingRadius), rr: float64(ty.Vehicle.Rear.Tyre.RollingRadius)}, nil
+}
+
 // solveAxles solves the point of a vehicle whose front axle is driven by
 // the transmission's front output: the front axle's net pull N_f is found
 // so that the front wheels' torque the transmission gives equals the
@@ -354,33 +407,15 @@ func (a *axles) rolling() float64 {
 // load gives back (downhill, slowing) and brake (in [0, relief]) the part
 // of it the service brakes take: the rest is taken off the rear wheels'
 // torque, which turns negative (overrun) when it exceeds what they need.
-func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief, brake float64, d Demand, w units.AngularVelocity, rng int, setting float64) (axles, error) {
-	if ty.Model == nil {
-		return axles{}, invalid("Tyres.Model", math.NaN(), "is required")
-	}
-	k := 1.0
-	if d.TurnRadius > 0 {
-		g, err := ty.Vehicle.Turn(d.TurnRadius)
-		if err != nil {
-			return axles{}, errors.Join(ErrInvalid, err)
-		}
-		k = g.SpeedRatio
-	}
-	loads, err := ty.Vehicle.DynamicLoads(units.Force(pull), 0)
-	if err != nil {
-		return axles{}, tractionErr(err)
-	}
-	fa, err := newAxle(ty.Vehicle.Front, ty.Surface, ty.Model, loads.Front, units.Speed(k*float64(d.Speed)))
-	if err != nil {
-		return axles{}, tractionErr(err)
-	}
-	ra, err := newAxle(ty.Vehicle.Rear, ty.Surface, ty.Model, loads.Rear, d.Speed)
-	if err != nil {
-		return axles{}, tractionErr(err)
-	}
+// pr is the point's axle pair at pull.
+func (v *Vehicle) solveAxles(at AxleTransmission, pr *axlePair, pull, relief, brake float64, w units.AngularVelocity, rng int, setting float64) (axles, error) {
+	// Copies: each solve's searches start afresh (axle.last), so a
+	// solve's result depends on its arguments alone.
+	fa, ra := pr.front, pr.rear
+	k, lo, hi, x0 := pr.k, pr.lo, pr.hi, pr.x0
 	fd, fEff := at.FrontFinalDrive()
 	rfd, rEff := v.s.FinalDrive, v.s.FinalDriveEfficiency
-	rf, rr := float64(ty.Vehicle.Front.Tyre.RollingRadius), float64(ty.Vehicle.Rear.Tyre.RollingRadius)
+	rf, rr := pr.rf, pr.rr
 	var sol axles
 	// g(N_f): front wheel torque given minus front wheel torque needed.
 	g := func(nfront float64) (float64, error) {
@@ -411,21 +446,8 @@ func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief, brake 
 		sol = axles{front: fs, rear: rs, nf: fa.n, nr: ra.n, dp: dp, frontWheelT: tf, rearWheelT: tr, brake: brake}
 		return tf - fa.n*float64(fs.Gross)*rf, nil
 	}
-	// The front axle's net pull lies between its overrun and its greatest
-	// pull, and leaves the rear between its own.
-	lo := math.Max(fa.nLo, (pull-ra.nMax)/k)
-	hi := math.Min(fa.nMax, (pull-ra.nLo)/k)
-	if !(lo < hi) {
-		return axles{}, &LimitError{Quantity: "pull of both axles", Value: units.Of(units.Force(pull)), Bound: "greatest pull of both axles",
-			Limit: units.Of(units.Force(fa.nMax*k + ra.nMax)), Err: ErrTraction}
-	}
 	// Start with the front wheels free (no torque), then step towards the
 	// torque the transmission gives them until the sign changes.
-	x0 := 0.0
-	if fr, err := fa.w.FreeRolling(fa.load); err == nil {
-		x0 = fa.n * float64(fr.Net)
-	}
-	x0 = math.Min(math.Max(x0, lo), hi)
 	g0, err := g(x0)
 	if err != nil {
 		return axles{}, err
@@ -503,20 +525,20 @@ func (v *Vehicle) solveAxles(at AxleTransmission, ty Tyres, pull, relief, brake 
 // axlesAt solves the two-axle point for At: with the FrontLeastPower
 // control the front setting of least engine power, else the
 // transmission's own.
-func (v *Vehicle) axlesAt(at AxleTransmission, ty Tyres, pull, relief, brake float64, d Demand, w units.AngularVelocity, rng int) (axles, error) {
+func (v *Vehicle) axlesAt(at AxleTransmission, pr *axlePair, pull, relief, brake float64, w units.AngularVelocity, rng int) (axles, error) {
 	fm, ok := at.(*FrontMotorDrive)
 	if !ok || fm.control != FrontLeastPower || fm.declutched(rng) || relief > 0 {
-		return v.solveAxles(at, ty, pull, relief, brake, d, w, rng, math.NaN())
+		return v.solveAxles(at, pr, pull, relief, brake, w, rng, math.NaN())
 	}
 	hi := fm.info.MaxSetting
 	// The schedule's own setting is the first candidate, so the search
 	// never ends above it.
 	best, bestP := axles{}, math.Inf(1)
-	if a, err := v.solveAxles(at, ty, pull, relief, brake, d, w, rng, math.NaN()); err == nil {
+	if a, err := v.solveAxles(at, pr, pull, relief, brake, w, rng, math.NaN()); err == nil {
 		best, bestP = a, float64(a.dp.InputTorque)
 	}
 	power := func(x float64) float64 {
-		a, err := v.solveAxles(at, ty, pull, relief, brake, d, w, rng, x)
+		a, err := v.solveAxles(at, pr, pull, relief, brake, w, rng, x)
 		if err != nil {
 			return math.Inf(1)
 		}
@@ -539,7 +561,7 @@ func (v *Vehicle) axlesAt(at AxleTransmission, ty Tyres, pull, relief, brake flo
 		bx = best.dp.FrontSetting
 	}
 	if math.IsNaN(bx) {
-		return v.solveAxles(at, ty, pull, relief, brake, d, w, rng, math.NaN())
+		return v.solveAxles(at, pr, pull, relief, brake, w, rng, math.NaN())
 	}
 	step := 2 * hi / n
 	numeric.Minimize(power, math.Max(-hi, bx-step), math.Min(hi, bx+step), 1e-3)
@@ -548,8 +570,8 @@ func (v *Vehicle) axlesAt(at AxleTransmission, ty Tyres, pull, relief, brake flo
 
 // axlesPoint solves the two-axle drive of At and fills p's slips, drive,
 // flows and flags; it returns the torque the transmission takes from the
-// engine.
-func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pull float64, d Demand, w units.AngularVelocity, rng int, ptoTorque units.Torque) (units.Torque, error) {
+// engine. memo (nil: none) holds the demand's axle pair.
+func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pull float64, d Demand, w units.AngularVelocity, rng int, ptoTorque units.Torque, memo *tyreMemo) (units.Torque, error) {
 	ty, ok := ground.(Tyres)
 	if !ok {
 		return 0, invalid("Traction", math.NaN(), "a transmission that drives both axles needs Tyres as its ground")
@@ -557,7 +579,12 @@ func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pul
 	vs := float64(d.Speed)
 	relief := math.Max(0, -pull*vs)
 	rng = min(max(rng, 0), at.Ranges()-1)
-	a, err := v.axlesAt(at, ty, math.Max(pull, 0), relief, 0, d, w, rng)
+	var buf axlePair
+	pair, err := memo.axles(&buf, ty, math.Max(pull, 0), d)
+	if err != nil {
+		return 0, err
+	}
+	a, err := v.axlesAt(at, pair, math.Max(pull, 0), relief, 0, w, rng)
 	if err != nil {
 		return 0, err
 	}
@@ -566,7 +593,7 @@ func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pul
 		// the service brakes take the rest of the power given back.
 		var ferr error
 		h := func(b float64) float64 {
-			x, err := v.axlesAt(at, ty, math.Max(pull, 0), relief, b, d, w, rng)
+			x, err := v.axlesAt(at, pair, math.Max(pull, 0), relief, b, w, rng)
 			if err != nil {
 				ferr = err
 				return math.NaN()

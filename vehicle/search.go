@@ -21,6 +21,9 @@ type tyreMemo struct {
 	driveDone bool
 	wheels    Wheels
 	driveErr  error
+	axlesDone bool
+	pair      axlePair
+	axlesErr  error
 }
 
 // validate returns d.Validate(), once per memo.
@@ -59,6 +62,22 @@ func (m *tyreMemo) drive(ground Traction, pull units.Force, d Demand) (Wheels, e
 		m.driveDone = true
 	}
 	return m.wheels, m.driveErr
+}
+
+// axles returns the axle pair of a two-axle point of d at net pull pull
+// (>= 0) on t, once per memo; a nil memo makes it anew in *buf. The pair
+// is not to be changed: each solve copies the axles it searches.
+func (m *tyreMemo) axles(buf *axlePair, t Tyres, pull float64, d Demand) (*axlePair, error) {
+	if m == nil {
+		var err error
+		*buf, err = newAxlePair(t, pull, d)
+		return buf, err
+	}
+	if !m.axlesDone {
+		m.pair, m.axlesErr = newAxlePair(t, pull, d)
+		m.axlesDone = true
+	}
+	return &m.pair, m.axlesErr
 }
 
 // A search is one demand solved at many engine speeds and ranges, as the

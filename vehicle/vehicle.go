@@ -309,7 +309,7 @@ func (v *Vehicle) at(d Demand, w units.AngularVelocity, rng int, ty *tyreMemo, b
 	}
 	at, axleDrive := s.Transmission.(AxleTransmission)
 	if vs > 0 && axleDrive {
-		t, err := v.axlesPoint(&p, at, ground, pull, d, w, rng, ptoTorque)
+		t, err := v.axlesPoint(&p, at, ground, pull, d, w, rng, ptoTorque, ty)
 		if err != nil {
 			return Point{}, err
 		}
