@@ -285,6 +285,32 @@ func BenchmarkFrontMotorAt(b *testing.B) {
 	}
 }
 
+// BenchmarkFrontLeastPowerAt is one two-axle point with the least-power
+// front control: the split solved at some twenty front settings.
+func BenchmarkFrontLeastPowerAt(b *testing.B) {
+	v := axVehicle(b, true, vehicle.FrontLeastPower)
+	d := vehicle.Demand{Speed: units.KMH(7), Draft: units.Kilonewtons(22)}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := v.At(d, units.RPM(1800), 0); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkFrontMotorLeastFuel is one least-fuel search of a two-axle
+// point: the split solved at the engine speeds and ranges it tries.
+func BenchmarkFrontMotorLeastFuel(b *testing.B) {
+	v := axVehicle(b, true, vehicle.FrontSchedule)
+	d := vehicle.Demand{Speed: units.KMH(7), Draft: units.Kilonewtons(22)}
+	b.ReportAllocs()
+	for b.Loop() {
+		if _, err := (vehicle.LeastFuel{}).Operate(v, d); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
 // TestPropertyFrontMotorFlows: at random two-axle points (straight or in a
 // turn, with or without draft) that solve, the flows close, the axles'
 // slip losses add up to the slip loss, and each axle travels at the speed
