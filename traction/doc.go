@@ -32,16 +32,17 @@
 //
 // # Models
 //
-// Brixius (1987), as given in ASABE D497.7 (2011), for bias-ply tyres
-// (the constants below are the bias-ply set; radial-ply tyres are not built
-// in). Cone index CI, section width b, unloaded diameter d, section height
+// Brixius, the equations of ASAE paper 87-1622 (1987) as given in ASABE
+// D497.7 (2011), for bias-ply tyres (the constants below are the bias-ply
+// set; radial-ply tyres are not built in). Cone index CI, section width b, unloaded diameter d, section height
 // h, deflection δ:
 //
 //	Bn = (CI·b·d/W)·(1 + 5δ/h)/(1 + 3b/d)         mobility number
 //	GT = 0.88·(1 − e^(−0.1·Bn))·(1 − e^(−7.5·s)) + 0.04
 //	MR = 1/Bn + 0.04 + 0.5·s/√Bn
 //
-// Wismer and Luth (1974), with its own wheel numeric Cn = CI·b·d/W:
+// WismerLuth, the equations of Transactions of the ASAE 17(1) (1974), with
+// its own wheel numeric Cn = CI·b·d/W:
 //
 //	NT = 0.75·(1 − e^(−0.3·Cn·s)) − (1.2/Cn + 0.04)
 //	MR = 1.2/Cn + 0.04,   GT = NT + MR
@@ -52,8 +53,9 @@
 //
 // # Gee-Clough model
 //
-// GeeClough is the model of Gee-Clough et al. (1978), with the mobility
-// number after Dwyer et al. It needs the tyre deflection δ > 0:
+// GeeClough is the model of Journal of Terramechanics 15(2): 81–94 (1978),
+// with the mobility number after a further source. It needs the tyre
+// deflection δ > 0:
 //
 //	M     = (CI·b·d/W)·√(δ/h)/(1 + b/(2d))       mobility number
 //	CTmax = 0.796 − 0.92/M,   k·CTmax = 4.838 + 0.061·M
@@ -153,15 +155,14 @@
 // # Sources
 //
 //   - ASABE D497.7 (2011), Agricultural Machinery Management Data: traction
-//     equations after Brixius (1987), soil conditions, slip and tractive
-//     efficiency tables.
-//   - Brixius, W. W. (1987), Traction prediction equations for bias ply
-//     tires, ASAE paper 87-1622.
-//   - Wismer, R. D. and Luth, H. J. (1974), Off-road traction prediction
-//     for wheeled vehicles, Transactions of the ASAE 17(1).
-//   - Gee-Clough, D., McAllister, M., Pearson, G. and Evernden, D. W.
-//     (1978), The empirical prediction of tractor-implement field
-//     performance, Journal of Terramechanics 15(2): 81–94.
+//     equations after ASAE paper 87-1622 (1987), soil conditions, slip and
+//     tractive efficiency tables.
+//   - ASAE paper 87-1622 (1987), Traction prediction equations for bias ply
+//     tires.
+//   - Transactions of the ASAE 17(1) (1974), Off-road traction prediction
+//     for wheeled vehicles.
+//   - Journal of Terramechanics 15(2): 81–94 (1978), The empirical
+//     prediction of tractor-implement field performance.
 //   - ASABE EP496 (agricultural machinery management): recommended weight
 //     distributions.
 package traction

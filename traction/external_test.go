@@ -35,9 +35,9 @@ var frontTyre = traction.Tyre{
 // standard evaluated independently, at three mobility numbers.
 func TestBrixiusPoints(t *testing.T) {
 	t.Parallel()
-	// Source: ASABE D497.7 (2011), traction equations after Brixius (1987),
-	// bias-ply constants; expected values are the published equations
-	// evaluated by hand calculation at the given Bn and slip.
+	// Source: ASABE D497.7 (2011), traction equations after ASAE paper
+	// 87-1622 (1987), bias-ply constants; expected values are the published
+	// equations evaluated by hand calculation at the given Bn and slip.
 	want := func(bn, s float64) (gt, mr, nt, te float64) {
 		gt = 0.88*(1-math.Exp(-0.1*bn))*(1-math.Exp(-7.5*s)) + 0.04
 		mr = 1/bn + 0.04 + 0.5*s/math.Sqrt(bn)
@@ -98,7 +98,8 @@ func TestBrixiusPoints(t *testing.T) {
 // TestWismerLuthPoint checks the Wismer–Luth model at one point.
 func TestWismerLuthPoint(t *testing.T) {
 	t.Parallel()
-	// Source: Wismer and Luth (1974), Transactions of the ASAE 17(1):
+	// Source: Off-road traction prediction for wheeled vehicles (1974),
+	// Transactions of the ASAE 17(1):
 	// NT = 0.75(1 − e^(−0.3·Cn·s)) − (1.2/Cn + 0.04). Hand calculation at
 	// Cn = 1200e3·0.47·1.85/25e3 = 41.736, s = 0.1:
 	// NT = 0.75(1 − e^(−1.25208)) − (0.028752 + 0.04) = 0.535568 − 0.068752 = 0.466816.
@@ -118,8 +119,8 @@ func TestWismerLuthPoint(t *testing.T) {
 // TestBrixiusLimits checks limits the published equations imply.
 func TestBrixiusLimits(t *testing.T) {
 	t.Parallel()
-	// Source: ASABE D497.7 (2011), Brixius (1987): as Bn → ∞ and s → 1,
-	// GT → 0.88 + 0.04 = 0.92 less 0.88·e^(−7.5); MR → 0.04.
+	// Source: ASABE D497.7 (2011), ASAE paper 87-1622 (1987): as Bn → ∞
+	// and s → 1, GT → 0.88 + 0.04 = 0.92 less 0.88·e^(−7.5); MR → 0.04.
 	hard := traction.Surface{ConeIndex: units.Megapascals(1e4)}
 	p, err := traction.Brixius{}.Pull(rearTyre, hard, units.Kilonewtons(1), 0.999999)
 	if err != nil {

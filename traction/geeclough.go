@@ -7,7 +7,7 @@ import (
 	"github.com/powersplit-dev/powersplit/units"
 )
 
-// Constants of the Gee-Clough et al. (1978) equations.
+// Constants of the equations of Journal of Terramechanics 15(2) (1978).
 const (
 	gcCTmaxA = 0.796 // CTmax = gcCTmaxA − gcCTmaxB/M
 	gcCTmaxB = 0.92
@@ -22,8 +22,9 @@ const (
 // coefficient CTmax = 0.796 − 0.92/M is not positive.
 const GeeCloughMinMobility = gcCTmaxB / gcCTmaxA
 
-// GeeClough is the traction model of Gee-Clough, McAllister, Pearson and
-// Evernden (1978), with the mobility number after Dwyer et al. Cone index
+// GeeClough is the traction model of The empirical prediction of
+// tractor-implement field performance, Journal of Terramechanics 15(2):
+// 81–94 (1978), with the mobility number after a further source. Cone index
 // C, section width b, unloaded diameter d, section height h, deflection δ,
 // wheel load W, slip s:
 //

@@ -46,9 +46,10 @@ type gcRow struct {
 // Source: Table 5.2, "Predicted Tractive Performance Parameters for a
 // 9.5 x 24 Agricultural Drive Tire", as quoted in an assignment at
 // https://askfilo.com/user-question-answers-smart-solutions/heres-the-question-image-ct-max-the-maximum-coefficient-of-3432343237303130
-// (the relationships attributed there to Gee-Clough et al.; the equations'
-// origin is Gee-Clough, McAllister, Pearson and Evernden (1978), Journal of
-// Terramechanics 15(2): 81–94). Columns (CT)max, k·(CT)max, CRR, ηmax.
+// (the relationships attributed there to the authors of the paper below;
+// the equations' origin is The empirical prediction of tractor-implement
+// field performance (1978), Journal of Terramechanics 15(2): 81–94).
+// Columns (CT)max, k·(CT)max, CRR, ηmax.
 var gcRows = []gcRow{
 	{"Bad", 0.47, 5.01, 0.15, 0.61, 0.005, 0.005, 0.005, 0.005},
 	{"Average", 0.70, 5.43, 0.08, 0.74, 0.005, 0.005, 0.005, 0.005},
@@ -82,8 +83,8 @@ func gcEval(t *testing.T, c units.Pressure) (co traction.GeeCloughCoefficients, 
 // Source: Table 5.2, "Predicted Tractive Performance Parameters for a
 // 9.5 x 24 Agricultural Drive Tire", row "Bad", quoted at
 // https://askfilo.com/user-question-answers-smart-solutions/heres-the-question-image-ct-max-the-maximum-coefficient-of-3432343237303130
-// with equations of Gee-Clough et al. (1978). Stated inputs: load 7 kN,
-// b = 0.24 m, d = 1.04 m, ratio 0.2 (δ/h, see gcTableTyre), cone index
+// with equations of Journal of Terramechanics 15(2) (1978). Stated inputs:
+// load 7 kN, b = 0.24 m, d = 1.04 m, ratio 0.2 (δ/h, see gcTableTyre), cone index
 // C = 200 kPa for bad conditions. Each published value is checked to half
 // a unit of its printed last digit. The mobility number is not printed in
 // the table; 2.859 is the equation evaluated by hand.
@@ -118,7 +119,8 @@ func TestGeeCloughPublishedBad(t *testing.T) {
 		}
 	}
 	// The lead's hand evaluation of the same equations, to four digits.
-	// Source: Gee-Clough et al. (1978) equations, hand calculation.
+	// Source: Journal of Terramechanics 15(2) (1978) equations, hand
+	// calculation.
 	hand := []struct {
 		name      string
 		got, want float64
@@ -148,7 +150,7 @@ func TestGeeCloughPublishedBad(t *testing.T) {
 // Source: Table 5.2, "Predicted Tractive Performance Parameters for a
 // 9.5 x 24 Agricultural Drive Tire", rows "Average" and "Good", quoted at
 // https://askfilo.com/user-question-answers-smart-solutions/heres-the-question-image-ct-max-the-maximum-coefficient-of-3432343237303130
-// with equations of Gee-Clough et al. (1978).
+// with equations of Journal of Terramechanics 15(2) (1978).
 //
 // Computed bands (this test at its writing): Average, M in [9.11, 10.11]:
 // k·CTmax [5.394, 5.455] (published 5.43), CRR [0.0774, 0.0805] (0.08),
@@ -197,8 +199,8 @@ func TestGeeCloughPullEquations(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	// Source: Gee-Clough et al. (1978) equations as given in the
-	// GeeClough doc comment, evaluated here from M alone.
+	// Source: Journal of Terramechanics 15(2) (1978) equations as given in
+	// the GeeClough doc comment, evaluated here from M alone.
 	m := co.Mobility
 	ctMax := 0.796 - 0.92/m
 	k := (4.838 + 0.061*m) / ctMax

@@ -70,7 +70,7 @@ type SlopeModel interface {
 // −s as the driving-wheel equations extrapolated would (Brixius at −12 %
 // slip would brake with 1.24 times the wheel load).
 //
-// From memory: Wong, Theory of Ground Vehicles (3rd ed., 2001), ch. 2: a
+// From memory: Theory of Ground Vehicles (3rd ed., 2001), ch. 2: a
 // braked tyre develops its braking force by the same shearing of the soil
 // as a driven one, bounded by the soil's shear strength; the mirror of the
 // driving curve is this package's choice of that bound.
@@ -144,8 +144,8 @@ func checkSoil(t Tyre, s Surface) error {
 	return nil
 }
 
-// Brixius is the traction model of Brixius (1987) for bias-ply tyres, as
-// given in ASABE D497.7 (2011):
+// Brixius is the traction model of ASAE paper 87-1622 (1987) for bias-ply
+// tyres, as given in ASABE D497.7 (2011):
 //
 //	Bn = (CI·b·d/W)·(1 + 5δ/h)/(1 + 3b/d)
 //	GT = 0.88·(1 − e^(−0.1·Bn))·(1 − e^(−7.5·s)) + 0.04
@@ -254,10 +254,11 @@ func (b brixiusAtLoad) netSlope(load units.Force, slip float64) (net, slope floa
 // The ranges of b/d and δ/h the Brixius equations are used within without
 // a flag.
 //
-// From memory: ASABE D497.7 (2011) gives the Brixius (1987) equations for
-// bias-ply tyres, fitted to tyres near b/d = 0.3 and δ/h = 0.2 (the factor
-// (1 + 5δ/h)/(1 + 3b/d) carries them to other tyres); the bands of ±0.1
-// around those values are this package's choice, not the standard's.
+// From memory: ASABE D497.7 (2011) gives the equations of ASAE paper
+// 87-1622 (1987) for bias-ply tyres, fitted to tyres near b/d = 0.3 and
+// δ/h = 0.2 (the factor (1 + 5δ/h)/(1 + 3b/d) carries them to other tyres);
+// the bands of ±0.1 around those values are this package's choice, not the
+// standard's.
 const (
 	brixiusBDMin, brixiusBDMax = 0.2, 0.4
 	brixiusDHMin, brixiusDHMax = 0.1, 0.3
@@ -288,7 +289,8 @@ func join(a, b string) string {
 	return a + "; " + b
 }
 
-// WismerLuth is the traction model of Wismer and Luth (1974) with its wheel
+// WismerLuth is the traction model of Off-road traction prediction for
+// wheeled vehicles, Transactions of the ASAE 17(1) (1974), with its wheel
 // numeric Cn = CI·b·d/W:
 //
 //	NT = 0.75·(1 − e^(−0.3·Cn·s)) − (1.2/Cn + 0.04)

@@ -50,18 +50,18 @@ func goldenMax(f func(float64) float64, a, b, tol float64) (x, fx float64) {
 // differ in sign (or one is zero). It starts from x0 when x0 lies inside
 // (a, b), else from the secant point of the ends. Every value narrows the
 // bracket; a step that would leave it, or that did not halve the step
-// before last (the slope misleads), bisects it instead (Press et al.'s
-// safeguard, so it is never much slower than bisection). A step shorter
+// before last (the slope misleads), bisects it instead (the safeguard of
+// Numerical Recipes, so it is never much slower than bisection). A step shorter
 // than tol1 = 2·ε·|x| + tol/2 (Brent's) is lengthened to tol1, so that once
 // Newton has converged the next value lies across the root and the
 // bracket closes. It returns, once the bracket is at most 2·tol1 wide (as
 // Brent's method does), the end of smaller |f|; ok is false on a NaN value
 // or after maxIter values.
 //
-// Source: W. H. Press, S. A. Teukolsky, W. T. Vetterling and B. P.
-// Flannery, Numerical Recipes (3rd ed., 2007), section 9.4 (rtsafe: Newton
-// with bisection); the stopping rule and tol1 are Brent's (1973,
-// chapter 4), as internal/numeric.Brent has them.
+// Source: Numerical Recipes (3rd ed., 2007), section 9.4 (rtsafe: Newton
+// with bisection); the stopping rule and tol1 are those of Brent's method
+// (Algorithms for Minimization without Derivatives, 1973, chapter 4), as
+// internal/numeric.Brent has them.
 func newtonBracket(fd func(float64) (float64, float64), a, b, fa, fb, x0, tol float64, maxIter int) (x float64, ok bool) {
 	if fa == 0 {
 		return a, true

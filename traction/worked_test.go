@@ -23,7 +23,7 @@ import (
 // the loss power R_r·V), against independently printed numbers; it says
 // nothing about how f varies with speed, which the package does not model.
 //
-// Source: J. Y. Wong, Solutions Manual to Accompany Theory of Ground
+// Source: Solutions Manual to Accompany Theory of Ground
 // Vehicles, Fourth Edition, Chapter 1, first problem (solution and
 // table), read from a public scanned copy of the manual. From memory: the
 // fourth edition is dated 2008 (the year is not in the text read).
