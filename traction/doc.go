@@ -34,8 +34,8 @@
 //
 // Brixius, the equations of ASAE paper 87-1622 (1987) as given in ASABE
 // D497.7 (2011), for bias-ply tyres (the constants below are the bias-ply
-// set; radial-ply tyres are not built in). Cone index CI, section width b, unloaded diameter d, section height
-// h, deflection δ:
+// set; radial-ply tyres are not built in). Cone index CI, section width b,
+// unloaded diameter d, section height h, deflection δ:
 //
 //	Bn = (CI·b·d/W)·(1 + 5δ/h)/(1 + 3b/d)         mobility number
 //	GT = 0.88·(1 − e^(−0.1·Bn))·(1 − e^(−7.5·s)) + 0.04
