@@ -163,7 +163,7 @@ func TestFrontMotorPoint(t *testing.T) {
 // TestFrontMotorTurn checks the front axle's speed in a turn against the
 // Ackermann steering geometry.
 //
-// Source: Gillespie, T. D. (1992), Fundamentals of Vehicle Dynamics, SAE,
+// Source: Fundamentals of Vehicle Dynamics (1992), SAE,
 // ch. 8, Ackerman steering geometry: with wheelbase L, track t and the
 // rear axle's centre on radius R, the front wheels steer to
 // tan δ_i = L/(R − t/2) and tan δ_o = L/(R + t/2) and roll on radii

@@ -96,7 +96,7 @@ func TestD497Fuel(t *testing.T) {
 
 func TestRoadRollingCoefficients(t *testing.T) {
 	t.Parallel()
-	// From memory: Wong, Theory of Ground Vehicles (3rd ed., 2001),
+	// From memory: Theory of Ground Vehicles (3rd ed., 2001),
 	// chapter 1, table of rolling-resistance coefficients (car tyres).
 	tests := []struct {
 		road vehicle.Road

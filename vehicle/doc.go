@@ -147,12 +147,11 @@
 // # Sources
 //
 // ASABE D497.7 (2011), Agricultural Machinery Management Data: implement
-// draft (Table 1) and tractor fuel consumption, after R. D. Grisso,
-// M. F. Kocher and D. H. Vaughan, Predicting tractor fuel consumption,
-// Applied Engineering in Agriculture 20(5), 2004 (from memory). ISO
-// 500-1:2014 for the PTO speeds. J. Y. Wong, Theory of Ground Vehicles, 3rd
-// ed., Wiley, 2001, for road rolling-resistance coefficients. ISO 2533 for
-// the standard air density. The engine's motoring torque: S. K. Chen and
-// P. F. Flynn, Development of a single cylinder compression ignition
-// research engine, SAE paper 650733, 1965 (from memory).
+// draft (Table 1) and tractor fuel consumption, after Predicting tractor
+// fuel consumption, Applied Engineering in Agriculture 20(5), 2004 (from
+// memory). ISO 500-1:2014 for the PTO speeds. Theory of Ground Vehicles,
+// 3rd ed., Wiley, 2001, for road rolling-resistance coefficients. ISO 2533
+// for the standard air density. The engine's motoring torque: Development
+// of a single cylinder compression ignition research engine, SAE paper
+// 650733, 1965 (from memory).
 package vehicle

@@ -218,14 +218,13 @@ func (e *Engine) buildMotoring(s *EngineSpec) error {
 // the mean piston speed, turned into torque for a four-stroke engine by
 // the definition of mean effective pressure, T = FMEP·V_d/(4π).
 //
-// From memory: Chen, S.K. and Flynn, P.F., Development of a single cylinder
-// compression ignition research engine, SAE 650733 (1965), as quoted by
-// Heywood, Internal Combustion Engine Fundamentals (1988), ch. 13; the
-// coefficients were recalled, not re-read. The mean effective pressure
-// relation T = p_me·V_d/(2π·n_c), n_c = 2 revolutions per cycle, is the
-// textbook definition. Motoring FMEP includes pumping losses and the
-// engine's own auxiliaries; an exhaust brake or an engine brake adds to
-// it and belongs in a measured curve.
+// From memory: Development of a single cylinder compression ignition
+// research engine, SAE 650733 (1965), as quoted in Internal Combustion
+// Engine Fundamentals (1988), ch. 13; the coefficients were recalled, not
+// re-read. The mean effective pressure relation T = p_me·V_d/(2π·n_c),
+// n_c = 2 revolutions per cycle, is the textbook definition. Motoring FMEP
+// includes pumping losses and the engine's own auxiliaries; an exhaust
+// brake or an engine brake adds to it and belongs in a measured curve.
 func (e *Engine) MotoringTorque(w units.AngularVelocity) units.Torque {
 	x := math.Abs(float64(w))
 	if e.motHi > 0 {
@@ -383,7 +382,8 @@ func (e *Engine) FuelRate(w units.AngularVelocity, t units.Torque) (units.MassFl
 // PTO power; the engine model applies it to rated engine power.
 //
 // From memory: ASABE D497.7 (2011), section on fuel consumption, after
-// Grisso, Kocher and Vaughan (2004); the coefficients were recalled.
+// Predicting tractor fuel consumption, Applied Engineering in Agriculture
+// 20(5) (2004); the coefficients were recalled.
 func D497Fuel(x, n float64, rated units.Power) units.VolumeFlow {
 	lph := (0.22*x + 0.096) * rated.Kilowatts() * (1 - (n-1)*(0.45*x-0.877))
 	return units.LitresPerHour(lph)

@@ -14,7 +14,7 @@ import (
 // 17^1.3 = 40.30 bar, S_p = 2·0.135·2000/60 = 9.0 m/s, FMEP = 0.137 +
 // 40.30/200 + 0.162·9.0 = 1.7965 bar, T = 1.7965e5·6.8e-3/(4π) = 97.21 N·m.
 // Hand calculation from the correlation as documented (its coefficients
-// from memory: Chen & Flynn, SAE 650733, 1965).
+// from memory: SAE 650733, 1965).
 func TestMotoringChenFlynn(t *testing.T) {
 	t.Parallel()
 	s := demoEngineSpec()

@@ -106,8 +106,8 @@ const (
 // roadCoefficients holds the rolling-resistance coefficients of pneumatic
 // tyres on road surfaces.
 //
-// From memory: the table of rolling-resistance coefficients in Wong,
-// Theory of Ground Vehicles (3rd ed., 2001), chapter 1, for car tyres:
+// From memory: the table of rolling-resistance coefficients in Theory of
+// Ground Vehicles (3rd ed., 2001), chapter 1, for car tyres:
 // concrete/asphalt 0.013, rolled gravel 0.02, tar macadam 0.025, unpaved
 // road 0.05, field 0.1–0.35 (the lower bound is used here).
 var roadCoefficients = [...]struct {

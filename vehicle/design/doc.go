@@ -82,13 +82,13 @@
 // over the duty spectrum, installed displacement and peak pressure).
 //
 // Explore evaluates a space-filling sample: candidate i is point i of
-// Owen's scrambled Halton sequence (the one gonum's samplemv.Halton draws),
-// computed for its index alone, so it depends only on (space, seed, i) and
-// the results are identical for one worker or many. Pareto returns the
-// non-dominated feasible candidates, Best the best by weighted objectives,
-// Refine improves it by gonum's Nelder–Mead (bounds by clamping, integers
-// by single steps). File.Apply turns a candidate into a design file to
-// check, simulate or Save.
+// the scrambled Halton sequence of arXiv:1706.02808 (the one gonum's
+// samplemv.Halton draws), computed for its index alone, so it depends only
+// on (space, seed, i) and the results are identical for one worker or many.
+// Pareto returns the non-dominated feasible candidates, Best the best by
+// weighted objectives, Refine improves it by gonum's Nelder–Mead (bounds by
+// clamping, integers by single steps). File.Apply turns a candidate into a
+// design file to check, simulate or Save.
 //
 // A large search splits into parts: part k of n evaluates the indices
 // i ≡ k (mod n); RunPart writes its CSV (the header names the space and its

@@ -165,11 +165,10 @@ func TestParetoProperty(t *testing.T) {
 // closed-form optimum. For an input-coupled split the hydraulic power
 // share at speed ratio ν is ε(ν) = 1 − νM/ν, νM the ratio of the
 // mechanical point.
-// Source: Kress, J. H. (1968), Hydrostatic power-splitting transmissions
-// for wheeled vehicles — classification and theory of operation, SAE
-// paper 680549; the same relations in Renius, K. T. and Resch, R. (2005),
-// Continuously variable tractor transmissions, ASAE Distinguished Lecture
-// Series No. 29.
+// Source: SAE paper 680549 (1968), Hydrostatic power-splitting
+// transmissions for wheeled vehicles — classification and theory of
+// operation; the same relations in Continuously variable tractor
+// transmissions (2005), ASAE Distinguished Lecture Series No. 29.
 // With the variator's efficiency ηh and lossless gears the overall
 // efficiency is η = 1/(1 + ε(1/ηh − 1)) for ε > 0 and 1/(1 + |ε|(1 − ηh))
 // for circulating power (ε < 0). Choosing νM to maximise the lowest

@@ -149,11 +149,11 @@ func (s Space) Unit(x []float64) []float64 {
 }
 
 // Sampler gives the space-filling sample of a design space: the scrambled
-// Halton sequence of Owen (2017), "A randomized Halton algorithm in R",
-// arXiv:1706.02808, exactly as gonum's stat/samplemv.Halton (Kind Owen)
-// draws it from a PCG source seeded with (seed, seed), but computed for
-// one index at a time, so candidate i depends only on (space, seed, i)
-// and parts of a search never compute each other's points.
+// Halton sequence of "A randomized Halton algorithm in R" (2017),
+// arXiv:1706.02808, exactly as gonum's stat/samplemv.Halton (Kind
+// samplemv.Owen) draws it from a PCG source seeded with (seed, seed), but
+// computed for one index at a time, so candidate i depends only on (space,
+// seed, i) and parts of a search never compute each other's points.
 type Sampler struct {
 	dim   int
 	perms [][][]int // per dimension, per digit: the permutation of the digits

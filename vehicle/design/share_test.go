@@ -50,17 +50,17 @@ func (ls losslessSplit) share(s *powersplit.Solver, st *powersplit.State, out un
 	return st.HydraulicShare, err
 }
 
-// TestSolverOptimumKress: the solver's hydraulic share of a lossless
+// TestSolverOptimumShare: the solver's hydraulic share of a lossless
 // input-coupled split follows ε(ν) = 1 − νM/ν, and a search over the range
 // ratio that minimises the largest |ε| over a required output speed range
 // [ν1, ν2] finds the closed-form optimum νM* = 2·ν1·ν2/(ν1 + ν2), the
 // harmonic mean of the range's ends.
-// Source: Kress, J. H. (1968), Hydrostatic power-splitting transmissions
-// for wheeled vehicles — classification and theory of operation, SAE
-// paper 680549 (the share of an input-coupled split); the optimum by hand
+// Source: SAE paper 680549 (1968), Hydrostatic power-splitting
+// transmissions for wheeled vehicles — classification and theory of
+// operation (the share of an input-coupled split); the optimum by hand
 // from it: |ε| is monotone in ν, so the largest |ε| is least when
 // νM/ν1 − 1 = 1 − νM/ν2.
-func TestSolverOptimumKress(t *testing.T) {
+func TestSolverOptimumShare(t *testing.T) {
 	t.Parallel()
 	ls := losslessSplit{engine: units.RPM(2000), torque: units.NewtonMetres(500)}
 	l1 := ls.layout(t, 1)
@@ -95,14 +95,14 @@ func TestSolverOptimumKress(t *testing.T) {
 		}
 	}
 	nuM := float64(lo+hi) / 2 / float64(ls.engine)
-	// Kress' relation at a few speed ratios.
+	// The share relation of SAE paper 680549 at a few speed ratios.
 	for _, nu := range []float64{0.6 * nuM, 0.8 * nuM, 1.2 * nuM, 1.5 * nuM} {
 		e, err := ls.share(s, &st, units.AngularVelocity(nu*float64(ls.engine)))
 		if err != nil {
 			t.Fatal(err)
 		}
 		if want := 1 - nuM/nu; math.Abs(e-want) > 1e-9 {
-			t.Errorf("share at ν = %.4g: solver %.12g, Kress 1 − νM/ν = %.12g", nu, e, want)
+			t.Errorf("share at ν = %.4g: solver %.12g, 1 − νM/ν = %.12g", nu, e, want)
 		}
 	}
 	// The design problem: output speeds ν1..ν2 (of engine speed) required;
