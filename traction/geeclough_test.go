@@ -84,10 +84,10 @@ func gcEval(t *testing.T, c units.Pressure) (co traction.GeeCloughCoefficients, 
 // 9.5 x 24 Agricultural Drive Tire", row "Bad", quoted at
 // https://askfilo.com/user-question-answers-smart-solutions/heres-the-question-image-ct-max-the-maximum-coefficient-of-3432343237303130
 // with equations of Journal of Terramechanics 15(2) (1978). Stated inputs:
-// load 7 kN, b = 0.24 m, d = 1.04 m, ratio 0.2 (δ/h, see gcTableTyre), cone index
-// C = 200 kPa for bad conditions. Each published value is checked to half
-// a unit of its printed last digit. The mobility number is not printed in
-// the table; 2.859 is the equation evaluated by hand.
+// load 7 kN, b = 0.24 m, d = 1.04 m, ratio 0.2 (δ/h, see gcTableTyre), cone
+// index C = 200 kPa for bad conditions. Each published value is checked to
+// half a unit of its printed last digit. The mobility number is not printed
+// in the table; 2.859 is the equation evaluated by hand.
 func TestGeeCloughPublishedBad(t *testing.T) {
 	t.Parallel()
 	soil := traction.Surface{Name: "bad field", ConeIndex: units.Kilopascals(200)}

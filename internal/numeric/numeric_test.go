@@ -78,8 +78,9 @@ func TestMinimizePublished(t *testing.T) {
 		want float64
 	}{
 		// Source: Computer Methods for Mathematical Computations (1977),
-		// section 8.2: the fmin example minimises x³ − 2x − 5 on [0, 1]; the minimiser is √(2/3)
-		// = 0.81650 (from memory; exact by calculus: f′ = 3x² − 2).
+		// section 8.2: the fmin example minimises x³ − 2x − 5 on [0, 1]; the
+		// minimiser is √(2/3) = 0.81650 (from memory; exact by calculus:
+		// f′ = 3x² − 2).
 		{"cubic", func(x float64) float64 { return x*x*x - 2*x - 5 }, 0, 1, math.Sqrt(2.0 / 3)},
 		// Hand calculation: (x − 2)² + 1 on [−10, 10].
 		{"parabola", func(x float64) float64 { return (x-2)*(x-2) + 1 }, -10, 10, 2},

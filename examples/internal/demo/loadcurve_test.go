@@ -19,8 +19,8 @@ import (
 // transmission plus final drive.
 //
 // From memory (not re-read): Continuously variable tractor transmissions
-// (2005), ASAE publication 913C0305: power-split transmissions about 85–90 % near the
-// mechanical points at full load, falling at part load.
+// (2005), ASAE publication 913C0305: power-split transmissions about 85–90 %
+// near the mechanical points at full load, falling at part load.
 //
 // Findings (the model is not tuned to these): at 25 % load the drive line
 // lies inside the field range at every speed. At full load the
