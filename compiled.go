@@ -549,6 +549,7 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, ev
 	done := false
 	over := 0 // iterates in a row held at ±lim
 	c.held = false
+	var f0 float64 // F(0)
 	for it := 0; it < 30; it++ {
 		*evals++
 		if !c.curve.Torques(units.Pressure(dp), c.settings, c.tau, c.slope) {
@@ -576,6 +577,14 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, ev
 		if bad(step) {
 			return 0, false
 		}
+		switch it {
+		case 0:
+			f0 = f
+		case 1:
+			if over == 0 {
+				step = quadStep(f0, f, df, dp, step)
+			}
+		}
 		if math.Abs(step) <= 1e-13*math.Abs(dp) {
 			// Already balanced to rounding (F linear, as with ideal units,
 			// lands here on the second evaluation): the torques just taken
@@ -602,6 +611,32 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, ev
 		done = math.Abs(step) <= 1e-7*math.Abs(dp)+dpTolAbs
 	}
 	return 0, false
+}
+
+// quadStep returns the second step of newton: the Newton step s = F/F′
+// at the first iterate d, or where the parabola through F(0) = f0, F(d) = f
+// with the slope F′(d) = df has a root near d, at most a tenth of s away,
+// d minus that root. On a side of Δp = 0 where the schedule keeps its
+// branch, F of Wilson units is such a parabola (the floor's quadratic,
+// lossyfloor_test.go), so the next evaluation finds it balanced to
+// rounding and returns: three evaluations a solve rather than four.
+// Elsewhere it is a step near Newton's, and Newton's method goes on.
+func quadStep(f0, f, df, d, s float64) float64 {
+	if d == 0 {
+		return s
+	}
+	// F(d + h) = f + df·h + a·h², with a from F(0) = f0.
+	a := (df*d - f + f0) / (d * d)
+	disc := df*df - 4*a*f
+	if !(disc >= 0) {
+		return s
+	}
+	// The root nearer d, in the form without cancellation.
+	h := -2 * f / (df + math.Copysign(math.Sqrt(disc), df))
+	if !(math.Abs(h+s) <= 0.1*math.Abs(s)) {
+		return s
+	}
+	return -h
 }
 
 // portTorques sets the port torques T = H·b + W·τ (+ z of the drag
