@@ -95,7 +95,7 @@ func TestBrixiusPoints(t *testing.T) {
 	}
 }
 
-// TestWismerLuthPoint checks the Wismer–Luth model at one point.
+// TestWismerLuthPoint checks the WismerLuth model at one point.
 func TestWismerLuthPoint(t *testing.T) {
 	t.Parallel()
 	// Source: Off-road traction prediction for wheeled vehicles (1974),

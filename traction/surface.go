@@ -43,7 +43,7 @@ type Surface struct {
 	// ClassCustom.
 	Class Class
 	// ConeIndex is the soil cone index CI. The soil models (Brixius,
-	// Wismer–Luth, Gee-Clough) need CI > 0; zero means "not a soil".
+	// WismerLuth, GeeClough) need CI > 0; zero means "not a soil".
 	ConeIndex units.Pressure
 	// RollingCoefficient is the rolling-resistance coefficient f (rolling
 	// force over wheel load) of the Road model. Zero means "not given";
