@@ -48,9 +48,9 @@
 // # The Wilson loss model
 //
 // The Wilson model (Trans. ASME 71, 1949, in the form of Proc. IMechE 198B,
-// 1984) takes laminar leakage ∝ D·Δp/μ, viscous drag torque ∝ D·μ·ω,
-// Coulomb friction torque ∝ D·Δp and a constant torque. Here, with D per radian,
-// μ the dynamic viscosity, ρ the density and β the bulk modulus:
+// 1984) takes laminar leakage ∝ D·Δp/μ, viscous drag torque ∝ D·μ·ω, Coulomb
+// friction torque ∝ D·Δp and a constant torque. Here, with D per radian, μ
+// the dynamic viscosity, ρ the density and β the bulk modulus:
 //
 //	L = Cs·D_q·|Δp|/μ  [+ (Cr + |x|)·D_max·|ω|·|Δp|/β  if Compressibility]
 //	τ = Cv·D_t·μ·|ω| + Cf·D_t·|Δp| + p_c·D_t + T_0 + Ch·ρ·ω²·D_t^(5/3)

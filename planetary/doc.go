@@ -59,11 +59,11 @@
 // sum is −loss).
 // This is Müller's method (Epicyclic Drive Trains, 1982), also that of The
 // Mechanical Efficiency of Epicyclic Gear Trains (ASME J. Mech. Des. 115,
-// 1993). Set.TorqueFactors gives the two
-// factors; Set.FlowOf the direction; Set.Torque the full State from one
-// known torque. Where the set turns as a block no power rolls: the loss is
-// zero and the torques are the lossless ones (see Set.Torque for the exact
-// band), so a solver iterating near that point sees no jumps from rounding.
+// 1993). Set.TorqueFactors gives the two factors; Set.FlowOf the direction;
+// Set.Torque the full State from one known torque. Where the set turns as a
+// block no power rolls: the loss is zero and the torques are the lossless
+// ones (see Set.Torque for the exact band), so a solver iterating near that
+// point sees no jumps from rounding.
 //
 // Only mesh losses at constant η0 are modelled: no bearing, churning or
 // windage loss, no load dependence of η0. A set given by FromRatio with i0

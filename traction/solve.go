@@ -51,10 +51,10 @@ func goldenMax(f func(float64) float64, a, b, tol float64) (x, fx float64) {
 // (a, b), else from the secant point of the ends. Every value narrows the
 // bracket; a step that would leave it, or that did not halve the step
 // before last (the slope misleads), bisects it instead (the safeguard of
-// Numerical Recipes, so it is never much slower than bisection). A step shorter
-// than tol1 = 2·ε·|x| + tol/2 (Brent's) is lengthened to tol1, so that once
-// Newton has converged the next value lies across the root and the
-// bracket closes. It returns, once the bracket is at most 2·tol1 wide (as
+// Numerical Recipes, so it is never much slower than bisection). A step
+// shorter than tol1 = 2·ε·|x| + tol/2 (Brent's) is lengthened to tol1, so
+// that once Newton has converged the next value lies across the root and
+// the bracket closes. It returns, once the bracket is at most 2·tol1 wide (as
 // Brent's method does), the end of smaller |f|; ok is false on a NaN value
 // or after maxIter values.
 //
