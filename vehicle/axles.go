@@ -347,13 +347,15 @@ func (a *axles) rolling() float64 {
 
 // axlePair is what the solves of one two-axle point share, a function of
 // the tyres, the pull and the demand alone: both axles under their loads,
-// the turn's front to rear speed ratio k, the range [lo, hi] of the front
-// axle's net pull, the search's start x0 (the front wheels rolling free)
-// and the rolling radii.
+// the pull, the turn's front to rear speed ratio k, the range [lo, hi] of
+// the front axle's net pull, the search's start x0 (the front wheels
+// rolling free), both axles' states there and the rolling radii.
 type axlePair struct {
-	front, rear   axle
-	k, lo, hi, x0 float64
-	rf, rr        float64
+	front, rear         axle
+	pull, k, lo, hi, x0 float64
+	fs0, rs0            traction.State // the axles' states at x0 (at0)
+	at0                 bool
+	rf, rr              float64
 }
 
 // newAxlePair returns the axle pair of a two-axle point at net pull pull
@@ -394,8 +396,20 @@ func newAxlePair(ty Tyres, pull float64, d Demand) (axlePair, error) {
 	if fr, err := fa.w.FreeRolling(fa.load); err == nil {
 		x0 = fa.n * float64(fr.Net)
 	}
-	return axlePair{front: fa, rear: ra, k: k, lo: lo, hi: hi, x0: math.Min(math.Max(x0, lo), hi),
-		rf: float64(ty.Vehicle.Front.Tyre.RollingRadius), rr: float64(ty.Vehicle.Rear.Tyre.RollingRadius)}, nil
+	pr := axlePair{front: fa, rear: ra, pull: pull, k: k, lo: lo, hi: hi, x0: math.Min(math.Max(x0, lo), hi),
+		rf: float64(ty.Vehicle.Front.Tyre.RollingRadius), rr: float64(ty.Vehicle.Rear.Tyre.RollingRadius)}
+	// Every solve asks for both axles at x0 first: their states (and the
+	// slips the next searches start from, as they would after that first
+	// search) are worked out here once. A failing axle is left to the
+	// solves, which report it.
+	fs, errF := pr.front.at(pr.x0)
+	rs, errR := pr.rear.at(pull - k*pr.x0)
+	if errF == nil && errR == nil {
+		pr.fs0, pr.rs0, pr.at0 = fs, rs, true
+	} else {
+		pr.front.last, pr.rear.last = math.NaN(), math.NaN()
+	}
+	return pr, nil
 }
 
 // solveAxles solves the point of a vehicle whose front axle is driven by
@@ -407,25 +421,27 @@ func newAxlePair(ty Tyres, pull float64, d Demand) (axlePair, error) {
 // load gives back (downhill, slowing) and brake (in [0, relief]) the part
 // of it the service brakes take: the rest is taken off the rear wheels'
 // torque, which turns negative (overrun) when it exceeds what they need.
-// pr is the point's axle pair at pull.
-func (v *Vehicle) solveAxles(at AxleTransmission, pr *axlePair, pull, relief, brake float64, w units.AngularVelocity, rng int, setting float64) (axles, error) {
+// pr is the point's axle pair, at its pull.
+func (v *Vehicle) solveAxles(at AxleTransmission, pr *axlePair, relief, brake float64, w units.AngularVelocity, rng int, setting float64) (axles, error) {
 	// Copies: each solve's searches start afresh (axle.last), so a
 	// solve's result depends on its arguments alone.
 	fa, ra := pr.front, pr.rear
-	k, lo, hi, x0 := pr.k, pr.lo, pr.hi, pr.x0
+	pull, k, lo, hi, x0 := pr.pull, pr.k, pr.lo, pr.hi, pr.x0
 	fd, fEff := at.FrontFinalDrive()
 	rfd, rEff := v.s.FinalDrive, v.s.FinalDriveEfficiency
 	rf, rr := pr.rf, pr.rr
 	var sol axles
 	// g(N_f): front wheel torque given minus front wheel torque needed.
 	g := func(nfront float64) (float64, error) {
-		fs, err := fa.at(nfront)
-		if err != nil {
-			return 0, err
-		}
-		rs, err := ra.at(pull - k*nfront)
-		if err != nil {
-			return 0, err
+		fs, rs := pr.fs0, pr.rs0
+		if nfront != x0 || !pr.at0 {
+			var err error
+			if fs, err = fa.at(nfront); err != nil {
+				return 0, err
+			}
+			if rs, err = ra.at(pull - k*nfront); err != nil {
+				return 0, err
+			}
 		}
 		// The rear wheel torque: what their slip needs, less the power the
 		// load gives back that the brakes do not take (negative: overrun).
@@ -525,20 +541,20 @@ func (v *Vehicle) solveAxles(at AxleTransmission, pr *axlePair, pull, relief, br
 // axlesAt solves the two-axle point for At: with the FrontLeastPower
 // control the front setting of least engine power, else the
 // transmission's own.
-func (v *Vehicle) axlesAt(at AxleTransmission, pr *axlePair, pull, relief, brake float64, w units.AngularVelocity, rng int) (axles, error) {
+func (v *Vehicle) axlesAt(at AxleTransmission, pr *axlePair, relief, brake float64, w units.AngularVelocity, rng int) (axles, error) {
 	fm, ok := at.(*FrontMotorDrive)
 	if !ok || fm.control != FrontLeastPower || fm.declutched(rng) || relief > 0 {
-		return v.solveAxles(at, pr, pull, relief, brake, w, rng, math.NaN())
+		return v.solveAxles(at, pr, relief, brake, w, rng, math.NaN())
 	}
 	hi := fm.info.MaxSetting
 	// The schedule's own setting is the first candidate, so the search
 	// never ends above it.
 	best, bestP := axles{}, math.Inf(1)
-	if a, err := v.solveAxles(at, pr, pull, relief, brake, w, rng, math.NaN()); err == nil {
+	if a, err := v.solveAxles(at, pr, relief, brake, w, rng, math.NaN()); err == nil {
 		best, bestP = a, float64(a.dp.InputTorque)
 	}
 	power := func(x float64) float64 {
-		a, err := v.solveAxles(at, pr, pull, relief, brake, w, rng, x)
+		a, err := v.solveAxles(at, pr, relief, brake, w, rng, x)
 		if err != nil {
 			return math.Inf(1)
 		}
@@ -561,7 +577,7 @@ func (v *Vehicle) axlesAt(at AxleTransmission, pr *axlePair, pull, relief, brake
 		bx = best.dp.FrontSetting
 	}
 	if math.IsNaN(bx) {
-		return v.solveAxles(at, pr, pull, relief, brake, w, rng, math.NaN())
+		return v.solveAxles(at, pr, relief, brake, w, rng, math.NaN())
 	}
 	step := 2 * hi / n
 	numeric.Minimize(power, math.Max(-hi, bx-step), math.Min(hi, bx+step), 1e-3)
@@ -584,7 +600,7 @@ func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pul
 	if err != nil {
 		return 0, err
 	}
-	a, err := v.axlesAt(at, pair, math.Max(pull, 0), relief, 0, w, rng)
+	a, err := v.axlesAt(at, pair, relief, 0, w, rng)
 	if err != nil {
 		return 0, err
 	}
@@ -593,7 +609,7 @@ func (v *Vehicle) axlesPoint(p *Point, at AxleTransmission, ground Traction, pul
 		// the service brakes take the rest of the power given back.
 		var ferr error
 		h := func(b float64) float64 {
-			x, err := v.axlesAt(at, pair, math.Max(pull, 0), relief, b, w, rng)
+			x, err := v.axlesAt(at, pair, relief, b, w, rng)
 			if err != nil {
 				ferr = err
 				return math.NaN()
