@@ -92,6 +92,19 @@
 //	p, err := w.SlipForPull(units.Kilonewtons(25), units.Kilonewtons(8))
 //	fmt.Println(p.Slip, p.Efficiency)
 //
+// A solver that asks one wheel for many pulls at one load (an axle of a
+// two-axle point) takes Wheel.Loaded: LoadedWheel.Pull is the model's Pull
+// at that load, with what depends on the load alone worked out once, and
+// LoadedWheel.SlipFor inverts the curve over any slip range, from a start
+// the caller gives (the last slip). A model that is a SlopeModel gives the
+// slope of its net pull in closed form (Brixius, Wismer–Luth and Road do):
+//
+//	dNT/ds = 0.88·(1 − e^(−0.1·Bn))·7.5·e^(−7.5·|s|) − 0.5·sign(s)/√Bn   (Brixius)
+//
+// and SlipFor takes Newton steps on it inside the bracket (bisecting where
+// a step would leave it); any other model is searched by Brent's method.
+// Both stop with the root bracketed within 4·ε·|s| + 1e-13.
+//
 // # Vehicles
 //
 // A Vehicle has a mass, a wheelbase, a centre of mass, a hitch and two

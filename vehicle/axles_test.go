@@ -3,6 +3,7 @@ package vehicle_test
 import (
 	"errors"
 	"math"
+	"reflect"
 	"testing"
 
 	"pgregory.net/rapid"
@@ -282,6 +283,44 @@ func BenchmarkFrontMotorAt(b *testing.B) {
 		if _, err := v.At(d, units.RPM(1800), 0); err != nil {
 			b.Fatal(err)
 		}
+	}
+}
+
+// TestFrontMotorSearchIsAt: a least-fuel search shares one axle pair
+// among the engine speeds and ranges it tries (tyreMemo); the point it
+// returns equals, to the bit, the point At solves on its own at that
+// engine speed and range, for both front controls, straight and in a
+// turn, with draft and downhill (overrun, the brakes' search).
+func TestFrontMotorSearchIsAt(t *testing.T) {
+	t.Parallel()
+	road := axTyres(false)
+	road.Model, road.Surface = traction.Road{}, traction.Asphalt()
+	demands := []vehicle.Demand{
+		{Speed: units.KMH(7), Draft: units.Kilonewtons(22)},
+		{Speed: units.KMH(4), Draft: units.Kilonewtons(12), TurnRadius: units.Metres(8)},
+		{Speed: units.KMH(10), Grade: -0.15, Ground: road},
+	}
+	compared := 0
+	for _, control := range []vehicle.FrontControl{vehicle.FrontSchedule, vehicle.FrontLeastPower} {
+		v := axVehicle(t, true, control)
+		for _, d := range demands {
+			p, err := (vehicle.LeastFuel{}).Operate(v, d)
+			if err != nil {
+				t.Errorf("control %v, %+v: %v", control, d, err)
+				continue
+			}
+			q, err := v.At(d, p.EngineSpeed, p.Range)
+			if err != nil {
+				t.Fatalf("control %v, %+v: At(%v, %d) = %v", control, d, p.EngineSpeed, p.Range, err)
+			}
+			if !reflect.DeepEqual(p, q) {
+				t.Errorf("control %v, %+v: the search's point\n%+v\ndiffers from At's\n%+v", control, d, p, q)
+			}
+			compared++
+		}
+	}
+	if compared < 5 {
+		t.Errorf("only %d points compared", compared)
 	}
 }
 
