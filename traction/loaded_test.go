@@ -235,3 +235,46 @@ func BenchmarkSlipFor(b *testing.B) {
 		})
 	}
 }
+
+// FuzzLoadedSlipFor: Loaded and SlipFor return an error or a slip inside
+// the range, never a panic or NaN; a slip found has the pull asked for
+// between the net pulls just either side of it (the search's bound, and a
+// rounding of the load), for any model, load, range, pull and start.
+func FuzzLoadedSlipFor(f *testing.F) {
+	f.Add(1200.0, 25.0, 8.0, -0.3, 0.4, math.NaN(), 0)
+	f.Add(450.0, 20.0, 0.0, -0.5, 0.9, 0.1, 1)
+	f.Add(900.0, 12.0, 3.0, 0.0, 0.2, 0.5, 2)
+	f.Add(1e9, 1e-9, math.Inf(1), 0.3, 0.1, -1.0, 3)
+	f.Fuzz(func(t *testing.T, ciKPa, loadKN, pullKN, lo, hi, guess float64, model int) {
+		s := traction.Surface{ConeIndex: units.Kilopascals(ciKPa), RollingCoefficient: 0.03}
+		models := []traction.Model{traction.Brixius{}, traction.WismerLuth{}, traction.Road{}, pullOnly{traction.Brixius{}}}
+		w, err := traction.NewWheel(rearTyre, s, models[(model%4+4)%4])
+		if err != nil {
+			return
+		}
+		load := units.Kilonewtons(loadKN)
+		lw, err := w.Loaded(load)
+		if err != nil {
+			return
+		}
+		want := units.Kilonewtons(pullKN)
+		sl, err := lw.SlipFor(want, lo, hi, guess)
+		finiteOrErr(t, err, sl)
+		if err != nil {
+			return
+		}
+		if !(sl >= lo && sl <= hi) {
+			t.Fatalf("SlipFor(%v, %g, %g) = %g outside the range", want, lo, hi, sl)
+		}
+		d := slipTolAt(sl)
+		a, errA := lw.Pull(math.Max(lo, sl-d))
+		b, errB := lw.Pull(math.Min(hi, sl+d))
+		if errA != nil || errB != nil {
+			t.Fatalf("Pull beside the slip %g: %v, %v", sl, errA, errB)
+		}
+		tol := 1e-12 * float64(load)
+		if (float64(a.Net-want) > tol && float64(b.Net-want) > tol) || (float64(a.Net-want) < -tol && float64(b.Net-want) < -tol) {
+			t.Fatalf("SlipFor(%v, %g, %g) = %.17g: no sign change of Net − pull beside it (%v, %v)", want, lo, hi, sl, a.Net-want, b.Net-want)
+		}
+	})
+}
