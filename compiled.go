@@ -113,8 +113,17 @@ const maxPasses = 4
 
 // compiledState is the compiled path's work space in a Solver.
 type compiledState struct {
-	on       bool // the layout has one loop and no drag sources
-	curve    hydrostat.Curve
+	on    bool // the layout has one loop and no drag sources
+	curve hydrostat.Curve
+	// The layout's own loop was last prepared as curve at pump speed
+	// curveWp and motor speeds curveW (bit for bit) where curveOK: a
+	// point at the same speeds (a map's cells along the torque axis)
+	// finds it prepared. Preparing is a function of the loop and the
+	// speeds alone, and Torques and Fill keep nothing of an earlier point
+	// that a later one reads, so the point's result is the same bits.
+	curveOK  bool
+	curveWp  float64
+	curveW   []float64
 	wms      []units.AngularVelocity
 	tau      []units.Torque
 	slope    []units.Displacement
@@ -164,6 +173,7 @@ func (s *Solver) initCompiled() {
 	}
 	nu := len(l.elems[l.loops[0]].shafts)
 	c.wms = make([]units.AngularVelocity, nu-1)
+	c.curveW = make([]float64, nu-1)
 	c.tau, c.slope, c.settings = make([]units.Torque, nu), make([]units.Displacement, nu), make([]float64, nu)
 	c.b = make([]float64, len(l.outputs)+len(l.ptos))
 	c.v = make([]float64, len(c.b)+nu)
@@ -236,13 +246,10 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	}
 	l := s.l
 	el := &l.elems[l.loops[0]]
-	for k := range c.wms {
-		c.wms[k] = units.AngularVelocity(s.w[el.shafts[k+1]])
-	}
 	// The loop as this point runs it: with its held motors (Pinned), or
 	// destroked in a locked range; a schedule the Curve does not serve
 	// leaves the point to the general path.
-	if !s.loopOf(0).Curve(units.AngularVelocity(s.w[el.shafts[0]]), c.wms, &c.curve) {
+	if !s.prepareCurve(el) {
 		return false
 	}
 	c.wmax = 0
@@ -318,6 +325,26 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	s.compErr = nil
 	s.keepGuess(rg, kept, e)
 	return true
+}
+
+// prepareCurve prepares c.curve for the loop of el as the point runs it
+// at the point's speeds, unless it holds the layout's own loop at the same
+// speeds already, and reports whether the loop can be seen as a Curve.
+func (s *Solver) prepareCurve(el *element) bool {
+	c := &s.comp
+	lp, wp := s.loopOf(0), s.w[el.shafts[0]]
+	same := c.curveOK && lp == &el.loop && math.Float64bits(wp) == math.Float64bits(c.curveWp)
+	for k, sh := range el.shafts[1:] {
+		w := s.w[sh]
+		same = same && math.Float64bits(w) == math.Float64bits(c.curveW[k])
+		c.wms[k], c.curveW[k] = units.AngularVelocity(w), w
+	}
+	if same {
+		return true
+	}
+	ok := lp.Curve(units.AngularVelocity(wp), c.wms, &c.curve)
+	c.curveWp, c.curveOK = wp, ok && lp == &el.loop
+	return ok
 }
 
 // settled is where settle leaves a point: the factored system of the

@@ -315,8 +315,8 @@ func TestPropertyCompiledMatchesGeneralDrags(t *testing.T) {
 // TestPropertyCompiledHistoryFree: a point's result does not depend on the
 // points a solver solved before it (the first guess of the directions
 // differs, the result may not): twenty points of a layout around a drawn
-// one, solved forwards by one solver and backwards by another, give the
-// same bits, errors included. Maps rely on it for results identical with
+// one, solved forwards by one solver, backwards by another and speed by
+// speed by a third, give the same bits, errors included. Maps rely on it for results identical with
 // any number of workers, the vehicle's day for answering a repeated
 // demand from memory.
 func TestPropertyCompiledHistoryFree(t *testing.T) {
@@ -358,6 +358,16 @@ func TestPropertyCompiledHistoryFree(t *testing.T) {
 		for i := len(pts) - 1; i >= 0; i-- {
 			if r := get(b, pts[i], &sb); r != fwd[i] {
 				t.Fatalf("%s point %d: forwards %+v, backwards %+v", c.kind, i, fwd[i], r)
+			}
+		}
+		// Along the torque axis (each speed's points in a row: the curve
+		// prepared at the first is kept for the others, prepareCurve).
+		d, sd := NewSolver(c.l), State{Brief: true}
+		for j := range 5 {
+			for i := range 4 {
+				if r := get(d, pts[5*i+j], &sd); r != fwd[5*i+j] {
+					t.Fatalf("%s point %d: forwards %+v, along the torques %+v", c.kind, 5*i+j, fwd[5*i+j], r)
+				}
 			}
 		}
 	})
