@@ -254,24 +254,23 @@ func tractionErr(err error) error {
 }
 
 // axle is one axle of a two-axle point: its wheel under its load per
-// wheel, wheel count, travel speed and the slip range searched. It lives
-// for one point: last, the slip its search found last, starts the next
-// search of the same point (and of no other: a point's result depends on
-// the point alone).
+// wheel, wheel count, travel speed and the slip range searched. last, the
+// slip its search found last, starts its next search: a point's axle pair
+// holds the slips at the split's start, and each solve of the split
+// searches copies of them (its result depends on its arguments alone).
 type axle struct {
-	w     traction.Wheel
-	lw    traction.LoadedWheel
-	load  units.Force // per wheel
-	n     float64
-	v     units.Speed
-	sLo   float64 // lowest slip searched (overrun)
-	sMax  float64 // slip of greatest net pull
-	nLo   float64 // axle net pull at sLo
-	nMax  float64 // axle net pull at sMax
-	wLo   float64 // wheel net pull at sLo
-	wMax  float64 // wheel net pull at sMax
-	last  float64 // slip of the last search (NaN: none yet)
-	model traction.Model
+	w    traction.Wheel
+	lw   traction.LoadedWheel
+	load units.Force // per wheel
+	n    float64
+	v    units.Speed
+	sLo  float64 // lowest slip searched (overrun)
+	sMax float64 // slip of greatest net pull
+	nLo  float64 // axle net pull at sLo
+	nMax float64 // axle net pull at sMax
+	wLo  float64 // wheel net pull at sLo
+	wMax float64 // wheel net pull at sMax
+	last float64 // slip of the last search (NaN: none yet)
 }
 
 func newAxle(a traction.Axle, s traction.Surface, m traction.Model, load units.Force, v units.Speed) (axle, error) {
@@ -279,7 +278,7 @@ func newAxle(a traction.Axle, s traction.Surface, m traction.Model, load units.F
 	if err != nil {
 		return axle{}, err
 	}
-	x := axle{w: w, n: float64(a.Wheels), v: v, last: math.NaN(), model: m}
+	x := axle{w: w, n: float64(a.Wheels), v: v, last: math.NaN()}
 	x.load = units.Force(float64(load) / x.n)
 	if x.lw, err = w.Loaded(x.load); err != nil {
 		return axle{}, err
