@@ -649,17 +649,18 @@ func (s *Solver) newton(e *sysEntry, p *Point, dz, zc []float64, lim float64, ev
 // rounding and returns: three evaluations a solve rather than four.
 // Elsewhere it is a step near Newton's, and Newton's method goes on.
 func quadStep(f0, f, df, d, s float64) float64 {
-	if d == 0 {
+	// F(d + h) = f + df·h + a·h², a = (df·d − f + f0)/d² from F(0) = f0.
+	// The root nearer d in the form without cancellation,
+	// h = −2f/(df + sgn(df)·√(df² − 4af)), is taken times |d|/|d| so that
+	// one division and one square root follow each other (the chain of
+	// Newton's iterates waits on them): h = −2f·|d|/(df·|d| + sgn(df)·√q),
+	// q = (df·d)² − 4f·(df·d − f + f0).
+	ad := math.Abs(d)
+	q := df*d*(df*d) - 4*f*(df*d-f+f0)
+	if !(q >= 0) || d == 0 {
 		return s
 	}
-	// F(d + h) = f + df·h + a·h², with a from F(0) = f0.
-	a := (df*d - f + f0) / (d * d)
-	disc := df*df - 4*a*f
-	if !(disc >= 0) {
-		return s
-	}
-	// The root nearer d, in the form without cancellation.
-	h := -2 * f / (df + math.Copysign(math.Sqrt(disc), df))
+	h := -2 * f * ad / (df*ad + math.Copysign(math.Sqrt(q), df))
 	if !(math.Abs(h+s) <= 0.1*math.Abs(s)) {
 		return s
 	}
