@@ -271,11 +271,11 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 		if e := c.guessE[rg]; e != nil && e.gen == c.guessG[rg] {
 			hint = e
 		}
-		ps, ok = s.settle(r, p, el, c.guessK[rg], c.guessF[rg], hint, lim)
+		ok = s.settle(r, p, c.guessK[rg], c.guessF[rg], hint, lim, &ps)
 	}
 	if !ok {
 		kept = false
-		ps, ok = s.settle(r, p, el, c.losslessK, c.losslessF, nil, lim)
+		ok = s.settle(r, p, c.losslessK, c.losslessF, nil, lim, &ps)
 	}
 	if !ok || ps.held {
 		// A point whose pressure Newton's method pressed beyond the
@@ -362,17 +362,24 @@ type settled struct {
 
 // settle solves p from the directions k, f (the guess, or the lossless
 // set), repeating with the directions read off each solution until they
-// hold, and reports whether they did; the key ports' torques are then in
-// s.t and the charge pumps' in s.dragT. hint, when not nil, is the
-// factored system of k and f in range r.
-func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int8, hint *sysEntry, lim float64) (settled, bool) {
+// hold, and reports whether they did; where it leaves the point is in
+// *ps, the key ports' torques in s.t and the charge pumps' in s.dragT.
+// hint, when not nil, is the factored system of k and f in range r. The
+// directions are copied element by element and ps filled in place: small
+// copies through memmove, and a struct returned by value, cost more than
+// the rest of the call.
+func (s *Solver) settle(r *rangeDef, p *Point, k []float64, f []int8, hint *sysEntry, lim float64, ps *settled) bool {
 	c := &s.comp
-	copy(s.gearK, k)
-	copy(s.pflow, f)
-	var ps settled
+	for i, v := range k {
+		s.gearK[i] = v
+	}
+	for i, v := range f {
+		s.pflow[i] = v
+	}
+	*ps = settled{}
 	for pass := 0; ; pass++ {
 		if pass == maxPasses {
-			return ps, false
+			return false
 		}
 		c.passes++
 		ps.passes = pass + 1
@@ -381,10 +388,10 @@ func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int
 			e = s.entry(r, p)
 		}
 		if !e.ok {
-			return ps, false
+			return false
 		}
 		if pass > 0 && equalK(k, s.gearK) && equalF(f, s.pflow) {
-			return ps, false // back to the first directions: they oscillate
+			return false // back to the first directions: they oscillate
 		}
 		var dz, zc []float64
 		if s.dragRHS != nil {
@@ -407,7 +414,7 @@ func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int
 		evals := 0 // the final pass's count: the same whatever the first guess
 		dp, ok := s.newton(e, p, dz, zc, lim, &evals)
 		if !ok {
-			return ps, false
+			return false
 		}
 		ps.held = c.held
 		if zc != nil {
@@ -415,7 +422,7 @@ func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int
 			// drags' z and in their states.
 			q, _, ok := c.curve.Leakage(units.Pressure(dp))
 			if !ok {
-				return ps, false
+				return false
 			}
 			dz = c.zt
 			for i, v := range s.dragY {
@@ -427,7 +434,7 @@ func (s *Solver) settle(r *rangeDef, p *Point, el *element, k []float64, f []int
 		}
 		ps.e, ps.dz, ps.dp, ps.evals = e, dz, dp, evals
 		if !s.keyPass(e, dz) {
-			return ps, true
+			return true
 		}
 	}
 }
