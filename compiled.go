@@ -548,8 +548,13 @@ func (s *Solver) chargeRHS(el *element) {
 func (s *Solver) keepGuess(rg int, kept bool, e *sysEntry) {
 	c := &s.comp
 	if !kept {
-		copy(c.guessK[rg], s.gearK)
-		copy(c.guessF[rg], s.pflow)
+		gk, gf := c.guessK[rg], c.guessF[rg]
+		for i, v := range s.gearK {
+			gk[i] = v
+		}
+		for i, v := range s.pflow {
+			gf[i] = v
+		}
 		c.guessOK[rg] = true
 	}
 	c.guessE[rg], c.guessG[rg] = e, e.gen
@@ -746,7 +751,9 @@ func (s *Solver) keyPass(e *sysEntry, dz []float64) bool {
 		// pump and a motor: the common layout), the rows zero-padded.
 		var v [4]float64
 		ne := e.nExt
-		copy(v[:], c.b[:ne])
+		for k, b := range c.b[:ne] {
+			v[k] = b
+		}
 		for u, tq := range c.tau {
 			v[ne+u] = float64(tq)
 		}

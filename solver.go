@@ -270,25 +270,25 @@ func (s *Solver) Solve(p Point, st *State) error {
 	if err := s.checkEntry(&p, st); err != nil {
 		return err
 	}
-	err := s.solve(p, st, false)
+	err := s.solve(&p, st, false)
 	if !s.l.hasCurves(p.Range) || (err == nil && s.curveDrives(&p, st)) {
 		return err
 	}
-	if err2 := s.solve(p, st, true); err2 == nil {
+	if err2 := s.solve(&p, st, true); err2 == nil {
 		return nil
 	}
-	return s.solve(p, st, false)
+	return s.solve(&p, st, false)
 }
 
-// solve is Solve on a checked point; flip reverses the settings of the
+// solve is Solve on a checked point (p is Solve's copy); flip reverses the settings of the
 // motors set by curves.
-func (s *Solver) solve(p Point, st *State, flip bool) error {
+func (s *Solver) solve(p *Point, st *State, flip bool) error {
 	l := s.l
 	r := &l.ranges[p.Range]
 	for i, o := range p.Outputs {
 		s.outW[i] = float64(o.Speed)
 	}
-	s.setPins(&p, flip)
+	s.setPins(p, flip)
 	s.lockedNow = r.locked
 	if r.locked {
 		if want, ok := r.lockedSpeed(float64(p.Input), s.outW); !ok {
@@ -297,7 +297,7 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 			s.outW[0] = want
 			l.speeds(r, float64(p.Input), s.outW, s.w)
 			s.outW[0] = float64(p.Outputs[0].Speed)
-			s.fill(st, p, r, 0, 0)
+			s.fill(st, *p, r, 0, 0)
 			return s.limitErr(LimitError{Element: r.name, Quantity: "output speed", Value: units.Of(units.AngularVelocity(math.Abs(s.outW[0]))),
 				Bound: boundLockedSpeed, Limit: units.Of(units.AngularVelocity(math.Abs(want))), Err: ErrUnreachable})
 		}
@@ -307,33 +307,33 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 		snapSpeeds(s.w)
 	}
 	if len(l.drags) > 0 {
-		if err := s.initDrags(r, &p); err != nil {
-			s.fill(st, p, r, 0, 0)
+		if err := s.initDrags(r, p); err != nil {
+			s.fill(st, *p, r, 0, 0)
 			return err
 		}
 	}
 	if r.maxOut > 0 && math.Abs(s.outW[0]) > r.maxOut*(1+1e-12) {
-		s.fill(st, p, r, 0, 0)
+		s.fill(st, *p, r, 0, 0)
 		return s.limitErr(LimitError{Element: r.name, Quantity: "output speed", Value: units.Of(units.AngularVelocity(math.Abs(s.outW[0]))),
 			Bound: boundRangeSpeed, Limit: units.Of(units.AngularVelocity(r.maxOut)), Err: ErrInfeasible})
 	}
 	// Speed limits of the units do not depend on the torques.
 	if err := s.unitSpeeds(); err != nil {
-		s.fill(st, p, r, 0, 0)
+		s.fill(st, *p, r, 0, 0)
 		return err
 	}
 	// A range with one loop: the compiled path (compiled.go), which hands
 	// every point it cannot decide to the general iteration below.
-	if s.compiled(r, &p, st) {
+	if s.compiled(r, p, st) {
 		return s.compErr
 	}
 	s.losslessDirections()
 	clear(s.flip)
 	clear(s.pflip)
 	clear(s.dp)
-	converged, it, err := s.iterate(r, &p, true, 0)
+	converged, it, err := s.iterate(r, p, true, 0)
 	if err != nil {
-		s.fill(st, p, r, it, 0)
+		s.fill(st, *p, r, it, 0)
 		return err
 	}
 	if !converged && !s.frozen() && len(l.loops) == 1 {
@@ -341,17 +341,17 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 		// model with kinks, a unit near zero displacement): bracket the
 		// pressure instead, then polish from there.
 		var ok bool
-		ok, err = s.bracket(r, &p)
+		ok, err = s.bracket(r, p)
 		if err != nil {
-			s.fill(st, p, r, it, 0)
+			s.fill(st, *p, r, it, 0)
 			return err
 		}
 		if ok {
 			var it2 int
-			converged, it2, err = s.iterate(r, &p, true, it)
+			converged, it2, err = s.iterate(r, p, true, it)
 			it = it2
 			if err != nil {
-				s.fill(st, p, r, it, 0)
+				s.fill(st, *p, r, it, 0)
 				return err
 			}
 		}
@@ -361,19 +361,19 @@ func (s *Solver) solve(p Point, st *State, flip bool) error {
 		// directions of the elements that flipped, each iterated on the
 		// loop pressure alone, and keep the first consistent one.
 		var locked bool
-		converged, locked, it, err = s.enumerate(r, &p)
+		converged, locked, it, err = s.enumerate(r, p)
 		if err != nil {
-			s.fill(st, p, r, it, 0)
+			s.fill(st, *p, r, it, 0)
 			return err
 		}
 		if !converged {
-			res := s.fill(st, p, r, it, 1)
+			res := s.fill(st, *p, r, it, 1)
 			return &ConvergenceError{Iterations: it, Residual: res, SelfLocking: locked}
 		}
 	}
 	// Final loop states at the final pressures.
 	lerr := s.evalLoops(true)
-	res := s.fill(st, p, r, it+1, 1)
+	res := s.fill(st, *p, r, it+1, 1)
 	if lerr != nil {
 		// A limit of the hydrostat (setting, pressure, speed): the state is
 		// filled as far as it goes; with a setting limit the flows do not

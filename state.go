@@ -365,9 +365,9 @@ func (s *Solver) totals(st *State, r *rangeDef, torques int, pump, hyd, tmax, wm
 	pin, useful := float64(st.InputPower), float64(st.OutputPower+st.PTOPower)
 	switch {
 	case pin > 0 && useful > 0:
-		st.Efficiency = math.Min(1, useful/pin) // ≤ 1 up to rounding
+		st.Efficiency = min(1, useful/pin) // ≤ 1 up to rounding; min as math.Min, without its call
 	case pin < 0 && useful < 0:
-		st.Efficiency = math.Min(1, pin/useful)
+		st.Efficiency = min(1, pin/useful)
 	default:
 		st.Efficiency = 0
 	}
