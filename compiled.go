@@ -365,14 +365,16 @@ type settled struct {
 // hold, and reports whether they did; where it leaves the point is in
 // *ps, the key ports' torques in s.t and the charge pumps' in s.dragT.
 // hint, when not nil, is the factored system of k and f in range r. The
-// directions are copied element by element and ps filled in place: small
-// copies through memmove, and a struct returned by value, cost more than
-// the rest of the call.
+// directions are copied element by element and ps filled in place: copy's
+// memmove call for a few numbers, and a struct returned by value, cost
+// more than the rest of the call (3 % of a benchmark point).
 func (s *Solver) settle(r *rangeDef, p *Point, k []float64, f []int8, hint *sysEntry, lim float64, ps *settled) bool {
 	c := &s.comp
+	//lint:ignore S1001 a few numbers: copy's memmove call costs more
 	for i, v := range k {
 		s.gearK[i] = v
 	}
+	//lint:ignore S1001 as above
 	for i, v := range f {
 		s.pflow[i] = v
 	}
@@ -549,9 +551,11 @@ func (s *Solver) keepGuess(rg int, kept bool, e *sysEntry) {
 	c := &s.comp
 	if !kept {
 		gk, gf := c.guessK[rg], c.guessF[rg]
+		//lint:ignore S1001 a few numbers: copy's memmove call costs more
 		for i, v := range s.gearK {
 			gk[i] = v
 		}
+		//lint:ignore S1001 as above
 		for i, v := range s.pflow {
 			gf[i] = v
 		}
@@ -751,6 +755,7 @@ func (s *Solver) keyPass(e *sysEntry, dz []float64) bool {
 		// pump and a motor: the common layout), the rows zero-padded.
 		var v [4]float64
 		ne := e.nExt
+		//lint:ignore S1001 at most four numbers: copy's memmove call costs more
 		for k, b := range c.b[:ne] {
 			v[k] = b
 		}
