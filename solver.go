@@ -50,10 +50,10 @@ type Solver struct {
 	scratch  State
 	bad      *marginDesc // the first infeasible margin of the last fill (margins), at badV
 	badV     float64
-	rangeM   []marginDesc   // per range: its speed limit (initMargins)
-	loopM    [][]marginDesc // per loop: its margins (initMargins)
-	mval     []float64      // a loop's margins' values (margins)
-	noPins   bool           // setPins held nothing at its last call
+	rangeM   []marginSet // per range: its speed limit (initMargins)
+	loopM    []marginSet // per loop: its margins (initMargins)
+	mval     []float64   // a loop's margins' values (margins)
+	noPins   bool        // setPins held nothing at its last call
 
 	// The factored torque systems (see factor.go) and the work space of
 	// their solve.

@@ -532,6 +532,29 @@ func (d *marginDesc) at(v float64) Margin {
 	return Margin{Element: d.elem, Quantity: d.quantity, Value: measure(v, d.kind), Bound: d.bound, Limit: measure(d.limit, d.kind), Unchecked: d.unchecked}
 }
 
+// marginSet is a list of margins with the places of those take checks:
+// the limits and the ratings, each in the list's order, the unrated left
+// out.
+type marginSet struct {
+	ds         []marginDesc
+	lim, rated []int
+}
+
+// newMarginSet returns the set of ds.
+func newMarginSet(ds []marginDesc) marginSet {
+	m := marginSet{ds: ds}
+	for i := range ds {
+		switch d := &ds[i]; {
+		case d.unchecked:
+		case d.rated:
+			m.rated = append(m.rated, i)
+		default:
+			m.lim = append(m.lim, i)
+		}
+	}
+	return m
+}
+
 // initMargins lists the layout's margins in the order margins takes them:
 // per range its speed limit (when it has one); per loop the high-line
 // pressure against the relief setting, then per unit its pressure against
@@ -539,12 +562,12 @@ func (d *marginDesc) at(v float64) Margin {
 func (s *Solver) initMargins() {
 	l := s.l
 	const w, pa = units.AngularVelocityKind, units.PressureKind
-	s.rangeM = make([]marginDesc, len(l.ranges))
+	s.rangeM = make([]marginSet, len(l.ranges))
 	for i := range l.ranges {
 		r := &l.ranges[i]
-		s.rangeM[i] = marginDesc{elem: r.name, quantity: "output speed", bound: boundRangeSpeed, limit: r.maxOut, kind: w, inv: 1 / r.maxOut}
+		s.rangeM[i] = newMarginSet([]marginDesc{{elem: r.name, quantity: "output speed", bound: boundRangeSpeed, limit: r.maxOut, kind: w, inv: 1 / r.maxOut}})
 	}
-	s.loopM = make([][]marginDesc, len(l.loops))
+	s.loopM = make([]marginSet, len(l.loops))
 	s.mval = make([]float64, 1) // the range's speed limit; a loop's below
 	for j, e := range l.loops {
 		el := &l.elems[e]
@@ -558,10 +581,10 @@ func (s *Solver) initMargins() {
 				marginDesc{elem: el.name, quantity: el.unames[k][1], bound: boundSpeed, limit: float64(us.MaxSpeed), kind: w, unchecked: us.MaxSpeed <= 0},
 				marginDesc{elem: el.name, quantity: el.unames[k][2], bound: boundFull, limit: 1, kind: units.Number})
 		}
-		s.loopM[j] = ds
 		for k := range ds {
 			ds[k].inv = 1 / ds[k].limit
 		}
+		s.loopM[j] = newMarginSet(ds)
 		if len(ds) > len(s.mval) {
 			s.mval = make([]float64, len(ds))
 		}
@@ -587,10 +610,11 @@ func (s *Solver) margins(st *State, known bool) {
 	if r := &l.ranges[st.Range]; r.maxOut > 0 {
 		v := s.mval[:1]
 		v[0] = math.Abs(s.outW[0])
-		k.take(st, s.rangeM[st.Range:st.Range+1], v)
+		k.take(st, &s.rangeM[st.Range], v)
 	}
 	for j := range l.loops {
-		ds := s.loopM[j]
+		ms := &s.loopM[j]
+		ds := ms.ds
 		ls := &st.Loops[j]
 		dp := math.Abs(float64(ls.Pressure))
 		v := s.mval[:len(ds)]
@@ -602,7 +626,7 @@ func (s *Solver) margins(st *State, known bool) {
 			}
 			v[k], v[k+1], v[k+2], v[k+3] = dp, dp, math.Abs(float64(pt.Speed)), math.Abs(pt.Setting)
 		}
-		k.take(st, ds, v)
+		k.take(st, ms, v)
 	}
 	s.bad, s.badV = k.bad, k.badV
 	b := &st.Binding
@@ -628,33 +652,34 @@ type mtake struct {
 // Brief, flagged when a crossed rating, the binding one when it has the
 // least room so far, and kept for limits when it is the first crossed
 // limit. A Margin value is built only where it is kept.
-func (k *mtake) take(st *State, ds []marginDesc, v []float64) {
+func (k *mtake) take(st *State, m *marginSet, v []float64) {
+	ds := m.ds
 	v = v[:len(ds)]
-	room, bind, bindV := k.room, k.bind, k.bindV
-	for i := range ds {
+	if !st.Brief {
+		for i := range ds {
+			st.Margins = append(st.Margins, ds[i].at(v[i]))
+		}
+	}
+	for _, i := range m.rated {
+		// A rating is a flag, not a limit.
+		if d := &ds[i]; d.limit-v[i] < -1e-12*d.limit { // Margin.Crossed
+			st.Flags = append(st.Flags, d.at(v[i]))
+		}
+	}
+	room, bind, bindV := k.room, -1, 0.0
+	for _, i := range m.lim {
 		d := &ds[i]
-		if !st.Brief {
-			st.Margins = append(st.Margins, d.at(v[i]))
-		}
-		if d.unchecked {
-			continue
-		}
 		left := d.limit - v[i]
-		crossed := left < -1e-12*d.limit // Margin.Crossed
-		if d.rated {
-			if crossed {
-				st.Flags = append(st.Flags, d.at(v[i]))
-			}
-			continue // a rating is a flag, not a limit
-		}
 		if r := left * d.inv; r < room {
-			room, bind, bindV = r, d, v[i]
+			room, bind, bindV = r, i, v[i]
 		}
-		if crossed && k.bad == nil {
+		if left < -1e-12*d.limit && k.bad == nil {
 			k.bad, k.badV = d, v[i]
 		}
 	}
-	k.room, k.bind, k.bindV = room, bind, bindV
+	if bind >= 0 {
+		k.room, k.bind, k.bindV = room, &ds[bind], bindV
+	}
 }
 
 // measure is units.Of for a known kind, without its type switch.
