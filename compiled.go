@@ -171,6 +171,7 @@ func (s *Solver) initCompiled() {
 	if !c.on {
 		return
 	}
+
 	nu := len(l.elems[l.loops[0]].shafts)
 	c.wms = make([]units.AngularVelocity, nu-1)
 	c.curveW = make([]float64, nu-1)
@@ -258,7 +259,9 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	}
 	rg := s.guessSlot(p, s.w[el.shafts[0]]*s.w[el.shafts[1]])
 	lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge)
-	s.chargeRHS(el)
+	if c.charge != nil {
+		s.chargeRHS(el)
+	}
 	// From the guess of the directions, and where that fails from the
 	// lossless ones: so a point the compiled path solves from the lossless
 	// directions is solved whatever guess the points before left (which
@@ -519,12 +522,9 @@ func (s *Solver) guessSlot(p *Point, wu float64) int {
 // chargeRHS sets the charge pumps' coefficients at the point's speeds:
 // K = p_charge/(η·ω) per pump (zero on a standing shaft, as chargeTorques
 // has it) and the shafts' right-hand sides g (per unit leakage) and g0
-// (the flushing flows) of their torques.
+// (the flushing flows) of their torques. The layout has charge pumps.
 func (s *Solver) chargeRHS(el *element) {
 	c := &s.comp
-	if c.charge == nil {
-		return
-	}
 	clear(c.g)
 	clear(c.g0)
 	for k, i := range c.charge {
