@@ -54,6 +54,7 @@ type Solver struct {
 	loopM    []marginSet // per loop: its margins (initMargins)
 	mval     []float64   // a loop's margins' values (margins)
 	noPins   bool        // setPins held nothing at its last call
+	uspeed   []unitSpeed // every loop's units (unitSpeeds)
 
 	// The factored torque systems (see factor.go) and the work space of
 	// their solve.
@@ -147,6 +148,7 @@ func NewSolver(l Layout) *Solver {
 	s.dpPrev = make([]float64, len(ly.loops))
 	s.havePrev, s.prevDp = make([]bool, len(ly.loops)), make([]float64, len(ly.loops))
 	s.initCache()
+	s.initUnitSpeeds()
 	s.initElemC()
 	s.initCompiled()
 	s.initMargins()
@@ -734,18 +736,38 @@ func (s *Solver) consistent() bool {
 
 // unitSpeeds checks each unit's speed against its maximum.
 func (s *Solver) unitSpeeds() error {
+	for u := range s.uspeed {
+		if us := &s.uspeed[u]; math.Abs(s.w[us.shaft]) > us.lim {
+			el := &s.l.elems[us.elem]
+			ms := el.uspec[us.k].MaxSpeed
+			return s.limitErr(LimitError{Element: el.name, Quantity: el.unames[us.k][1], Value: units.Of(units.AngularVelocity(math.Abs(s.w[us.shaft]))),
+				Bound: boundSpeed, Limit: units.Of(ms), Err: ErrInfeasible})
+		}
+	}
+	return nil
+}
+
+// unitSpeed is what unitSpeeds reads of a unit: its shaft, the speed it
+// may not exceed (its maximum speed and rounding, +Inf where not rated),
+// and where its names are (the loop's element, the unit's place).
+type unitSpeed struct {
+	shaft, elem, k int
+	lim            float64
+}
+
+// initUnitSpeeds lists every loop's units for unitSpeeds.
+func (s *Solver) initUnitSpeeds() {
 	l := s.l
 	for _, e := range l.loops {
 		el := &l.elems[e]
 		for k, sh := range el.shafts {
-			ms := float64(el.uspec[k].MaxSpeed)
-			if ms > 0 && math.Abs(s.w[sh]) > ms*(1+1e-12) {
-				return s.limitErr(LimitError{Element: el.name, Quantity: el.unames[k][1], Value: units.Of(units.AngularVelocity(math.Abs(s.w[sh]))),
-					Bound: boundSpeed, Limit: units.Of(units.AngularVelocity(ms)), Err: ErrInfeasible})
+			lim := math.Inf(1)
+			if ms := float64(el.uspec[k].MaxSpeed); ms > 0 {
+				lim = ms * (1 + 1e-12)
 			}
+			s.uspeed = append(s.uspeed, unitSpeed{shaft: sh, elem: e, k: k, lim: lim})
 		}
 	}
-	return nil
 }
 
 // evalLoops evaluates every loop at its pressure (state A) and sets the
