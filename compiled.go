@@ -253,10 +253,11 @@ func (s *Solver) compiled(r *rangeDef, p *Point, st *State) bool {
 	if !s.prepareCurve(el) {
 		return false
 	}
-	c.wmax = 0
+	wmax := 0.0
 	for _, v := range s.w[:len(l.shafts)] {
-		c.wmax = maxAbs(c.wmax, v)
+		wmax = maxAbs(wmax, v)
 	}
+	c.wmax = wmax
 	rg := s.guessSlot(p, s.w[el.shafts[0]]*s.w[el.shafts[1]])
 	lim := 1.5 * float64(el.lspec.Relief-el.lspec.Charge)
 	if c.charge != nil {
