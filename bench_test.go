@@ -338,9 +338,10 @@ func TestSolveAllocatesNothingOverPoints(t *testing.T) {
 // one evaluation of the unit torques alone, the key ports' torques with
 // the reading of the directions, the loop state at the final pressure, the
 // sizing of the State, the summary (margins included) and the margins
-// alone. On one core the steps add up to about three quarters of the
-// solve; the rest is the calls between them, the copies of the first
-// guess and the second pass some points take.
+// alone. The solve of the same point again keeps its Curve (the speeds
+// are those it was prepared at: prepareCurve), so the curve step is not
+// part of it; the other steps add up to about six sevenths of the solve,
+// the rest is the calls between them.
 func BenchmarkCompiledSteps(b *testing.B) {
 	s := NewSolver(benchLayout(b, true))
 	st := State{Brief: true}
