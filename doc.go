@@ -118,18 +118,21 @@
 //
 // (X the row of the pressure, z the drag sources' part, which for a charge
 // pump follows the loop's leakage). hydrostat.Curve gives τ(Δp), the
-// leakage and their exact slopes, so Newton's method settles in about four
-// evaluations from Δp = 0; the directions read off the solution must be
+// leakage and their exact slopes, so Newton's method settles in three or
+// four evaluations from Δp = 0; the directions read off the solution must be
 // those assumed, else the equation is solved again with the new ones. The
 // first guess is the directions of the last point of the same range with
 // the same signs of output power and unit speeds; a torque within
 // rounding reads the same whatever the guess, and a guess that fails is
 // followed by the lossless start, so a point's result never depends on
 // the points solved before it. Solve takes this path by itself wherever
-// it applies and hands every point it cannot decide (several loops, held
-// motor settings, a pump near standstill, directions that oscillate, a
-// pressure pressed beyond the relief, a limit crossed other than a setting
-// limit) to the iteration above, so the errors are the same; both paths
+// it applies, motors held at settings of their own included (a second
+// motor's curve or a Point's Settings: the loop's Pinned schedule), and
+// hands every point it cannot decide (several loops, a schedule other than
+// Sequential or Pinned, a locked range, a pump near standstill, directions
+// that oscillate, a pressure pressed beyond the relief, a limit crossed
+// other than a setting limit) to the iteration above, so the errors are
+// the same; both paths
 // give the same state to 1e-12 (property tests check it over random
 // layouts). A State with Brief set gets the summary a sweep, map or search
 // reads, and the compiled path then computes only the port torques that
