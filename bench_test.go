@@ -1,7 +1,9 @@
 package powersplit
 
 import (
+	"cmp"
 	"math"
+	"slices"
 	"testing"
 	"time"
 
@@ -180,20 +182,30 @@ func BenchmarkFloor(b *testing.B) {
 // lossless floor's, measured in the same run ("x-floor"), and for the lossy
 // layout also the ratio to the hand-written lossy evaluation of
 // lossyfloor_test.go ("x-lossy-floor"). The cases: lossless and lossy on
-// the compiled path with Brief states (what a sweep or a search does), lossy
-// with the full state, and lossy on the general path with the full state
-// (the solver before the compiled path, kept for the comparison).
+// the compiled path with Brief states (what a sweep or a search does), the
+// same lossy points in an order where the speed changes from each point to
+// the next (as in a map), lossy with the full state, and lossy on the
+// general path with the full state (the solver before the compiled path,
+// kept for the comparison).
 func BenchmarkSolveVsFloor(b *testing.B) {
-	pts := benchPoints(b)
+	all := benchPoints(b)
+	// The same points ordered so that no two in a row share a speed (torque
+	// slowest, as a map steps them): a point then never finds its Curve
+	// prepared at its speeds by the point before (prepareCurve).
+	bySpeed := slices.Clone(all)
+	slices.SortStableFunc(bySpeed, func(p, q Point) int { return cmp.Compare(p.Outputs[0].Torque, q.Outputs[0].Torque) })
 	for _, c := range []struct {
 		name                  string
 		lossy, brief, general bool
+		pts                   []Point
 	}{
-		{"lossless", false, true, false},
-		{"lossy", true, true, false},
-		{"lossy-full-state", true, false, false},
-		{"lossy-general", true, false, true},
+		{"lossless", false, true, false, all},
+		{"lossy", true, true, false, all},
+		{"lossy-speed-fastest", true, true, false, bySpeed},
+		{"lossy-full-state", true, false, false, all},
+		{"lossy-general", true, false, true, all},
 	} {
+		pts := c.pts
 		b.Run(c.name, func(b *testing.B) {
 			s := NewSolver(benchLayout(b, c.lossy))
 			s.general = c.general
