@@ -98,6 +98,12 @@ type Solver struct {
 
 	slab  []LimitError           // fresh errors (limitErr)
 	hslab []hydrostat.LimitError // fresh causes (loopLimit)
+	// once, set by a map's worker around one Solve whose error it reads
+	// before the next, makes limitErr and newHydroLimit write into the
+	// two errors below instead of fresh ones (detach copies them out).
+	once     bool
+	onceErr  LimitError
+	onceHydr hydrostat.LimitError
 }
 
 // Settings of the iteration.
@@ -897,6 +903,10 @@ const slabSize = 64
 // more of the parallel speed-up than anything else. An error from a slab
 // is never reused: the slab lives as long as any of its errors.
 func (s *Solver) limitErr(e LimitError) *LimitError {
+	if s.once {
+		s.onceErr = e
+		return &s.onceErr
+	}
 	if len(s.slab) == 0 {
 		s.slab = make([]LimitError, slabSize)
 	}
@@ -908,12 +918,31 @@ func (s *Solver) limitErr(e LimitError) *LimitError {
 
 // newHydroLimit returns a fresh *hydrostat.LimitError from the solver's slab.
 func (s *Solver) newHydroLimit() *hydrostat.LimitError {
+	if s.once {
+		return &s.onceHydr
+	}
 	if len(s.hslab) == 0 {
 		s.hslab = make([]hydrostat.LimitError, slabSize)
 	}
 	p := &s.hslab[0]
 	s.hslab = s.hslab[1:]
 	return p
+}
+
+// detach returns err, or a copy of it in fresh storage where it is the
+// solver's once error (its cause copied too where that is the solver's):
+// an error a map keeps beyond the next solve.
+func (s *Solver) detach(err error) error {
+	le, ok := err.(*LimitError)
+	if !ok || le != &s.onceErr {
+		return err
+	}
+	c := *le
+	if hl, ok := c.Cause.(*hydrostat.LimitError); ok && hl == &s.onceHydr {
+		h := *hl
+		c.Cause = &h
+	}
+	return &c
 }
 
 // isLimit reports whether err is a *hydrostat.LimitError (errors.AsType:

@@ -293,3 +293,43 @@ func TestWorkerPoolLetsLayoutGo(t *testing.T) {
 	}
 	t.Errorf("the layout is still alive (%v) or its pool still listed after 100 collections", key.Value() != nil)
 }
+
+// TestOnceErrorsDetach: with once set (a map's cell), a refused point's
+// error is the solver's own, rewritten by the next refused point; detach
+// gives a copy (its cause copied too) that the next solve leaves as it
+// was, equal to the error a solve without once returns.
+func TestOnceErrorsDetach(t *testing.T) {
+	l := benchLayout(t, true)
+	s := NewSolver(l)
+	st := State{Brief: true}
+	spec := benchMapSpec(20, 1)
+	var refused []Point
+	for i := range 20 {
+		for j := range 20 {
+			v := float64(spec.SpeedFrom) + float64(spec.SpeedTo-spec.SpeedFrom)*float64(j)/19
+			tq := float64(spec.TorqueFrom) + float64(spec.TorqueTo-spec.TorqueFrom)*float64(i)/19
+			p := Point{Range: spec.Range, Input: spec.Input, Outputs: []OutputDemand{{Speed: units.AngularVelocity(v), Torque: units.Torque(tq)}}, PTO: spec.PTO}
+			if s.Solve(p, &st) != nil {
+				refused = append(refused, p)
+			}
+		}
+	}
+	if len(refused) < 2 {
+		t.Fatalf("only %d refused points to work with", len(refused))
+	}
+	for i := 0; i+1 < len(refused); i++ {
+		want := s.Solve(refused[i], &st)
+		s.once = true
+		got := s.detach(s.Solve(refused[i], &st))
+		_ = s.Solve(refused[i+1], &st) // rewrites the once errors
+		s.once = false
+		if got.Error() != want.Error() {
+			t.Errorf("point %d: detached %q, plain %q", i, got, want)
+		}
+		if le, ok := got.(*LimitError); !ok || le == &s.onceErr {
+			t.Errorf("point %d: detach returned the solver's own error", i)
+		} else if hl, ok := le.Cause.(*hydrostat.LimitError); ok && hl == &s.onceHydr {
+			t.Errorf("point %d: detach kept the solver's own cause", i)
+		}
+	}
+}
