@@ -194,7 +194,11 @@ func TestPropLoss(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			if !testutil.Close(float64(st2.Loss), float64(st.Loss), 1e-9, tiny+1e-9*powerScale(st)) || st2.Flow != st.Flow && st.RollingPower != 0 {
+			// The flow is read off the rolling power's sign, so it is the
+			// same only where that power is more than the rounding of
+			// subnormal numbers (speeds of 1e-43 rpm and torques of 1e-279
+			// N·m drawn together gave 4e-323 W, read as either flow).
+			if !testutil.Close(float64(st2.Loss), float64(st.Loss), 1e-9, tiny+1e-9*powerScale(st)) || st2.Flow != st.Flow && float64(st.RollingPower) > tiny {
 				t.Fatalf("from %v: state %+v, from %v: %+v", known, st, m, st2)
 			}
 		}
