@@ -445,7 +445,10 @@ func TestPropertyFrontMotorNewtonMatchesBrent(t *testing.T) {
 			{"front share", p.FrontShare, q.FrontShare, 1e-9},
 			{"engine torque", float64(p.EngineTorque), float64(q.EngineTorque), 1e-9 * math.Abs(float64(q.EngineTorque))},
 			{"fuel rate", float64(p.FuelRate), float64(q.FuelRate), 1e-9 * math.Abs(float64(q.FuelRate))},
-			{"front torque", float64(p.Drive.FrontTorque), float64(q.Drive.FrontTorque), 1e-9 * math.Abs(float64(q.Drive.FrontTorque))},
+			// The split between the axles is solved to the torque the
+			// drive carries: a front torque near zero (a light draft) is
+			// known to that, not to itself (0.0049 N·m differed by 5e-12).
+			{"front torque", float64(p.Drive.FrontTorque), float64(q.Drive.FrontTorque), 1e-9 * (math.Abs(float64(q.Drive.FrontTorque)) + math.Abs(float64(q.Drive.OutputTorque)))},
 		} {
 			diff, bound := math.Abs(c.got-c.want), math.Max(c.bound, 1e-12)
 			if !(diff <= bound) {
