@@ -166,10 +166,13 @@ func (m Map) Feasible() [][]bool {
 // cell in slices without pointers, which the garbage collector never scans,
 // and the few things with pointers in side tables, the errors of the failed
 // cells and the names of the binding margins. The cells are stored in the
-// blocks the workers solved them in, each allocated (and so zeroed) by its
-// worker with the errors of its cells: one slice for the whole result had
-// the allocating goroutine clear it alone before the workers could start,
-// and one list of errors took a pass over the cells after them.
+// blocks the workers solved them in, each block's cells a piece of one
+// slice allocated before the workers start, with the errors of its cells:
+// with a block allocated by each worker as it went, a map's allocations
+// ran the garbage collector while the workers solved (a map of 200 × 200
+// took about 4 % longer on two cores, and two cores gained 1.68× over one
+// at the median of ten runs against 1.79× with the one slice), and one
+// list of errors took a pass over the cells after them.
 type results struct {
 	n      int          // cells
 	size   int          // cells per block (the last may have fewer)
@@ -452,8 +455,8 @@ func (l Layout) workerPool() *sync.Pool {
 // job solves cell k into c and returns its error (nil when it is OK).
 type job func(w *worker, k int, c *cell) error
 
-// blockSize returns the number of consecutive cells a worker takes (and
-// allocates) at a time out of n: about n/256, so that the workers share the
+// blockSize returns the number of consecutive cells a worker takes at a
+// time out of n: about n/256, so that the workers share the
 // load evenly to the end, but at least 16, so that they rarely meet on the
 // shared counter, and at most 128 (18 KiB). It depends on n only, never on
 // the number of workers, so the stored result does not either.
@@ -476,6 +479,7 @@ func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) res
 	workers = max(1, min(workers, nblocks))
 	pooled := n <= poolCells
 	res := results{n: n, size: size, blocks: make([]block, nblocks), binds: marginNames(l.l)}
+	all := make([]cell, n)
 	extra := &extraNames{}
 	var next atomic.Int64
 	var mu sync.Mutex
@@ -497,7 +501,7 @@ func (l Layout) run(n, workers int, progress func(int, int), p Point, f job) res
 					return
 				}
 				k0, k1 := r*size, min((r+1)*size, n)
-				cs := make([]cell, k1-k0)
+				cs := all[k0:k1:k1]
 				w.errs, w.shapes = w.errs[:0], w.shapes[:0]
 				for k := range cs {
 					if err := f(w, k0+k, &cs[k]); err != nil {
