@@ -40,11 +40,12 @@ type Requirements struct {
 	PTOSpeeds []units.AngularVelocity `json:"ptoSpeeds,omitempty"`
 	// UnitSpeedMargin is the fraction by which every unit's speed must stay
 	// below its greatest speed over the forward speeds up to TopSpeed at
-	// rated engine speed (0.05 for 5 %).
+	// rated engine speed (0.05 for 5 %), a front motor's up to its declutch
+	// speed.
 	UnitSpeedMargin float64 `json:"unitSpeedMargin,omitempty"`
 	// PressureMargin is the fraction by which the relief setting must stay
-	// below the lowest peak pressure of the units (rated pressure where no
-	// peak is given).
+	// below the lowest peak pressure of the units, a front motor's
+	// included (rated pressure where no peak is given).
 	PressureMargin float64 `json:"pressureMargin,omitempty"`
 	// ShiftTolerance is the greatest relative mismatch of the variator's
 	// speed ratio (motor over pump) between the two ranges of each range
@@ -385,7 +386,11 @@ func (f *File) check(t Transmission, l powersplit.Layout, lim unitLimits, v *veh
 	}
 	if req.PressureMargin > 0 {
 		limit := math.Inf(1)
-		for _, u := range []Unit{t.Pump, t.Motor} {
+		us := []Unit{t.Pump, t.Motor}
+		if fm := f.Tractor.FrontMotor; fm != nil {
+			us = append(us, fm.Motor) // the front motor shares the loop's pressure
+		}
+		for _, u := range us {
 			p := u.PeakPressure
 			if p == 0 {
 				p = u.RatedPressure
@@ -540,8 +545,10 @@ func (f *File) unitState(s pointSolver, st *powersplit.State, out []powersplit.O
 // unitSpeedCheck finds, at each forward speed up to the top speed, the
 // range that keeps the units furthest below their greatest speeds, and
 // reports the speed where even that range comes closest, with the
-// solver's own margin of the binding unit at that point. Its points are
-// solved into st (Brief will do).
+// solver's own margin of the binding unit at that point; a tractor's front
+// motor, which turns with the front wheels up to its declutch speed in
+// every range, is held to its greatest speed there. Its points are solved
+// into st (Brief will do).
 func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, lim unitLimits, st *powersplit.State, ivs []Interval, w units.AngularVelocity, req *Requirements) Check {
 	out := make([]powersplit.OutputDemand, 1)
 	top := req.TopSpeed
@@ -596,8 +603,28 @@ func (f *File) unitSpeedCheck(s pointSolver, l powersplit.Layout, lim unitLimits
 			bind, bindUnit = Binding{Range: bestRange, Speed: v, Engine: w}, bestUnit
 		}
 	}
+	// The front motor (a second motor of the loop in the front layout)
+	// turns with the front wheels, whatever the range, up to its declutch
+	// speed: at travel speed v without slip its shaft turns at
+	// FinalDrive·v/(r_front·Ratio), the fastest at the declutch speed or
+	// the top speed, whichever comes first. The pump's and the rear
+	// motor's speeds are the same with it as without it.
+	front := ""
+	if fm := f.Tractor.FrontMotor; fm != nil && fm.Motor.MaxSpeed > 0 && f.Tractor.Front.Tyre.RollingRadius > 0 {
+		v := min(top, fm.DeclutchAbove)
+		ratio := fm.Ratio
+		if ratio == 0 {
+			ratio = 1
+		}
+		wm := fm.FinalDrive * float64(v) / (float64(f.Tractor.Front.Tyre.RollingRadius) * ratio)
+		if share := math.Abs(wm) / float64(fm.Motor.MaxSpeed); v > 0 && share > worst {
+			worst, bound = share, false
+			front = fmt.Sprintf("front motor at %.2f km/h (declutched above %.2f km/h): %.0f of %.0f rpm",
+				v.KMH(), fm.DeclutchAbove.KMH(), units.AngularVelocity(wm).RPM(), fm.Motor.MaxSpeed.RPM())
+		}
+	}
 	// Words for the binding point only.
-	at := ""
+	at := front
 	var bindAt *Binding
 	if bound {
 		at = fmt.Sprintf("range %s at %.2f km/h, engine %.0f rpm: %s", names[bind.Range], bind.Speed.KMH(), w.RPM(),

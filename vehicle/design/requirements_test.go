@@ -292,3 +292,67 @@ func TestUnitSpeedCheckAllRanges(t *testing.T) {
 		}
 	})
 }
+
+// TestFrontMotorChecks: the front motor turns with the front wheels up to
+// its declutch speed whatever the range, so the unit-speed check holds its
+// speed there against its own greatest speed, and the relief check its
+// peak pressure against the relief. Hand calculation: the test motor
+// (front final drive 60, ratio 1, declutched above 14 km/h) on the demo
+// tractor's front tyres turns at 60·(14/3.6 m/s)/r_front rad/s at 14 km/h.
+func TestFrontMotorChecks(t *testing.T) {
+	t.Parallel()
+	f := demoFile(t)
+	l, loop, err := f.Transmission.built()
+	if err != nil {
+		t.Fatal(err)
+	}
+	sv := powersplit.NewSolver(l)
+	w := units.RPM(2000)
+	ivs, _ := f.intervals(sv, l, f.Transmission.RangeNames(), w)
+	req := *f.Requirements
+	req.UnitSpeedMargin = 0.02
+	st := powersplit.State{Brief: true}
+	plain := f.unitSpeedCheck(sv, l, limitsOf(loop), &st, ivs, w, &req)
+
+	fm := frontMotor()
+	r := float64(f.Tractor.Front.Tyre.RollingRadius)
+	wm := 60 * float64(units.KMH(14)) / r // rad/s at the declutch speed
+	if req.TopSpeed > 0 && req.TopSpeed < units.KMH(14) {
+		t.Fatalf("the demo's top speed %v is below the test motor's declutch speed", req.TopSpeed)
+	}
+	// Rated 10 % below that speed: the check fails on the front motor.
+	fm.Motor.MaxSpeed = units.AngularVelocity(wm / 1.1)
+	f.Tractor.FrontMotor = fm
+	got := f.unitSpeedCheck(sv, l, limitsOf(loop), &st, ivs, w, &req)
+	if got.Met || math.Abs(got.Margin-(1-1.1-0.02)) > 1e-12 || !strings.Contains(got.At, "front motor at 14.00 km/h") || got.Binding != nil {
+		t.Errorf("front motor rated below its speed: %+v", got)
+	}
+	// Rated far above: the check is the rear-only check.
+	fm.Motor.MaxSpeed = units.AngularVelocity(10 * wm)
+	got = f.unitSpeedCheck(sv, l, limitsOf(loop), &st, ivs, w, &req)
+	if got.Margin != plain.Margin || got.At != plain.At || got.Met != plain.Met {
+		t.Errorf("front motor rated far above its speed: %+v, without it %+v", got, plain)
+	}
+
+	// The relief against the front motor's peak pressure: a front motor
+	// rated 2 % above the relief (its loop builds) misses a 5 % margin.
+	fm.Motor.RatedPressure, fm.Motor.PeakPressure = f.Transmission.Relief, f.Transmission.Relief*1.02
+	req = *f.Requirements
+	req.PressureMargin = 0.05
+	rep, err := f.Check(f.Transmission, &req)
+	if err != nil {
+		t.Fatal(err)
+	}
+	found := false
+	for _, c := range rep.Checks {
+		if strings.HasPrefix(c.Name, "relief") {
+			found = true
+			if want := 1 - 1/1.02 - 0.05; c.Met || math.Abs(c.Margin-want) > 1e-12 {
+				t.Errorf("relief check with a front motor rated 2 %% above the relief: %+v, margin want %v", c, want)
+			}
+		}
+	}
+	if !found {
+		t.Error("no relief check in the report")
+	}
+}
