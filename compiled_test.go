@@ -282,26 +282,17 @@ func TestPropertyCompiledMatchesGeneralDrags(t *testing.T) {
 			t.Fatal(err)
 		}
 		p := genPoint(t, l0)
-		gen, fast := NewSolver(l), NewSolver(l)
-		gen.general = true
-		var a, b State
-		ea, eb := fast.Solve(p, &a), gen.Solve(p, &b)
-		points++
-		if fast.comp.hits > 0 {
-			compiled++
-		}
-		if !sameError(ea, eb) && !foundBalance(ea, eb, &a, l) {
-			t.Fatalf("%s: compiled: %v; general: %v", kind, ea, eb)
-		}
-		if ea != nil {
-			return
-		}
 		tol := 1e-12
 		if n.ChargePumps != nil {
 			tol = 5e-9
 		}
-		if d := summaryDiff(&a, &b, tol); d != "" {
-			t.Fatalf("%s: compiled %s", kind, d)
+		a, b, took, solved := solveBothPaths(t, kind, l, p, tol)
+		points++
+		if took {
+			compiled++
+		}
+		if !solved {
+			return
 		}
 		for i := range b.Drags {
 			da, db := a.Drags[i], b.Drags[i]
@@ -390,22 +381,33 @@ func TestPropertyCompiledMatchesGeneralFront(t *testing.T) {
 	}()
 	rapid.Check(t, func(t *rapid.T) {
 		kind, l, p := genFront(t)
-		gen, fast := NewSolver(l), NewSolver(l)
-		gen.general = true
-		var a, b State
-		ea, eb := fast.Solve(p, &a), gen.Solve(p, &b)
+		_, _, took, _ := solveBothPaths(t, kind, l, p, 1e-12)
 		points++
-		if fast.comp.hits > 0 {
+		if took {
 			compiled++
 		}
-		if !sameError(ea, eb) && !foundBalance(ea, eb, &a, l) {
-			t.Fatalf("%s: compiled: %v; general: %v", kind, ea, eb)
-		}
-		if ea != nil {
-			return
-		}
-		if d := summaryDiff(&a, &b, 1e-12); d != "" {
-			t.Fatalf("%s: compiled %s", kind, d)
-		}
 	})
+}
+
+// solveBothPaths solves p with a fresh solver on each path and fails t
+// unless both give the same error (or the compiled path a balance
+// Loop.At confirms, foundBalance) and, where they solve it, the same
+// summary to tol. It returns both states, whether the compiled path took
+// the point and whether it was solved.
+func solveBothPaths(t *rapid.T, kind string, l Layout, p Point, tol float64) (a, b *State, took, solved bool) {
+	gen, fast := NewSolver(l), NewSolver(l)
+	gen.general = true
+	a, b = new(State), new(State)
+	ea, eb := fast.Solve(p, a), gen.Solve(p, b)
+	took = fast.comp.hits > 0
+	if !sameError(ea, eb) && !foundBalance(ea, eb, a, l) {
+		t.Fatalf("%s: compiled: %v; general: %v", kind, ea, eb)
+	}
+	if ea != nil {
+		return a, b, took, false
+	}
+	if d := summaryDiff(a, b, tol); d != "" {
+		t.Fatalf("%s: compiled %s", kind, d)
+	}
+	return a, b, took, true
 }

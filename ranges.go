@@ -55,21 +55,12 @@ func (s *Solver) reachable(p *Point, rg int, v float64) bool {
 	// The unit speeds and the loops at zero pressure, as unitSpeeds and
 	// evalLoops(true) judge them, without building the errors they would
 	// return: only whether there is one.
-	for _, e := range l.loops {
-		el := &l.elems[e]
-		for k, sh := range el.shafts {
-			if ms := float64(el.uspec[k].MaxSpeed); ms > 0 && math.Abs(s.w[sh]) > ms*(1+1e-12) {
-				return false
-			}
-		}
+	if s.overSpeed() >= 0 {
+		return false
 	}
 	clear(s.dp)
-	for j, e := range l.loops {
-		el := &l.elems[e]
-		for k := range s.mw[j] {
-			s.mw[j][k] = units.AngularVelocity(s.w[el.shafts[k+1]])
-		}
-		if s.loopOf(j).Trial(units.AngularVelocity(s.w[el.shafts[0]]), s.mw[j], 0, &s.loopA[j]) != nil {
+	for j := range l.loops {
+		if s.trial(j) != nil {
 			return false
 		}
 	}

@@ -742,15 +742,37 @@ func (s *Solver) consistent() bool {
 
 // unitSpeeds checks each unit's speed against its maximum.
 func (s *Solver) unitSpeeds() error {
+	u := s.overSpeed()
+	if u < 0 {
+		return nil
+	}
+	us := &s.uspeed[u]
+	el := &s.l.elems[us.elem]
+	ms := el.uspec[us.k].MaxSpeed
+	return s.limitErr(LimitError{Element: el.name, Quantity: el.unames[us.k][1], Value: units.Of(units.AngularVelocity(math.Abs(s.w[us.shaft]))),
+		Bound: boundSpeed, Limit: units.Of(ms), Err: ErrInfeasible})
+}
+
+// overSpeed returns the first unit (an index into s.uspeed) turning faster
+// than its rated speed at the speeds in s.w, −1 where none does.
+func (s *Solver) overSpeed() int {
 	for u := range s.uspeed {
 		if us := &s.uspeed[u]; math.Abs(s.w[us.shaft]) > us.lim {
-			el := &s.l.elems[us.elem]
-			ms := el.uspec[us.k].MaxSpeed
-			return s.limitErr(LimitError{Element: el.name, Quantity: el.unames[us.k][1], Value: units.Of(units.AngularVelocity(math.Abs(s.w[us.shaft]))),
-				Bound: boundSpeed, Limit: units.Of(ms), Err: ErrInfeasible})
+			return u
 		}
 	}
-	return nil
+	return -1
+}
+
+// trial evaluates loop j at its pressure s.dp[j] and the point's shaft
+// speeds into s.loopA[j] (Loop.Trial of the loop as the point runs it) and
+// returns Trial's error.
+func (s *Solver) trial(j int) error {
+	el := &s.l.elems[s.l.loops[j]]
+	for k := range s.mw[j] {
+		s.mw[j][k] = units.AngularVelocity(s.w[el.shafts[k+1]])
+	}
+	return s.loopOf(j).Trial(units.AngularVelocity(s.w[el.shafts[0]]), s.mw[j], units.Pressure(s.dp[j]), &s.loopA[j])
 }
 
 // unitSpeed is what unitSpeeds reads of a unit: its shaft, the speed it
@@ -786,13 +808,7 @@ func (s *Solver) evalLoops(final bool) error {
 	l := s.l
 	for j, e := range l.loops {
 		el := &l.elems[e]
-		for k := range s.mw[j] {
-			s.mw[j][k] = units.AngularVelocity(s.w[el.shafts[k+1]])
-		}
-		wp := units.AngularVelocity(s.w[el.shafts[0]])
-		dp := s.dp[j]
-		lp := s.loopOf(j)
-		err := lp.Trial(wp, s.mw[j], units.Pressure(dp), &s.loopA[j])
+		err := s.trial(j)
 		if final && isLimit(err) && s.loopA[j].Limit.Err != nil {
 			return s.loopLimit(el.name, &s.loopA[j].Limit)
 		}
@@ -803,17 +819,19 @@ func (s *Solver) evalLoops(final bool) error {
 			continue
 		}
 		u0, nk := s.unit0[j], len(el.shafts)
-		if s.secant && s.havePrev[j] && s.secantSlopes(j, u0, nk, dp) {
+		if s.secant && s.havePrev[j] && s.secantSlopes(j, u0, nk, s.dp[j]) {
 			continue
 		}
-		if s.secant && !s.havePrev[j] && s.idealSlopes(j, u0, nk, dp) {
+		if s.secant && !s.havePrev[j] && s.idealSlopes(j, u0, nk, s.dp[j]) {
 			continue
 		}
+		dp := s.dp[j]
 		h := dStep(dp)
 		if dp < 0 {
 			h = -h // step away from zero, where the loss terms change sign
 		}
-		if err := lp.Trial(wp, s.mw[j], units.Pressure(dp+h), &s.loopB[j]); err != nil && !isLimit(err) {
+		wp := units.AngularVelocity(s.w[el.shafts[0]])
+		if err := s.loopOf(j).Trial(wp, s.mw[j], units.Pressure(dp+h), &s.loopB[j]); err != nil && !isLimit(err) {
 			return loopErr(el.name, err, &s.loopB[j])
 		}
 		for k := range nk {

@@ -594,6 +594,14 @@ func (c *Curve) Fill(dp units.Pressure, settings []float64, st *LoopState) error
 		return st.Limit.Err
 	}
 	copy(st.Settings, settings)
+	return c.fillUnits(dp, st)
+}
+
+// fillUnits is Fill unit by unit from the settings in st.Settings:
+// Curve.fill (a Curve of fixed torques) or Loop.fill, then Loop.crossed;
+// it gives every error Fill reports.
+func (c *Curve) fillUnits(dp units.Pressure, st *LoopState) error {
+	l := c.l
 	var err error
 	if c.fixed {
 		err = c.fill(float64(dp), st)

@@ -27,14 +27,12 @@ func TestCurveMatchesAt(t *testing.T) {
 		}
 	}()
 	rapid.Check(t, func(t *rapid.T) {
-		m := Wilson{
-			Slip: rapid.Float64Range(0, 3e-9).Draw(t, "slip"), Viscous: rapid.Float64Range(0, 2e5).Draw(t, "viscous"),
-			Friction: rapid.Float64Range(0, 0.03).Draw(t, "friction"), Hydrodynamic: rapid.Float64Range(0, 5).Draw(t, "churning"),
-			ConstantPressure: units.Bar(rapid.Float64Range(0, 3).Draw(t, "constant bar")),
-			ConstantTorque:   units.NewtonMetres(rapid.SampledFrom([]float64{0, 0, 2.5}).Draw(t, "constant N·m")),
-			Compressibility:  rapid.Bool().Draw(t, "compressibility"), DeadVolume: rapid.Float64Range(0, 1).Draw(t, "dead volume"),
-			LeakageSetting: rapid.Float64Range(0, 1).Draw(t, "leakage share"), TorqueSetting: rapid.SampledFrom([]float64{0, 0, 0.5, 1}).Draw(t, "torque share"),
-		}
+		m := drawWilsonBase(t)
+		m.ConstantTorque = units.NewtonMetres(rapid.SampledFrom([]float64{0, 0, 2.5}).Draw(t, "constant N·m"))
+		m.Compressibility = rapid.Bool().Draw(t, "compressibility")
+		m.DeadVolume = rapid.Float64Range(0, 1).Draw(t, "dead volume")
+		m.LeakageSetting = rapid.Float64Range(0, 1).Draw(t, "leakage share")
+		m.TorqueSetting = rapid.SampledFrom([]float64{0, 0, 0.5, 1}).Draw(t, "torque share")
 		unit := func(cc float64) Unit {
 			u, err := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(cc), Loss: m})
 			if err != nil {
@@ -77,26 +75,7 @@ func TestCurveMatchesAt(t *testing.T) {
 			return
 		}
 		checked++
-		tscale := 0.0
-		for k := range tq {
-			p := &st.Pump
-			if k > 0 {
-				p = &st.Motors[k-1]
-			}
-			tscale = math.Max(tscale, math.Abs(float64(p.Torque)))
-		}
-		for k := range set {
-			p := &st.Pump
-			if k > 0 {
-				p = &st.Motors[k-1]
-			}
-			if math.Abs(set[k]-st.Settings[k]) > 1e-13 {
-				t.Fatalf("unit %d: setting %.17g, At %.17g", k, set[k], st.Settings[k])
-			}
-			if d := math.Abs(float64(tq[k] - p.Torque)); d > 1e-12*(tscale+1) {
-				t.Fatalf("unit %d: torque %.17g, At %.17g", k, float64(tq[k]), float64(p.Torque))
-			}
-		}
+		matchUnits(t, set, tq, &st, 1e-13, 1e-12)
 		// Fill is At at the same pressure, a setting limit included. The
 		// loss to the rounding of the loss itself or of the input, whichever
 		// is larger (at a setting limit, on a pump near standstill, the loss
@@ -106,10 +85,7 @@ func TestCurveMatchesAt(t *testing.T) {
 		if (ef == nil) != (errAt == nil) || math.Abs(float64(fs.Loss-st.Loss)) > 1e-12*(math.Abs(float64(st.Input))+float64(st.Loss)+1) {
 			t.Fatalf("Fill: %v, loss %.17g; At: %v, loss %.17g (input %.17g)", ef, float64(fs.Loss), errAt, float64(st.Loss), float64(st.Input))
 		}
-		if fs.Limit.Err != st.Limit.Err || fs.Limit.Quantity != st.Limit.Quantity ||
-			math.Abs(fs.Limit.Value.SI-st.Limit.Value.SI) > 1e-7*(1+math.Abs(st.Limit.Value.SI)) {
-			t.Fatalf("Fill's limit %+v, At's %+v", fs.Limit, st.Limit)
-		}
+		matchLimit(t, &fs, &st)
 		if st.Limit.Err == ErrSettingLimit {
 			limited++
 		}
@@ -129,21 +105,71 @@ func TestCurveMatchesAt(t *testing.T) {
 			return
 		}
 		slopes++
-		if fd := float64(hi.ChargeFlow-lo.ChargeFlow) / (2 * h); math.Abs(qs-fd) > 1e-5*(math.Abs(fd)+1e-12) {
-			t.Fatalf("leakage slope %.10g, central difference %.10g", qs, fd)
-		}
-		for k := range sl {
-			tl, th := float64(lo.Pump.Torque), float64(hi.Pump.Torque)
-			if k > 0 {
-				tl, th = float64(lo.Motors[k-1].Torque), float64(hi.Motors[k-1].Torque)
-			}
-			fd := (th - tl) / (2 * h)
-			if math.Abs(float64(sl[k])-fd) > 1e-5*(math.Abs(fd)+float64(l.spec.Pump.dmax)) {
-				t.Fatalf("unit %d: slope %.10g, central difference %.10g", k, float64(sl[k]), fd)
-			}
-		}
+		matchSlopes(t, qs, sl, &lo, &hi, h, l.spec.Pump.dmax)
 
 	})
+}
+
+// drawWilsonBase draws the Wilson coefficients every Curve property draws
+// alike (slip, viscous, friction, churning, constant pressure), in that
+// order; each property draws the rest after them.
+func drawWilsonBase(t *rapid.T) Wilson {
+	return Wilson{
+		Slip: rapid.Float64Range(0, 3e-9).Draw(t, "slip"), Viscous: rapid.Float64Range(0, 2e5).Draw(t, "viscous"),
+		Friction: rapid.Float64Range(0, 0.03).Draw(t, "friction"), Hydrodynamic: rapid.Float64Range(0, 5).Draw(t, "churning"),
+		ConstantPressure: units.Bar(rapid.Float64Range(0, 3).Draw(t, "constant bar")),
+	}
+}
+
+// unitPoint returns unit k of st: the pump (0) or a motor.
+func unitPoint(st *LoopState, k int) *Point {
+	if k == 0 {
+		return &st.Pump
+	}
+	return &st.Motors[k-1]
+}
+
+// matchUnits fails t unless the settings and torques a Curve gave equal
+// At's in st: the settings to setTol, the torques to tqTol of the largest
+// unit torque (plus 1 N·m).
+func matchUnits(t *rapid.T, set []float64, tq []units.Torque, st *LoopState, setTol, tqTol float64) {
+	tscale := 0.0
+	for k := range tq {
+		tscale = math.Max(tscale, math.Abs(float64(unitPoint(st, k).Torque)))
+	}
+	for k := range set {
+		p := unitPoint(st, k)
+		if math.Abs(set[k]-st.Settings[k]) > setTol {
+			t.Fatalf("unit %d: setting %.17g, At %.17g", k, set[k], st.Settings[k])
+		}
+		if d := math.Abs(float64(tq[k] - p.Torque)); d > tqTol*(tscale+1) {
+			t.Fatalf("unit %d: torque %.17g, At %.17g", k, float64(tq[k]), float64(p.Torque))
+		}
+	}
+}
+
+// matchLimit fails t unless Fill's limit in fs is At's in st.
+func matchLimit(t *rapid.T, fs, st *LoopState) {
+	if fs.Limit.Err != st.Limit.Err || fs.Limit.Quantity != st.Limit.Quantity ||
+		math.Abs(fs.Limit.Value.SI-st.Limit.Value.SI) > 1e-7*(1+math.Abs(st.Limit.Value.SI)) {
+		t.Fatalf("Fill's limit %+v, At's %+v", fs.Limit, st.Limit)
+	}
+}
+
+// matchSlopes fails t unless the leakage slope qs and the unit torques'
+// slopes sl equal central differences of At's states lo and hi, h either
+// side of the pressure (dmax the pump's displacement, the scale of a
+// slope near zero).
+func matchSlopes(t *rapid.T, qs float64, sl []units.Displacement, lo, hi *LoopState, h, dmax float64) {
+	if fd := float64(hi.ChargeFlow-lo.ChargeFlow) / (2 * h); math.Abs(qs-fd) > 1e-5*(math.Abs(fd)+1e-12) {
+		t.Fatalf("leakage slope %.10g, central difference %.10g", qs, fd)
+	}
+	for k := range sl {
+		fd := float64(unitPoint(hi, k).Torque-unitPoint(lo, k).Torque) / (2 * h)
+		if math.Abs(float64(sl[k])-fd) > 1e-5*(math.Abs(fd)+dmax) {
+			t.Fatalf("unit %d: slope %.10g, central difference %.10g", k, float64(sl[k]), fd)
+		}
+	}
 }
 
 // TestCurveRefuses: a loop the Curve cannot differentiate is no Curve.
@@ -169,26 +195,13 @@ func TestCurveRefuses(t *testing.T) {
 // or Loop.fill, then Loop.crossed), without the one-pass fillFast: the
 // reference TestCurveFillFast holds Fill to.
 func fillGeneral(c *Curve, dp units.Pressure, settings []float64, st *LoopState) error {
-	l := c.l
-	st.size(len(l.spec.Motors))
+	st.size(len(c.l.spec.Motors))
 	st.Limit = LimitError{}
 	copy(st.Settings, settings)
 	if c.limit.hit {
 		st.Limit = c.limit.value()
 	}
-	var err error
-	if c.fixed {
-		err = c.fill(float64(dp), st)
-	} else {
-		err = l.fill(units.AngularVelocity(c.wp), c.wms, dp, st)
-	}
-	if err != nil {
-		return err
-	}
-	if st.Limit.Err == nil {
-		l.crossed(st)
-	}
-	return st.Limit.Err
+	return c.fillUnits(dp, st)
 }
 
 // sameBits reports where two values of the same type differ in any bit of
@@ -246,15 +259,12 @@ func TestCurveFillFast(t *testing.T) {
 		}
 	}()
 	rapid.Check(t, func(t *rapid.T) {
-		m := Wilson{
-			Slip: rapid.Float64Range(0, 3e-9).Draw(t, "slip"), Viscous: rapid.Float64Range(0, 2e5).Draw(t, "viscous"),
-			Friction: rapid.Float64Range(0, 0.03).Draw(t, "friction"), Hydrodynamic: rapid.Float64Range(0, 5).Draw(t, "churning"),
-			ConstantPressure: units.Bar(rapid.Float64Range(0, 3).Draw(t, "constant bar")),
-			ConstantTorque:   units.NewtonMetres(rapid.SampledFrom([]float64{0, 2.5}).Draw(t, "constant N·m")),
-			Compressibility:  rapid.Bool().Draw(t, "compressibility"), DeadVolume: rapid.Float64Range(0, 1).Draw(t, "dead volume"),
-			LeakageSetting: rapid.Float64Range(0, 1).Draw(t, "leakage share"),
-			TorqueSetting:  rapid.SampledFrom([]float64{0, 0, 0.5, 1}).Draw(t, "torque share"),
-		}
+		m := drawWilsonBase(t)
+		m.ConstantTorque = units.NewtonMetres(rapid.SampledFrom([]float64{0, 2.5}).Draw(t, "constant N·m"))
+		m.Compressibility = rapid.Bool().Draw(t, "compressibility")
+		m.DeadVolume = rapid.Float64Range(0, 1).Draw(t, "dead volume")
+		m.LeakageSetting = rapid.Float64Range(0, 1).Draw(t, "leakage share")
+		m.TorqueSetting = rapid.SampledFrom([]float64{0, 0, 0.5, 1}).Draw(t, "torque share")
 		swingToZero := rapid.Bool().Draw(t, "motors swing to zero")
 		nm := rapid.IntRange(1, 3).Draw(t, "motors")
 		wp := units.RPM(rapid.Float64Range(-4000, 4000).Draw(t, "pump rpm"))
@@ -444,15 +454,12 @@ func TestCurveQuick(t *testing.T) {
 		}
 	}()
 	rapid.Check(t, func(t *rapid.T) {
-		m := Wilson{
-			Slip: rapid.Float64Range(0, 3e-9).Draw(t, "slip"), Viscous: rapid.Float64Range(0, 2e5).Draw(t, "viscous"),
-			Friction: rapid.Float64Range(0, 0.03).Draw(t, "friction"), Hydrodynamic: rapid.Float64Range(0, 5).Draw(t, "churning"),
-			ConstantPressure: units.Bar(rapid.Float64Range(0, 3).Draw(t, "constant bar")),
-			ConstantTorque:   units.NewtonMetres(rapid.SampledFrom([]float64{0, 2.5}).Draw(t, "constant N·m")),
-			Compressibility:  rapid.Bool().Draw(t, "compressibility"), DeadVolume: rapid.Float64Range(0, 1).Draw(t, "dead volume"),
-			LeakageSetting: rapid.SampledFrom([]float64{0, 0, 0, 0.5}).Draw(t, "leakage share"),
-			TorqueSetting:  rapid.SampledFrom([]float64{0, 0, 0, 0.5}).Draw(t, "torque share"),
-		}
+		m := drawWilsonBase(t)
+		m.ConstantTorque = units.NewtonMetres(rapid.SampledFrom([]float64{0, 2.5}).Draw(t, "constant N·m"))
+		m.Compressibility = rapid.Bool().Draw(t, "compressibility")
+		m.DeadVolume = rapid.Float64Range(0, 1).Draw(t, "dead volume")
+		m.LeakageSetting = rapid.SampledFrom([]float64{0, 0, 0, 0.5}).Draw(t, "leakage share")
+		m.TorqueSetting = rapid.SampledFrom([]float64{0, 0, 0, 0.5}).Draw(t, "torque share")
 		unit := func(label string) Unit {
 			s := UnitSpec{MaxDisplacement: units.CCPerRev(rapid.Float64Range(40, 160).Draw(t, label+" cc"))}
 			if rapid.Bool().Draw(t, label+" lossy") {

@@ -27,13 +27,11 @@ func TestCurvePinnedMatchesAt(t *testing.T) {
 	}()
 	rapid.Check(t, func(t *rapid.T) {
 		drawn++
-		m := Wilson{
-			Slip: rapid.Float64Range(0, 3e-9).Draw(t, "slip"), Viscous: rapid.Float64Range(0, 2e5).Draw(t, "viscous"),
-			Friction: rapid.Float64Range(0, 0.03).Draw(t, "friction"), Hydrodynamic: rapid.Float64Range(0, 5).Draw(t, "churning"),
-			ConstantPressure: units.Bar(rapid.Float64Range(0, 3).Draw(t, "constant bar")),
-			Compressibility:  rapid.Bool().Draw(t, "compressibility"), DeadVolume: rapid.Float64Range(0, 1).Draw(t, "dead volume"),
-			LeakageSetting: rapid.Float64Range(0, 1).Draw(t, "leakage share"), TorqueSetting: rapid.SampledFrom([]float64{0, 0, 0.5, 1}).Draw(t, "torque share"),
-		}
+		m := drawWilsonBase(t)
+		m.Compressibility = rapid.Bool().Draw(t, "compressibility")
+		m.DeadVolume = rapid.Float64Range(0, 1).Draw(t, "dead volume")
+		m.LeakageSetting = rapid.Float64Range(0, 1).Draw(t, "leakage share")
+		m.TorqueSetting = rapid.SampledFrom([]float64{0, 0, 0.5, 1}).Draw(t, "torque share")
 		unit := func(cc float64) Unit {
 			u, err := NewUnit(UnitSpec{MaxDisplacement: units.CCPerRev(cc), Loss: m})
 			if err != nil {
@@ -102,35 +100,13 @@ func TestCurvePinnedMatchesAt(t *testing.T) {
 		if errAt != nil && !errors.Is(errAt, ErrSettingLimit) {
 			t.Fatalf("the Curve solves what At refuses: %v", errAt)
 		}
-		tscale := 0.0
-		for k := range tq {
-			p := &st.Pump
-			if k > 0 {
-				p = &st.Motors[k-1]
-			}
-			tscale = math.Max(tscale, math.Abs(float64(p.Torque)))
-		}
-		for k := range set {
-			p := &st.Pump
-			if k > 0 {
-				p = &st.Motors[k-1]
-			}
-			if math.Abs(set[k]-st.Settings[k]) > 1e-12 {
-				t.Fatalf("unit %d: setting %.17g, At %.17g", k, set[k], st.Settings[k])
-			}
-			if d := math.Abs(float64(tq[k] - p.Torque)); d > 1e-11*(tscale+1) {
-				t.Fatalf("unit %d: torque %.17g, At %.17g", k, float64(tq[k]), float64(p.Torque))
-			}
-		}
+		matchUnits(t, set, tq, &st, 1e-12, 1e-11)
 		var fs LoopState
 		ef := c.Fill(dp, set, &fs)
 		if (ef == nil) != (errAt == nil) || math.Abs(float64(fs.Loss-st.Loss)) > 1e-11*(math.Abs(float64(st.Input))+math.Abs(float64(st.Loss))+1) {
 			t.Fatalf("Fill: %v, loss %v; At: %v, loss %v", ef, fs.Loss, errAt, st.Loss)
 		}
-		if fs.Limit.Err != st.Limit.Err || fs.Limit.Quantity != st.Limit.Quantity ||
-			math.Abs(fs.Limit.Value.SI-st.Limit.Value.SI) > 1e-7*(1+math.Abs(st.Limit.Value.SI)) {
-			t.Fatalf("Fill's limit %+v, At's %+v", fs.Limit, st.Limit)
-		}
+		matchLimit(t, &fs, &st)
 		if st.Limit.Err == ErrSettingLimit {
 			limited++
 		}
@@ -155,18 +131,6 @@ func TestCurvePinnedMatchesAt(t *testing.T) {
 			return
 		}
 		slopes++
-		if fd := float64(hi.ChargeFlow-lo.ChargeFlow) / (2 * h); math.Abs(qs-fd) > 1e-5*(math.Abs(fd)+1e-12) {
-			t.Fatalf("leakage slope %.10g, central difference %.10g", qs, fd)
-		}
-		for k := range sl {
-			tl, th := float64(lo.Pump.Torque), float64(hi.Pump.Torque)
-			if k > 0 {
-				tl, th = float64(lo.Motors[k-1].Torque), float64(hi.Motors[k-1].Torque)
-			}
-			fd := (th - tl) / (2 * h)
-			if math.Abs(float64(sl[k])-fd) > 1e-5*(math.Abs(fd)+float64(l.spec.Pump.dmax)) {
-				t.Fatalf("unit %d: slope %.10g, central difference %.10g", k, float64(sl[k]), fd)
-			}
-		}
+		matchSlopes(t, qs, sl, &lo, &hi, h, l.spec.Pump.dmax)
 	})
 }
